@@ -1,0 +1,3 @@
+/** Importing this registers every model and association with the pool. */
+export { User } from './user';
+export { ApiToken } from './api-token';

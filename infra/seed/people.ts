@@ -1,0 +1,28 @@
+import type { Role } from '../../shared/constants/roles';
+
+/**
+ * The invented staff of the demo scenario: Brackenmoor Processing, a plant group of three
+ * sites. The local identity provider signs them in; the seed gives them their Ebbline roles.
+ */
+export interface DemoPerson {
+  login: string;
+  name: string;
+  email: string;
+  roles: Role[];
+  /** Demo password of the local identity provider (listed in the README). */
+  password: string;
+}
+
+export const PLANT_GROUP = 'Brackenmoor Processing';
+
+export const DEMO_PEOPLE: DemoPerson[] = [
+  { login: 'maren', name: 'Maren Oyelaran', email: 'maren@brackenmoor.example', roles: ['admin'], password: 'tidewater-admin' },
+  { login: 'tomas', name: 'Tomas Keelan', email: 'tomas@brackenmoor.example', roles: ['planner'], password: 'tidewater-plan' },
+  { login: 'priya', name: 'Priya Halden', email: 'priya@brackenmoor.example', roles: ['planner'], password: 'tidewater-plan' },
+  { login: 'dario', name: 'Dario Venn', email: 'dario@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
+  { login: 'lucia', name: 'Lucia Marsh', email: 'lucia@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
+  { login: 'kofi', name: 'Kofi Brannock', email: 'kofi@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
+  { login: 'ines', name: 'Ines Carvell', email: 'ines@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
+  { login: 'rurik', name: 'Rurik Salo', email: 'rurik@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
+  { login: 'noor', name: 'Noor Ashdown', email: 'noor@brackenmoor.example', roles: [], password: 'tidewater-new' },
+];

@@ -1,0 +1,64 @@
+/**
+ * `npm start`: builds the web app, starts Ebbline's own PostgreSQL, migrates, seeds the demo
+ * scenario and serves the product at one address. Ctrl-C stops everything it started.
+ */
+import { performance } from 'node:perf_hooks';
+import { build } from 'vite';
+import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
+import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+
+const t0 = performance.now();
+const step = (message: string) =>
+  process.stdout.write(`[ebbline] ${message} (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`);
+
+loadEnvFile();
+process.chdir(PROJECT_ROOT);
+const cluster = appClusterOptions();
+
+const stops: Array<() => Promise<void> | void> = [];
+let stopping = false;
+async function stopAll(code: number): Promise<never> {
+  if (!stopping) {
+    stopping = true;
+    process.stdout.write('\n[ebbline] stopping…\n');
+    for (const stop of stops.reverse()) {
+      try {
+        await stop();
+      } catch (err) {
+        console.error('[ebbline] while stopping:', err);
+      }
+    }
+  }
+  process.exit(code);
+}
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+  process.on(signal, () => void stopAll(0));
+}
+
+try {
+  await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production' });
+  step('built the web app into dist/web');
+
+  startCluster(cluster);
+  stops.push(() => stopCluster(cluster));
+  await ensureDatabase(cluster, cluster.database);
+  process.env.DATABASE_URL ??= databaseUrl(cluster, cluster.database);
+  process.env.NODE_ENV ??= 'production';
+  step(`PostgreSQL on 127.0.0.1:${cluster.port}`);
+
+  const { migrate } = await import('../api/src/db/migrator');
+  const applied = await migrate();
+  step(applied.length ? `applied ${applied.length} migration(s)` : 'database schema is up to date');
+
+  const { seedDemo } = await import('./seed/index');
+  const seeded = await seedDemo();
+  step(`demo scenario ready (${Object.entries(seeded).map(([k, v]) => `${v} ${k}`).join(', ')})`);
+
+  const { startServer } = await import('../api/src/server');
+  const server = await startServer();
+  stops.push(() => server.close());
+  step(`Ebbline is running at ${server.url}  (cold start, Ctrl-C stops everything)`);
+} catch (err) {
+  console.error(`[ebbline] could not start: ${err instanceof Error ? err.message : String(err)}`);
+  await stopAll(1);
+}

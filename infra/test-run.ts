@@ -1,0 +1,69 @@
+/**
+ * `npm test`: builds the web app, starts a fresh PostgreSQL of the tests' own (own folder and
+ * port, so it runs beside `npm start`), migrates a template database, runs every vitest
+ * project (unit, api, e2e), stops PostgreSQL whatever happened, and ends with the plain line
+ * `N passed, N failed`. Extra arguments go to vitest, e.g. `npm test -- tests/shared`.
+ */
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { build } from 'vite';
+import { PROJECT_ROOT, testClusterOptions } from './local-cluster';
+import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+
+process.chdir(PROJECT_ROOT);
+process.env.TZ = 'UTC';
+const cluster = testClusterOptions();
+const reportFile = path.resolve('.data/test-report.json');
+
+interface VitestReport {
+  numPassedTests: number;
+  numFailedTests: number;
+  numPendingTests?: number;
+  testResults: Array<{ name: string; status: string; message?: string; assertionResults: unknown[] }>;
+}
+
+/** Counts every test of every project; a file that failed to load counts as one failure. */
+function summarise(): { passed: number; failed: number; skipped: number } {
+  if (!fs.existsSync(reportFile)) return { passed: 0, failed: 1, skipped: 0 };
+  const report = JSON.parse(fs.readFileSync(reportFile, 'utf8')) as VitestReport;
+  const brokenFiles = report.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0);
+  for (const file of brokenFiles) console.error(`[test] could not run ${path.relative(PROJECT_ROOT, file.name)}: ${file.message ?? ''}`);
+  return {
+    passed: report.numPassedTests,
+    failed: report.numFailedTests + brokenFiles.length,
+    skipped: report.numPendingTests ?? 0,
+  };
+}
+
+let exitCode = 1;
+try {
+  await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production' });
+
+  stopCluster(cluster);
+  fs.rmSync(cluster.dataDir, { recursive: true, force: true });
+  startCluster(cluster);
+  await ensureDatabase(cluster, 'ebbline_template');
+  const migrated = spawnSync('npx', ['tsx', 'api/src/db/migrate-cli.ts'], {
+    stdio: 'inherit',
+    env: { ...process.env, DATABASE_URL: databaseUrl(cluster, 'ebbline_template'), LOG_LEVEL: 'warn' },
+  });
+  if (migrated.status !== 0) throw new Error('migrating the template database failed');
+
+  fs.rmSync(reportFile, { force: true });
+  const vitest = spawnSync(
+    'npx',
+    ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...process.argv.slice(2)],
+    { stdio: 'inherit', env: { ...process.env, TZ: 'UTC', PG_TEST_PORT: String(cluster.port) } },
+  );
+  const { passed, failed, skipped } = summarise();
+  exitCode = vitest.status === 0 && failed === 0 ? 0 : 1;
+  console.log(`\n${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+} catch (err) {
+  console.error(`[test] ${err instanceof Error ? err.message : String(err)}`);
+  console.log('\n0 passed, 1 failed');
+} finally {
+  stopCluster(cluster);
+  fs.rmSync(cluster.dataDir, { recursive: true, force: true });
+}
+process.exit(exitCode);

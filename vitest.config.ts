@@ -1,0 +1,42 @@
+import { defineConfig } from 'vitest/config';
+
+/**
+ * Three projects, run together by `npm test` (infra/test-run.ts starts their PostgreSQL):
+ * - unit: pure code (shared/, web logic, CLIs), no database;
+ * - api:  supertest against the real database, one fresh database per test file;
+ * - e2e:  headless Chromium against the whole product started once for the run.
+ */
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'unit',
+          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}', 'tests/api/cli/**/*.test.ts', 'tests/infra/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        test: {
+          name: 'api',
+          include: ['tests/api/**/*.test.ts'],
+          exclude: ['tests/api/cli/**'],
+          setupFiles: ['tests/support/api-setup.ts'],
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          globalSetup: ['tests/support/e2e-global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+          // one browser at a time keeps a 2-core machine responsive
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});

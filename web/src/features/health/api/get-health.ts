@@ -1,0 +1,25 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client';
+
+export interface Health {
+  status: 'ok' | 'unavailable';
+  version: string;
+  database: 'up' | 'down';
+  uptimeSeconds: number;
+}
+
+/** The health endpoint answers 503 with a body when the database is down: keep that body. */
+export async function getHealth(): Promise<Health> {
+  const response = await fetch('/api/health', { headers: { Accept: 'application/json' } });
+  if (response.status !== 200 && response.status !== 503) {
+    throw new Error(`The server answered ${response.status}.`);
+  }
+  return (await response.json()) as Health;
+}
+
+export const healthKeys = { all: ['health'] as const };
+
+export const healthQueryOptions = () =>
+  queryOptions({ queryKey: healthKeys.all, queryFn: getHealth, refetchInterval: 30_000 });
+
+export const useHealth = () => useQuery(healthQueryOptions());
