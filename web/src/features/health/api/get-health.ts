@@ -1,5 +1,4 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { apiFetch } from '../../../lib/api-client';
 
 export interface Health {
   status: 'ok' | 'unavailable';
