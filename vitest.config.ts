@@ -12,7 +12,7 @@ export default defineConfig({
       {
         test: {
           name: 'unit',
-          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}', 'tests/api/cli/**/*.test.ts', 'tests/infra/**/*.test.ts'],
+          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}', 'tests/api/{cli,config}/**/*.test.ts', 'tests/infra/**/*.test.ts'],
           environment: 'node',
         },
       },
@@ -20,7 +20,7 @@ export default defineConfig({
         test: {
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
-          exclude: ['tests/api/cli/**'],
+          exclude: ['tests/api/{cli,config}/**'],
           setupFiles: ['tests/support/api-setup.ts'],
           testTimeout: 20_000,
           hookTimeout: 30_000,

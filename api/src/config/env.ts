@@ -9,8 +9,8 @@ const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
   HOST: z.string().min(1).default('127.0.0.1'),
-  /** The address users open; decides cookie Secure and the OIDC redirect. */
-  APP_URL: z.url().default('http://localhost:3000'),
+  /** The address users open; decides cookie Secure and the OIDC redirect. Default: localhost:PORT. */
+  APP_URL: z.url().optional(),
   DATABASE_URL: z
     .string()
     .regex(/^postgres(ql)?:\/\//, 'must be a postgres:// connection URL')
@@ -32,7 +32,8 @@ const envSchema = z.object({
   TRUST_PROXY: flag.default(false),
 });
 
-export type Config = Omit<z.infer<typeof envSchema>, 'OIDC_REDIRECT_URL'> & {
+export type Config = Omit<z.infer<typeof envSchema>, 'APP_URL' | 'OIDC_REDIRECT_URL'> & {
+  APP_URL: string;
   OIDC_REDIRECT_URL: string;
 };
 
@@ -53,9 +54,11 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
   }
   const parsed = result.data;
+  const appUrl = (parsed.APP_URL ?? `http://localhost:${parsed.PORT}`).replace(/\/$/, '');
   return {
     ...parsed,
-    OIDC_REDIRECT_URL: parsed.OIDC_REDIRECT_URL ?? new URL('/auth/callback', parsed.APP_URL).href,
+    APP_URL: appUrl,
+    OIDC_REDIRECT_URL: parsed.OIDC_REDIRECT_URL ?? new URL('/auth/callback', appUrl).href,
   };
 }
 

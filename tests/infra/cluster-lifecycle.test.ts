@@ -1,0 +1,45 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { PROJECT_ROOT } from '../../infra/local-cluster';
+import { ensureDatabase, isRunning, startCluster, stopCluster, type ClusterOptions } from '../../infra/postgres';
+
+const cluster: ClusterOptions = {
+  dataDir: path.join(PROJECT_ROOT, '.data', `pg-lifecycle-${process.pid}`),
+  port: Number(process.env.PG_LIFECYCLE_PORT || 54399),
+  user: 'ebbline',
+  password: 'lifecycle',
+  durable: false,
+};
+
+describe('the project-run PostgreSQL cluster', () => {
+  afterAll(() => {
+    stopCluster(cluster);
+    fs.rmSync(cluster.dataDir, { recursive: true, force: true });
+  });
+
+  it('when started the first time, then it creates the cluster and answers on loopback', async () => {
+    startCluster(cluster);
+    expect(isRunning(cluster)).toBe(true);
+    await ensureDatabase(cluster, 'lifecycle');
+    const conf = fs.readFileSync(path.join(cluster.dataDir, 'postmaster.opts'), 'utf8');
+    expect(conf).toContain('listen_addresses=127.0.0.1');
+  });
+
+  it('when stopped and started again, then it reuses the same cluster', () => {
+    const version = fs.statSync(path.join(cluster.dataDir, 'PG_VERSION')).ino;
+    stopCluster(cluster);
+    expect(isRunning(cluster)).toBe(false);
+    startCluster(cluster);
+    expect(isRunning(cluster)).toBe(true);
+    expect(fs.statSync(path.join(cluster.dataDir, 'PG_VERSION')).ino).toBe(version);
+  });
+
+  it('when a crash left a stale pid file, then a start still succeeds', () => {
+    stopCluster(cluster);
+    // the pid of this test process: alive, but not a postgres server
+    fs.writeFileSync(path.join(cluster.dataDir, 'postmaster.pid'), `${process.pid}\n${cluster.dataDir}\n`);
+    startCluster(cluster);
+    expect(isRunning(cluster)).toBe(true);
+  });
+});
