@@ -14,7 +14,9 @@ import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgr
 process.chdir(PROJECT_ROOT);
 process.env.TZ = 'UTC';
 const cluster = testClusterOptions();
-const reportFile = path.resolve('.data/test-report.json');
+// per cluster port, so that two test runs on one machine never share a file
+const reportFile = path.resolve(`.data/test-report-${cluster.port}.json`);
+const webDistDir = path.resolve(`dist/test-web-${cluster.port}`);
 
 interface VitestReport {
   numPassedTests: number;
@@ -38,7 +40,7 @@ function summarise(): { passed: number; failed: number; skipped: number } {
 
 let exitCode = 1;
 try {
-  await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production' });
+  await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production', build: { outDir: webDistDir } });
 
   stopCluster(cluster);
   fs.rmSync(cluster.dataDir, { recursive: true, force: true });
@@ -54,7 +56,7 @@ try {
   const vitest = spawnSync(
     'npx',
     ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...process.argv.slice(2)],
-    { stdio: 'inherit', env: { ...process.env, TZ: 'UTC', PG_TEST_PORT: String(cluster.port) } },
+    { stdio: 'inherit', env: { ...process.env, TZ: 'UTC', PG_TEST_PORT: String(cluster.port), E2E_WEB_DIST_DIR: webDistDir } },
   );
   const { passed, failed, skipped } = summarise();
   exitCode = vitest.status === 0 && failed === 0 ? 0 : 1;

@@ -19,7 +19,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
     LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
     PORT: String(port),
     APP_URL: baseUrl,
-    WEB_DIST_DIR: 'dist/web',
+    WEB_DIST_DIR: process.env.E2E_WEB_DIST_DIR ?? 'dist/web',
     DATABASE_URL: await createTestDatabase('ebbline_e2e'),
   });
   const { seedDemo } = await import('../../infra/seed/index');
