@@ -6,9 +6,17 @@ import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import { getConfig } from './config/env';
 import { logger } from './logger';
+import { requireCsrfToken } from './auth/csrf';
+import { authRouter } from './auth/router';
+import { sessionMiddleware } from './auth/session';
 import { authenticate } from './middleware/authenticate';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { assertEveryRouteDeclaresAccess } from './middleware/route-access';
+import { accessEventsRouter } from './routes/access-events/router';
+import { apiTokensRouter } from './routes/api-tokens/router';
 import { healthRouter } from './routes/health/router';
+import { meRouter } from './routes/me/router';
+import { peopleRouter } from './routes/people/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -40,11 +48,22 @@ export function createApp(): express.Express {
     }),
   );
 
+  const session = sessionMiddleware(config);
+  app.use('/auth', session, authRouter);
+
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use('/health', healthRouter);
+  api.use(session);
   api.use(authenticate);
+  api.use(requireCsrfToken);
+  api.use('/me/tokens', apiTokensRouter);
+  api.use('/me', meRouter);
+  api.use('/people', peopleRouter);
+  api.use('/access-events', accessEventsRouter);
   api.use(apiNotFound);
+  // deny by default: a route that declares no roles stops the app from starting
+  app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');
   app.use('/api', api);
 
   serveWebApp(app, config.WEB_DIST_DIR);

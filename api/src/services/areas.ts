@@ -1,0 +1,138 @@
+/** Use cases of areas: list, read, create, change, retire. */
+import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import type { AreaData, AreaListQuery, AreaUpdate } from '../../../shared/schemas/area';
+import { sequelize } from '../db/sequelize';
+import { AppError } from '../errors';
+import { Area } from '../models/area';
+import { Cabinet } from '../models/cabinet';
+import { Site } from '../models/site';
+import type { AuthUser } from '../types/express';
+import { recordAudit } from './audit';
+import { AREA_AUDITED } from './audited-fields';
+import {
+  changedFields,
+  containsPattern,
+  duplicateValue,
+  fieldProblem,
+  lockForChange,
+  pageWindow,
+  sameTextAs,
+  snapshotOf,
+} from './register-records';
+
+
+const CABINET_COUNT = [
+  literal(`(SELECT count(*)::int FROM cabinets c WHERE c.area_id = "Area"."id" AND c.retired_at IS NULL)`),
+  'cabinetCount',
+] as const;
+
+const withSite = { model: Site, as: 'site', required: true } as const;
+
+/** One page of areas matching the query, with the total. */
+export async function listAreas(query: AreaListQuery): Promise<{ rows: Area[]; count: number }> {
+  const where: WhereOptions<Area> = {};
+  if (!query.includeRetired) Object.assign(where, { retiredAt: null });
+  if (query.siteId) Object.assign(where, { siteId: query.siteId });
+  if (query.q) Object.assign(where, { name: { [Op.iLike]: containsPattern(query.q) } });
+  const dir = query.sort.direction === 'desc' ? 'DESC' : 'ASC';
+  const order: Order =
+    query.sort.field === 'site'
+      ? [[{ model: Site, as: 'site' }, 'name', dir], ['name', 'ASC'], ['id', 'ASC']]
+      : [[query.sort.field, dir], ['id', 'ASC']];
+  const [rows, count] = await Promise.all([
+    Area.findAll({
+      where,
+      include: [withSite],
+      attributes: { include: [CABINET_COUNT] as never },
+      order,
+      ...pageWindow(query),
+    }),
+    Area.count({ where }),
+  ]);
+  return { rows, count };
+}
+
+/** An area with its site and count. @throws AppError 404 */
+export async function getArea(id: string): Promise<Area> {
+  const area = await Area.findByPk(id, { include: [withSite], attributes: { include: [CABINET_COUNT] as never } });
+  if (!area) throw AppError.notFound('Area');
+  return area;
+}
+
+async function assertAreaNameFree(siteId: string, name: string, exceptId: string | null, transaction: Transaction) {
+  const clash = await Area.findOne({
+    where: {
+      siteId,
+      retiredAt: null,
+      ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}),
+      [Op.and]: [sameTextAs('name', name)],
+    },
+    transaction,
+  });
+  if (clash) throw duplicateValue('name', `This site already has an area called ${name}.`);
+}
+
+/**
+ * Adds an area to a site in use.
+ * @throws AppError 400 naming `siteId` when the site is unknown or retired; 409 `duplicate`
+ */
+export async function createArea(input: AreaData, actor: AuthUser): Promise<Area> {
+  const id = await sequelize.transaction(async (transaction) => {
+    const site = await Site.findByPk(input.siteId, { transaction });
+    if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
+    await assertAreaNameFree(input.siteId, input.name, null, transaction);
+    const area = await Area.create(input, { transaction });
+    await recordAudit(
+      {
+        entityType: 'area',
+        entityId: area.id,
+        action: 'create',
+        actor,
+        summary: `Added area ${area.name} to ${site.name}`,
+        before: null,
+        after: snapshotOf(area, AREA_AUDITED),
+      },
+      transaction,
+    );
+    return area.id;
+  });
+  return getArea(id);
+}
+
+/** Changes an area. @throws AppError 404, 409 `stale-version` / `retired` / `duplicate` */
+export async function updateArea(id: string, input: AreaUpdate, actor: AuthUser): Promise<Area> {
+  const { version, ...fields } = input;
+  await sequelize.transaction(async (transaction) => {
+    const area = await lockForChange(Area, id, version, 'area', transaction);
+    const changes = changedFields(area, fields);
+    if (Object.keys(changes).length === 0) return;
+    if (changes.name !== undefined) await assertAreaNameFree(area.siteId, changes.name, id, transaction);
+    const before = snapshotOf(area, AREA_AUDITED);
+    area.set({ ...changes, version: area.version + 1 });
+    await area.save({ transaction });
+    await recordAudit(
+      { entityType: 'area', entityId: id, action: 'update', actor, summary: `Changed area ${area.name}`, before, after: snapshotOf(area, AREA_AUDITED) },
+      transaction,
+    );
+  });
+  return getArea(id);
+}
+
+/** Retires an area with no cabinets in use. @throws AppError 404, 409 `stale-version` / `retired` / `in-use` */
+export async function retireArea(id: string, version: number, actor: AuthUser): Promise<Area> {
+  await sequelize.transaction(async (transaction) => {
+    const area = await lockForChange(Area, id, version, 'area', transaction);
+    const inUse = await Cabinet.count({ where: { areaId: id, retiredAt: null }, transaction });
+    if (inUse > 0) {
+      throw new AppError('in-use', 409, `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
+    }
+    const before = snapshotOf(area, AREA_AUDITED);
+    area.set({ retiredAt: new Date(), version: area.version + 1 });
+    await area.save({ transaction });
+    await recordAudit(
+      { entityType: 'area', entityId: id, action: 'retire', actor, summary: `Retired area ${area.name}`, before, after: snapshotOf(area, AREA_AUDITED) },
+      transaction,
+    );
+  });
+  return getArea(id);
+}

@@ -1,0 +1,389 @@
+/**
+ * Use cases of DC-link banks: list, read, add, change, remove, replace, and set the baseline.
+ * A new bank's baseline comes from its design's nameplate (C = p × C_unit / s, τ = R × C) until
+ * a trusted decay run, or a reliability engineer, sets it.
+ */
+import { Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import type { BaselineSource } from '../../../shared/constants/register';
+import {
+  nominalBankCapacitanceMicrofarads,
+  nominalTauSeconds,
+} from '../../../shared/schemas/bank-design';
+import type { BankData, BankListQuery, BankReplacementData, BankUpdate } from '../../../shared/schemas/bank';
+import { sequelize } from '../db/sequelize';
+import { AppError } from '../errors';
+import { Area } from '../models/area';
+import { Bank } from '../models/bank';
+import { BankDesign } from '../models/bank-design';
+import { BankDesignVersion } from '../models/bank-design-version';
+import { Cabinet } from '../models/cabinet';
+import { Site } from '../models/site';
+import { User } from '../models/user';
+import type { AuthUser } from '../types/express';
+import { recordAudit } from './audit';
+import { BANK_AUDITED } from './audited-fields';
+import {
+  changedFields,
+  containsPattern,
+  duplicateValue,
+  fieldProblem,
+  lockForChange,
+  pageWindow,
+  sameTextAs,
+  snapshotOf,
+} from './register-records';
+
+/** Everything a bank's answer shows: cabinet, area, site, design and who set the baseline. */
+function bankIncludes(siteId?: string): Includeable[] {
+  return [
+    {
+      model: Cabinet,
+      as: 'cabinet',
+      required: true,
+      include: [
+        {
+          model: Area,
+          as: 'area',
+          required: true,
+          where: siteId ? { siteId } : undefined,
+          include: [{ model: Site, as: 'site', required: true }],
+        },
+      ],
+    },
+    { model: BankDesign, as: 'bankDesign', required: true, include: [{ model: BankDesignVersion, as: 'currentVersion' }] },
+    { model: User, as: 'baselineSetBy', attributes: ['id', 'name'] },
+    { model: BankDesignVersion, as: 'baselineDesignVersion', attributes: ['id', 'revision'] },
+  ];
+}
+
+function bankOrder(query: BankListQuery): Order {
+  const dir = query.sort.direction === 'desc' ? 'DESC' : 'ASC';
+  const byCabinet: Order = [
+    [{ model: Cabinet, as: 'cabinet' }, 'tag', 'ASC'],
+    ['position', 'ASC'],
+    ['id', 'ASC'],
+  ];
+  switch (query.sort.field) {
+    case 'cabinet':
+      return [[{ model: Cabinet, as: 'cabinet' }, 'tag', dir], ['position', dir], ['id', 'ASC']];
+    case 'design':
+      return [[{ model: BankDesign, as: 'bankDesign' }, 'code', dir], ...byCabinet];
+    case 'installedOn':
+      return [['installedOn', `${dir} NULLS LAST`], ...byCabinet];
+    default:
+      return [[query.sort.field, dir], ...byCabinet];
+  }
+}
+
+/** One page of banks matching the query (banks in service unless asked otherwise), with the total. */
+export async function listBanks(query: BankListQuery): Promise<{ rows: Bank[]; count: number }> {
+  const where: WhereOptions<Bank> = {};
+  if (query.status) Object.assign(where, { status: query.status });
+  else if (!query.includeRetired) Object.assign(where, { status: 'in-service' });
+  if (query.cabinetId) Object.assign(where, { cabinetId: query.cabinetId });
+  if (query.bankDesignId) Object.assign(where, { bankDesignId: query.bankDesignId });
+  if (query.q) {
+    const pattern = containsPattern(query.q);
+    Object.assign(where, {
+      [Op.or]: [
+        { '$cabinet.tag$': { [Op.iLike]: pattern } },
+        { position: { [Op.iLike]: pattern } },
+        { serialNumber: { [Op.iLike]: pattern } },
+      ],
+    });
+  }
+  const include = bankIncludes(query.siteId);
+  const [rows, count] = await Promise.all([
+    Bank.findAll({ where, include, order: bankOrder(query), ...pageWindow(query), subQuery: false }),
+    Bank.count({ where, include: include.slice(0, 1), distinct: true, col: 'id' }),
+  ]);
+  return { rows, count };
+}
+
+/** A bank with everything its answer shows. @throws AppError 404 */
+export async function getBank(id: string, transaction?: Transaction): Promise<Bank> {
+  const bank = await Bank.findByPk(id, { include: bankIncludes(), transaction });
+  if (!bank) throw AppError.notFound('Bank');
+  return bank;
+}
+
+/** The replacement chain a bank belongs to, oldest first (the bank itself included). */
+export async function getBankLineage(bank: Bank): Promise<Bank[]> {
+  const include = [{ model: BankDesign, as: 'bankDesign', attributes: ['id', 'code'] }];
+  const chain: Bank[] = [bank];
+  let earlier = bank.replacesBankId;
+  while (earlier && chain.length < 100) {
+    const found = await Bank.findByPk(earlier, { include });
+    if (!found) break;
+    chain.unshift(found);
+    earlier = found.replacesBankId;
+  }
+  let later = bank.replacedByBankId;
+  while (later && chain.length < 100) {
+    const found = await Bank.findByPk(later, { include });
+    if (!found) break;
+    chain.push(found);
+    later = found.replacedByBankId;
+  }
+  return chain;
+}
+
+/** The nameplate baseline of a design revision: C = p × C_unit / s, τ = R_bleed × C. */
+export function nameplateBaseline(version: BankDesignVersion): { tauSeconds: number; capacitanceMicrofarads: number } {
+  const capacitanceMicrofarads = nominalBankCapacitanceMicrofarads(
+    version.unitCapacitanceMicrofarads,
+    version.seriesCount,
+    version.parallelCount,
+  );
+  return { capacitanceMicrofarads, tauSeconds: nominalTauSeconds(version.bleederOhms, capacitanceMicrofarads) };
+}
+
+function nameplateBaselineFields(version: BankDesignVersion, actor: AuthUser | null, note: string) {
+  const { tauSeconds, capacitanceMicrofarads } = nameplateBaseline(version);
+  return {
+    baselineTauSeconds: tauSeconds,
+    baselineCapacitanceMicrofarads: capacitanceMicrofarads,
+    baselineSource: 'nameplate' as BaselineSource,
+    baselineSetAt: new Date(),
+    baselineSetById: actor?.id ?? null,
+    baselineDesignVersionId: version.id,
+    baselineDecayRunId: null,
+    baselineNote: note,
+  };
+}
+
+/** The design a bank may be given: in use, with its current revision. */
+async function designInUse(bankDesignId: string, transaction: Transaction): Promise<{ design: BankDesign; current: BankDesignVersion }> {
+  const design = await BankDesign.findByPk(bankDesignId, {
+    include: [{ model: BankDesignVersion, as: 'currentVersion' }],
+    transaction,
+  });
+  if (!design || design.retiredAt || !design.currentVersion) {
+    throw fieldProblem('bankDesignId', 'This bank design does not exist or is retired.');
+  }
+  return { design, current: design.currentVersion };
+}
+
+async function assertPositionFree(cabinetId: string, position: string, exceptId: string | null, transaction: Transaction) {
+  const clash = await Bank.findOne({
+    attributes: ['id'],
+    where: {
+      cabinetId,
+      status: 'in-service',
+      ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}),
+      [Op.and]: [sameTextAs('position', position)],
+    },
+    transaction,
+  });
+  if (clash) throw duplicateValue('position', `This cabinet already has a bank in service at ${position}. Replace it instead.`);
+}
+
+/** Loads an in-service bank for change. @throws AppError 404, 409 */
+async function lockBankInService(id: string, version: number, transaction: Transaction): Promise<Bank> {
+  const bank = await lockForChange(Bank, id, version, 'bank', transaction);
+  if (bank.status !== 'in-service') {
+    throw new AppError('replaced', 409, `This bank was ${bank.status}; its record stays as history and cannot be changed.`);
+  }
+  return bank;
+}
+
+/**
+ * Adds a bank to a cabinet in use, with its baseline from the design's nameplate.
+ * @throws AppError 400 naming `cabinetId` / `bankDesignId`; 409 `duplicate` naming `position`
+ */
+export async function createBank(input: BankData, actor: AuthUser): Promise<Bank> {
+  const id = await sequelize.transaction(async (transaction) => {
+    const cabinet = await Cabinet.findByPk(input.cabinetId, { transaction });
+    if (!cabinet || cabinet.retiredAt) throw fieldProblem('cabinetId', 'This cabinet does not exist or is retired.');
+    const { current } = await designInUse(input.bankDesignId, transaction);
+    await assertPositionFree(input.cabinetId, input.position, null, transaction);
+    const bank = await Bank.create(
+      {
+        ...input,
+        ...nameplateBaselineFields(current, actor, ''),
+        replacesBankId: null,
+        replacedByBankId: null,
+        replacedOn: null,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        entityType: 'bank',
+        entityId: bank.id,
+        action: 'create',
+        actor,
+        summary: `Added bank ${bank.position} to cabinet ${cabinet.tag}`,
+        before: null,
+        after: snapshotOf(bank, BANK_AUDITED),
+      },
+      transaction,
+    );
+    return bank.id;
+  });
+  return getBank(id);
+}
+
+/**
+ * Changes a bank in service. A new design corrects a wrong record: a nameplate baseline follows it.
+ * @throws AppError 400, 404, 409
+ */
+export async function updateBank(id: string, input: BankUpdate, actor: AuthUser): Promise<Bank> {
+  const { version, ...fields } = input;
+  await sequelize.transaction(async (transaction) => {
+    const bank = await lockBankInService(id, version, transaction);
+    const changes: Record<string, unknown> = changedFields(bank, fields);
+    if (Object.keys(changes).length === 0) return;
+    if (fields.position !== undefined && changes.position !== undefined) {
+      await assertPositionFree(bank.cabinetId, fields.position, id, transaction);
+    }
+    if (fields.bankDesignId !== undefined && changes.bankDesignId !== undefined) {
+      const { current } = await designInUse(fields.bankDesignId, transaction);
+      if (bank.baselineSource === 'nameplate') {
+        Object.assign(changes, nameplateBaselineFields(current, actor, 'Design corrected'));
+      }
+    }
+    const before = snapshotOf(bank, BANK_AUDITED);
+    bank.set({ ...changes, version: bank.version + 1 });
+    await bank.save({ transaction });
+    await recordAudit(
+      { entityType: 'bank', entityId: id, action: 'update', actor, summary: `Changed bank ${bank.position}`, before, after: snapshotOf(bank, BANK_AUDITED) },
+      transaction,
+    );
+  });
+  return getBank(id);
+}
+
+/** Removes a bank in service (soft delete; its history stays). @throws AppError 404, 409 */
+export async function retireBank(id: string, version: number, actor: AuthUser): Promise<Bank> {
+  await sequelize.transaction(async (transaction) => {
+    const bank = await lockBankInService(id, version, transaction);
+    const before = snapshotOf(bank, BANK_AUDITED);
+    bank.set({ status: 'removed', retiredAt: new Date(), version: bank.version + 1 });
+    await bank.save({ transaction });
+    await recordAudit(
+      { entityType: 'bank', entityId: id, action: 'retire', actor, summary: `Removed bank ${bank.position}`, before, after: snapshotOf(bank, BANK_AUDITED) },
+      transaction,
+    );
+  });
+  return getBank(id);
+}
+
+/** A new baseline for a bank. */
+export interface BaselineChange {
+  version: number;
+  source: BaselineSource;
+  /** Required unless the source is the nameplate. */
+  tauSeconds?: number | null;
+  capacitanceMicrofarads?: number | null;
+  /** The trusted decay run, for source `decay-run`. */
+  decayRunId?: string | null;
+  note: string;
+}
+
+/**
+ * Sets a bank's baseline: back to its design's current nameplate, to values entered by hand,
+ * or from a trusted decay run. Records who and when.
+ * @throws AppError 400, 404, 409
+ */
+export async function setBankBaseline(id: string, change: BaselineChange, actor: AuthUser): Promise<Bank> {
+  await sequelize.transaction(async (transaction) => {
+    const bank = await lockBankInService(id, change.version, transaction);
+    const before = snapshotOf(bank, BANK_AUDITED);
+    if (change.source === 'nameplate') {
+      const { current } = await designInUse(bank.bankDesignId, transaction);
+      bank.set(nameplateBaselineFields(current, actor, change.note));
+    } else {
+      if (!change.tauSeconds) throw fieldProblem('tauSeconds', 'Enter the baseline τ in seconds.');
+      if (!change.capacitanceMicrofarads) throw fieldProblem('capacitanceMicrofarads', 'Enter the baseline capacitance in µF.');
+      if (change.source === 'decay-run' && !change.decayRunId) throw fieldProblem('decayRunId', 'Name the trusted decay run.');
+      bank.set({
+        baselineTauSeconds: change.tauSeconds,
+        baselineCapacitanceMicrofarads: change.capacitanceMicrofarads,
+        baselineSource: change.source,
+        baselineSetAt: new Date(),
+        baselineSetById: actor.id,
+        baselineDesignVersionId: null,
+        baselineDecayRunId: change.source === 'decay-run' ? (change.decayRunId ?? null) : null,
+        baselineNote: change.note,
+      });
+    }
+    bank.set({ version: bank.version + 1 });
+    await bank.save({ transaction });
+    await recordAudit(
+      {
+        entityType: 'bank',
+        entityId: id,
+        action: 'baseline',
+        actor,
+        summary: `Set the baseline of bank ${bank.position} ${change.source === 'nameplate' ? 'from the nameplate' : change.source === 'manual' ? 'by hand' : 'from a decay run'}`,
+        before,
+        after: snapshotOf(bank, BANK_AUDITED),
+      },
+      transaction,
+    );
+  });
+  return getBank(id);
+}
+
+/**
+ * Replaces a bank: the old one is marked replaced (its record and history stay) and a new bank
+ * takes its cabinet and position, with a fresh baseline from its design's nameplate. One transaction.
+ * @returns the new bank
+ * @throws AppError 400, 404, 409
+ */
+export async function replaceBank(id: string, input: BankReplacementData, actor: AuthUser): Promise<Bank> {
+  const newId = await sequelize.transaction(async (transaction) => {
+    const old = await lockBankInService(id, input.version, transaction);
+    if (old.installedOn && input.installedOn < old.installedOn) {
+      throw fieldProblem('installedOn', `The new bank cannot go in before the old one did (${old.installedOn}).`);
+    }
+    const { current } = await designInUse(input.bankDesignId ?? old.bankDesignId, transaction);
+    const before = snapshotOf(old, BANK_AUDITED);
+    old.set({ status: 'replaced', replacedOn: input.installedOn, version: old.version + 1 });
+    await old.save({ transaction });
+    const successor = await Bank.create(
+      {
+        cabinetId: old.cabinetId,
+        bankDesignId: current.bankDesignId,
+        position: old.position,
+        serialNumber: input.serialNumber,
+        installedOn: input.installedOn,
+        notes: input.note,
+        ...nameplateBaselineFields(current, actor, 'New bank'),
+        replacesBankId: old.id,
+        replacedByBankId: null,
+        replacedOn: null,
+      },
+      { transaction },
+    );
+    old.set({ replacedByBankId: successor.id });
+    await old.save({ transaction });
+    await recordAudit(
+      {
+        entityType: 'bank',
+        entityId: old.id,
+        action: 'replace',
+        actor,
+        summary: `Replaced bank ${old.position} on ${input.installedOn}${input.note ? `: ${input.note}` : ''}`,
+        before,
+        after: snapshotOf(old, BANK_AUDITED),
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        entityType: 'bank',
+        entityId: successor.id,
+        action: 'create',
+        actor,
+        summary: `Installed bank ${successor.position} in place of the replaced one`,
+        before: null,
+        after: snapshotOf(successor, BANK_AUDITED),
+      },
+      transaction,
+    );
+    return successor.id;
+  });
+  return getBank(newId);
+}

@@ -1,0 +1,277 @@
+/**
+ * Importing a cabinet register from CSV (as typed, or exported from a spreadsheet): read the
+ * file, name every row's problems (row, column, reason), and commit all rows or none.
+ */
+import Papa from 'papaparse';
+import { Op, type Transaction } from 'sequelize';
+import { IMPORT_MAX_ROWS } from '../../../shared/constants/register';
+import {
+  CABINET_IMPORT_COLUMNS,
+  cabinetImportRowSchema,
+  type CabinetImportRow,
+  type ImportPreview,
+  type ImportPreviewRow,
+  type ImportProblem,
+} from '../../../shared/schemas/cabinet-import';
+import { sequelize } from '../db/sequelize';
+import { AppError } from '../errors';
+import { Area } from '../models/area';
+import { Cabinet } from '../models/cabinet';
+import { Site } from '../models/site';
+import type { AuthUser } from '../types/express';
+import { recordAuditBatch, type AuditRecordInput } from './audit';
+import { AREA_AUDITED, CABINET_AUDITED } from './audited-fields';
+import { snapshotOf } from './register-records';
+
+/** An uploaded file: its name and bytes. */
+export interface ImportFile {
+  name: string;
+  bytes: Buffer;
+}
+
+const KNOWN_COLUMNS = new Set<string>(CABINET_IMPORT_COLUMNS.map((c) => c.name));
+const REQUIRED_COLUMNS = CABINET_IMPORT_COLUMNS.filter((c) => c.required).map((c) => c.name);
+// spreadsheet numbering: the header is row 1, the first data row is row 2
+const FIRST_DATA_ROW = 2;
+
+/** The template: the header and two example rows. */
+export function cabinetImportTemplate(): string {
+  const header = CABINET_IMPORT_COLUMNS.map((c) => c.name);
+  const examples = [
+    ['M', 'Line 2', 'BRK-M2-VFD-101', 'Line 2 mezzanine, bay 4', 'Tarnwick Drives', 'TW-55', '400', '540', '55', '5', 'high', 'warm, dusty', '2019-04-01', 'in-service'],
+    ['M', 'Line 2', 'BRK-M2-VFD-102', 'Line 2 mezzanine, bay 5', 'Quellbrook Motion', 'QM-200', '400', '', '22', '', 'medium', '', '', 'in-service'],
+  ];
+  return Papa.unparse({ fields: header, data: examples }, { newline: '\r\n' }) + '\r\n';
+}
+
+/** Text of the file: UTF-8 (with or without BOM), else Windows-1252 as older spreadsheets save it. */
+function decode(bytes: Buffer): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true, ignoreBOM: false }).decode(bytes);
+  } catch {
+    return new TextDecoder('windows-1252').decode(bytes);
+  }
+}
+
+/** "Drive Make", "drive-make" and "DRIVE_MAKE" all name the column drive_make. */
+function columnName(header: string): string {
+  return header.trim().toLowerCase().replace(/[\s-]+/g, '_');
+}
+
+interface ReadRow {
+  row: number;
+  values: Record<string, string>;
+  data: CabinetImportRow | null;
+  problems: ImportProblem[];
+  areaId: string | null;
+  siteId: string | null;
+  newArea: boolean;
+}
+
+interface ReadFile {
+  fileName: string;
+  rows: ReadRow[];
+  fileProblems: ImportProblem[];
+  ignoredColumns: string[];
+  newAreas: Map<string, { siteId: string; name: string }>;
+}
+
+/** Parses and checks every row against the schema, the file itself and the register. */
+async function readImport(file: ImportFile, transaction?: Transaction): Promise<ReadFile> {
+  const parsed = Papa.parse<Record<string, string>>(decode(file.bytes), {
+    header: true,
+    skipEmptyLines: 'greedy',
+    transformHeader: columnName,
+  });
+  const fields = parsed.meta.fields ?? [];
+  const fileProblems: ImportProblem[] = [];
+  for (const column of REQUIRED_COLUMNS) {
+    if (!fields.includes(column)) fileProblems.push({ row: 1, column, reason: 'this column is missing from the header' });
+  }
+  if (parsed.data.length === 0) fileProblems.push({ row: 1, column: '', reason: 'the file has no data rows under the header' });
+  if (parsed.data.length > IMPORT_MAX_ROWS) {
+    fileProblems.push({ row: 1, column: '', reason: `the file has ${parsed.data.length} rows; import at most ${IMPORT_MAX_ROWS} at a time` });
+  }
+  const ignoredColumns = fields.filter((f) => f && !KNOWN_COLUMNS.has(f));
+
+  const rows: ReadRow[] = parsed.data.slice(0, IMPORT_MAX_ROWS).map((raw, index) => {
+    const row = index + FIRST_DATA_ROW;
+    const values: Record<string, string> = {};
+    for (const column of KNOWN_COLUMNS) values[column] = (raw[column] ?? '').toString();
+    const result = cabinetImportRowSchema.safeParse(values);
+    const problems: ImportProblem[] = result.success
+      ? []
+      : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
+    return { row, values, data: result.success ? result.data : null, problems, areaId: null, siteId: null, newArea: false };
+  });
+  for (const error of parsed.errors) {
+    const target = error.row !== undefined ? rows[error.row] : undefined;
+    const problem = {
+      row: (error.row ?? 0) + FIRST_DATA_ROW,
+      column: '',
+      reason: error.code === 'TooFewFields' ? 'the row has fewer cells than the header' : error.code === 'TooManyFields' ? 'the row has more cells than the header' : error.message,
+    };
+    if (target) target.problems.push(problem);
+    else fileProblems.push(problem);
+  }
+
+  // a tag twice in the file
+  const firstRowOfTag = new Map<string, number>();
+  for (const r of rows) {
+    if (!r.data) continue;
+    const key = r.data.tag.toLowerCase();
+    const first = firstRowOfTag.get(key);
+    if (first !== undefined) r.problems.push({ row: r.row, column: 'tag', reason: `${r.data.tag} is also on row ${first}` });
+    else firstRowOfTag.set(key, r.row);
+  }
+
+  // against the register: sites by code, areas by name, tags in use
+  const valid = rows.filter((r) => r.data);
+  const codes = [...new Set(valid.map((r) => r.data!.site_code.toLowerCase()))];
+  const sites = codes.length
+    ? await Site.findAll({ where: { retiredAt: null, [Op.and]: [sequelize.where(sequelize.fn('lower', sequelize.col('code')), { [Op.in]: codes })] }, transaction })
+    : [];
+  const siteByCode = new Map(sites.map((s) => [s.code.toLowerCase(), s]));
+  const areas = sites.length ? await Area.findAll({ where: { retiredAt: null, siteId: sites.map((s) => s.id) }, transaction }) : [];
+  const areaByKey = new Map(areas.map((a) => [`${a.siteId}|${a.name.toLowerCase()}`, a]));
+  const tags = [...firstRowOfTag.keys()];
+  const taken = new Set<string>();
+  for (let i = 0; i < tags.length; i += 1000) {
+    const chunk = tags.slice(i, i + 1000);
+    const found = await Cabinet.findAll({
+      attributes: ['tag'],
+      where: { retiredAt: null, [Op.and]: [sequelize.where(sequelize.fn('lower', sequelize.col('tag')), { [Op.in]: chunk })] },
+      transaction,
+    });
+    for (const c of found) taken.add(c.tag.toLowerCase());
+  }
+
+  const newAreas = new Map<string, { siteId: string; name: string }>();
+  for (const r of valid) {
+    const data = r.data!;
+    if (taken.has(data.tag.toLowerCase())) r.problems.push({ row: r.row, column: 'tag', reason: `${data.tag} is already in the register` });
+    const site = siteByCode.get(data.site_code.toLowerCase());
+    if (!site) {
+      r.problems.push({ row: r.row, column: 'site_code', reason: `no site in use has the code ${data.site_code}` });
+      continue;
+    }
+    r.siteId = site.id;
+    const key = `${site.id}|${data.area.toLowerCase()}`;
+    const area = areaByKey.get(key);
+    if (area) r.areaId = area.id;
+    else {
+      r.newArea = true;
+      if (!newAreas.has(key)) newAreas.set(key, { siteId: site.id, name: data.area });
+    }
+  }
+  for (const r of rows) r.problems.sort((a, b) => order(a.column) - order(b.column));
+  return { fileName: file.name, rows, fileProblems, ignoredColumns, newAreas };
+}
+
+function order(column: string): number {
+  const i = CABINET_IMPORT_COLUMNS.findIndex((c) => c.name === column);
+  return i < 0 ? -1 : i;
+}
+
+function toPreview(read: ReadFile, committed: boolean, createdCount: number): ImportPreview {
+  const problems = [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
+  const siteCodeOf = new Map(read.rows.filter((r) => r.siteId).map((r) => [r.siteId!, r.data!.site_code]));
+  const rows: ImportPreviewRow[] = read.rows.map((r) => ({
+    row: r.row,
+    tag: r.data?.tag ?? r.values.tag ?? '',
+    siteCode: r.data?.site_code ?? r.values.site_code ?? '',
+    area: r.data?.area ?? r.values.area ?? '',
+    newArea: r.newArea,
+    values: r.values,
+    problems: r.problems,
+  }));
+  return {
+    fileName: read.fileName,
+    rowCount: read.rows.length,
+    validCount: read.rows.filter((r) => r.problems.length === 0 && r.data).length,
+    problemCount: problems.length,
+    problems,
+    rows,
+    newAreas: [...read.newAreas.values()].map((a) => `${siteCodeOf.get(a.siteId) ?? ''} / ${a.name}`),
+    ignoredColumns: read.ignoredColumns,
+    committed,
+    createdCount,
+  };
+}
+
+/** Reads a file and says what importing it would do, storing nothing. */
+export async function previewCabinetImport(file: ImportFile): Promise<ImportPreview> {
+  return toPreview(await readImport(file), false, 0);
+}
+
+/**
+ * Imports every row of the file in one transaction: new areas first, then the cabinets, each
+ * with its audit entry. When any row has a problem nothing is stored.
+ * @throws AppError 400 `import-rejected` listing every problem (path "row N, column C")
+ */
+export async function importCabinets(file: ImportFile, actor: AuthUser): Promise<ImportPreview> {
+  return sequelize.transaction(async (transaction) => {
+    // a table lock keeps two imports (or an import and a form) from taking the same tag at once
+    await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
+    const read = await readImport(file, transaction);
+    const preview = toPreview(read, false, 0);
+    if (preview.problemCount > 0) {
+      const rowsWithProblems = new Set(preview.problems.map((p) => p.row)).size;
+      throw new AppError(
+        'import-rejected',
+        400,
+        `${preview.problemCount} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.`,
+        preview.problems.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
+      );
+    }
+    const audit: AuditRecordInput[] = [];
+    const areaIdByKey = new Map<string, string>();
+    for (const [key, area] of read.newAreas) {
+      const created = await Area.create({ siteId: area.siteId, name: area.name, description: '' }, { transaction });
+      areaIdByKey.set(key, created.id);
+      audit.push({
+        entityType: 'area',
+        entityId: created.id,
+        action: 'import',
+        actor,
+        summary: `Added area ${created.name} while importing ${file.name}`,
+        before: null,
+        after: snapshotOf(created, AREA_AUDITED),
+      });
+    }
+    const cabinets = await Cabinet.bulkCreate(
+      read.rows.map((r) => {
+        const d = r.data!;
+        return {
+          areaId: r.areaId ?? areaIdByKey.get(`${r.siteId}|${d.area.toLowerCase()}`)!,
+          tag: d.tag,
+          location: d.location,
+          driveMake: d.drive_make,
+          driveModel: d.drive_model,
+          supplyVolts: d.supply_volts,
+          dcBusVolts: d.dc_bus_volts ?? null,
+          ratedPowerKilowatts: d.rated_power_kw ?? null,
+          markedWaitMinutes: d.marked_wait_minutes ?? null,
+          criticality: d.criticality,
+          environmentNotes: d.environment_notes,
+          commissionedOn: d.commissioned_on ?? null,
+          status: d.status,
+        };
+      }),
+      { transaction, returning: true },
+    );
+    for (const cabinet of cabinets) {
+      audit.push({
+        entityType: 'cabinet',
+        entityId: cabinet.id,
+        action: 'import',
+        actor,
+        summary: `Imported cabinet ${cabinet.tag} from ${file.name}`,
+        before: null,
+        after: snapshotOf(cabinet, CABINET_AUDITED),
+      });
+    }
+    await recordAuditBatch(audit, transaction);
+    return toPreview(read, true, cabinets.length);
+  });
+}

@@ -1,0 +1,229 @@
+/** Use cases of cabinets: list, read, create, change, retire, and the printable label. */
+import QRCode from 'qrcode';
+import { literal, Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import type { CabinetData, CabinetListQuery, CabinetUpdate } from '../../../shared/schemas/cabinet';
+import { getConfig } from '../config/env';
+import { sequelize } from '../db/sequelize';
+import { AppError } from '../errors';
+import { Area } from '../models/area';
+import { Bank } from '../models/bank';
+import { Cabinet } from '../models/cabinet';
+import { Site } from '../models/site';
+import type { AuthUser } from '../types/express';
+import { recordAudit, recordAuditBatch } from './audit';
+import { BANK_AUDITED, CABINET_AUDITED } from './audited-fields';
+import {
+  changedFields,
+  containsPattern,
+  duplicateValue,
+  fieldProblem,
+  lockForChange,
+  pageWindow,
+  sameTextAs,
+  snapshotOf,
+} from './register-records';
+
+
+const BANK_COUNT = [
+  literal(`(SELECT count(*)::int FROM banks b WHERE b.cabinet_id = "Cabinet"."id" AND b.status = 'in-service')`),
+  'bankCount',
+] as const;
+
+const CRITICALITY_RANK = literal(
+  `CASE "Cabinet"."criticality" WHEN 'low' THEN 1 WHEN 'medium' THEN 2 WHEN 'high' THEN 3 ELSE 4 END`,
+);
+
+function areaWithSite(where?: WhereOptions<Area>): Includeable {
+  return { model: Area, as: 'area', required: true, where, include: [{ model: Site, as: 'site', required: true }] };
+}
+
+function cabinetOrder(query: CabinetListQuery): Order {
+  const dir = query.sort.direction === 'desc' ? 'DESC' : 'ASC';
+  const byTag: Order = [
+    ['tag', 'ASC'],
+    ['id', 'ASC'],
+  ];
+  switch (query.sort.field) {
+    case 'tag':
+      return [
+        ['tag', dir],
+        ['id', dir],
+      ];
+    case 'site':
+      return [[{ model: Area, as: 'area' }, { model: Site, as: 'site' }, 'name', dir], ...byTag];
+    case 'area':
+      return [[{ model: Area, as: 'area' }, 'name', dir], ...byTag];
+    case 'criticality':
+      return [[CRITICALITY_RANK, dir], ...byTag];
+    case 'commissionedOn':
+      return [['commissionedOn', `${dir} NULLS LAST`], ...byTag];
+    default:
+      return [[query.sort.field, dir], ...byTag];
+  }
+}
+
+/**
+ * One page of cabinets matching the query, with the total. Indexed for a large fleet: the tag
+ * order by `cabinets_tag_order`, the tag search (`q`, any part of the tag) by the trigram index.
+ */
+export async function listCabinets(query: CabinetListQuery): Promise<{ rows: Cabinet[]; count: number }> {
+  const where: WhereOptions<Cabinet> = {};
+  if (!query.includeRetired && query.status !== 'retired') Object.assign(where, { retiredAt: null });
+  if (query.status) Object.assign(where, { status: query.status });
+  if (query.criticality) Object.assign(where, { criticality: query.criticality });
+  if (query.areaId) Object.assign(where, { areaId: query.areaId });
+  if (query.q) Object.assign(where, { tag: { [Op.iLike]: containsPattern(query.q) } });
+  const areaWhere = query.siteId ? { siteId: query.siteId } : undefined;
+  const [rows, count] = await Promise.all([
+    Cabinet.findAll({
+      where,
+      include: [areaWithSite(areaWhere)],
+      attributes: { include: [BANK_COUNT] as never },
+      order: cabinetOrder(query),
+      ...pageWindow(query),
+    }),
+    // the count needs the area only when filtering by site
+    Cabinet.count({
+      where,
+      include: areaWhere ? [{ model: Area, as: 'area', required: true, where: areaWhere, attributes: [] }] : [],
+    }),
+  ]);
+  return { rows, count };
+}
+
+/** A cabinet with its area, site and bank count. @throws AppError 404 */
+export async function getCabinet(id: string, transaction?: Transaction): Promise<Cabinet> {
+  const cabinet = await Cabinet.findByPk(id, {
+    include: [areaWithSite()],
+    attributes: { include: [BANK_COUNT] as never },
+    transaction,
+  });
+  if (!cabinet) throw AppError.notFound('Cabinet');
+  return cabinet;
+}
+
+/** The area a cabinet goes into: it must exist and be in use. */
+async function areaInUse(areaId: string, transaction: Transaction): Promise<Area> {
+  const area = await Area.findByPk(areaId, { include: [{ model: Site, as: 'site' }], transaction });
+  if (!area || area.retiredAt || area.site?.retiredAt) throw fieldProblem('areaId', 'This area does not exist or is retired.');
+  return area;
+}
+
+/** True when a cabinet in use (other than `exceptId`) carries `tag`, ignoring case. */
+export async function tagInUse(tag: string, exceptId: string | null, transaction?: Transaction): Promise<boolean> {
+  const clash = await Cabinet.findOne({
+    attributes: ['id'],
+    where: { retiredAt: null, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}), [Op.and]: [sameTextAs('tag', tag)] },
+    transaction,
+  });
+  return clash !== null;
+}
+
+/**
+ * Adds a cabinet to an area.
+ * @throws AppError 400 naming `areaId`; 409 `duplicate` naming `tag`
+ */
+export async function createCabinet(input: CabinetData, actor: AuthUser): Promise<Cabinet> {
+  const id = await sequelize.transaction(async (transaction) => {
+    const area = await areaInUse(input.areaId, transaction);
+    if (await tagInUse(input.tag, null, transaction)) {
+      throw duplicateValue('tag', `${input.tag} is already in the register.`);
+    }
+    const cabinet = await Cabinet.create(input, { transaction });
+    await recordAudit(
+      {
+        entityType: 'cabinet',
+        entityId: cabinet.id,
+        action: 'create',
+        actor,
+        summary: `Added cabinet ${cabinet.tag} to ${area.name}`,
+        before: null,
+        after: snapshotOf(cabinet, CABINET_AUDITED),
+      },
+      transaction,
+    );
+    return cabinet.id;
+  });
+  return getCabinet(id);
+}
+
+/** Changes a cabinet (moving it to another area too). @throws AppError 400, 404, 409 */
+export async function updateCabinet(id: string, input: CabinetUpdate, actor: AuthUser): Promise<Cabinet> {
+  const { version, ...fields } = input;
+  await sequelize.transaction(async (transaction) => {
+    const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
+    const changes = changedFields(cabinet, fields);
+    if (Object.keys(changes).length === 0) return;
+    if (changes.areaId !== undefined) await areaInUse(changes.areaId, transaction);
+    if (changes.tag !== undefined && (await tagInUse(changes.tag, id, transaction))) {
+      throw duplicateValue('tag', `${changes.tag} is already in the register.`);
+    }
+    const before = snapshotOf(cabinet, CABINET_AUDITED);
+    cabinet.set({ ...changes, version: cabinet.version + 1 });
+    await cabinet.save({ transaction });
+    await recordAudit(
+      { entityType: 'cabinet', entityId: id, action: 'update', actor, summary: `Changed cabinet ${cabinet.tag}`, before, after: snapshotOf(cabinet, CABINET_AUDITED) },
+      transaction,
+    );
+  });
+  return getCabinet(id);
+}
+
+/**
+ * Retires a cabinet (soft delete): its banks in service are removed with it, each with its own
+ * audit entry, in one transaction. Their history stays.
+ * @throws AppError 404, 409 `stale-version` / `retired`
+ */
+export async function retireCabinet(id: string, version: number, actor: AuthUser): Promise<Cabinet> {
+  await sequelize.transaction(async (transaction) => {
+    const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
+    const now = new Date();
+    const banks = await Bank.findAll({ where: { cabinetId: id, status: 'in-service' }, transaction, lock: transaction.LOCK.UPDATE });
+    const bankEntries = [];
+    for (const bank of banks) {
+      const before = snapshotOf(bank, BANK_AUDITED);
+      bank.set({ status: 'removed', retiredAt: now, version: bank.version + 1 });
+      await bank.save({ transaction });
+      bankEntries.push({
+        entityType: 'bank' as const,
+        entityId: bank.id,
+        action: 'retire' as const,
+        actor,
+        summary: `Removed bank ${bank.position} with cabinet ${cabinet.tag}`,
+        before,
+        after: snapshotOf(bank, BANK_AUDITED),
+      });
+    }
+    const before = snapshotOf(cabinet, CABINET_AUDITED);
+    cabinet.set({ status: 'retired', retiredAt: now, version: cabinet.version + 1 });
+    await cabinet.save({ transaction });
+    await recordAudit(
+      {
+        entityType: 'cabinet',
+        entityId: id,
+        action: 'retire',
+        actor,
+        summary: banks.length ? `Retired cabinet ${cabinet.tag} and removed its ${banks.length} bank(s)` : `Retired cabinet ${cabinet.tag}`,
+        before,
+        after: snapshotOf(cabinet, CABINET_AUDITED),
+      },
+      transaction,
+    );
+    await recordAuditBatch(bankEntries, transaction);
+  });
+  return getCabinet(id);
+}
+
+/** The address of a cabinet's page in Ebbline, from APP_URL (what its label's QR code opens). */
+export function cabinetPageUrl(cabinetId: string): string {
+  return new URL(`/register/cabinets/${cabinetId}`, `${getConfig().APP_URL}/`).href;
+}
+
+/** A cabinet's label: its page address and that address as a QR code (SVG). @throws AppError 404 */
+export async function getCabinetLabel(id: string): Promise<{ cabinet: Cabinet; url: string; qrSvg: string }> {
+  const cabinet = await getCabinet(id);
+  const url = cabinetPageUrl(id);
+  // quartile error correction survives a scuffed label on a cabinet door
+  const qrSvg = await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'Q', margin: 1 });
+  return { cabinet, url, qrSvg };
+}

@@ -1,0 +1,146 @@
+/** Use cases of spares in store: list, read, add, change, retire; each keeps its reforming due date. */
+import { Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import { reformingDueOn, type SpareData, type SpareListQuery, type SpareUpdate } from '../../../shared/schemas/spare';
+import { sequelize } from '../db/sequelize';
+import { AppError } from '../errors';
+import { BankDesign } from '../models/bank-design';
+import { Site } from '../models/site';
+import { Spare } from '../models/spare';
+import type { AuthUser } from '../types/express';
+import { recordAudit } from './audit';
+import { SPARE_AUDITED } from './audited-fields';
+import {
+  changedFields,
+  containsPattern,
+  duplicateValue,
+  fieldProblem,
+  lockForChange,
+  pageWindow,
+  sameTextAs,
+  snapshotOf,
+} from './register-records';
+
+const spareIncludes: Includeable[] = [
+  { model: Site, as: 'site', required: true },
+  { model: BankDesign, as: 'bankDesign', attributes: ['id', 'code'] },
+];
+
+/** Today as a calendar date in UTC, `YYYY-MM-DD`. */
+export function todayUtc(now = new Date()): string {
+  return now.toISOString().slice(0, 10);
+}
+
+/** One page of spares matching the query, soonest reforming first by default, with the total. */
+export async function listSpares(query: SpareListQuery, asOf = todayUtc()): Promise<{ rows: Spare[]; count: number }> {
+  const where: WhereOptions<Spare> = {};
+  if (!query.includeRetired) Object.assign(where, { retiredAt: null });
+  if (query.siteId) Object.assign(where, { siteId: query.siteId });
+  if (query.kind) Object.assign(where, { kind: query.kind });
+  if (query.status) Object.assign(where, { status: query.status });
+  if (query.overdue !== undefined) {
+    Object.assign(where, { reformingDueOn: query.overdue ? { [Op.lt]: asOf } : { [Op.gte]: asOf } });
+  }
+  if (query.q) {
+    const pattern = containsPattern(query.q);
+    Object.assign(where, { [Op.or]: [{ code: { [Op.iLike]: pattern } }, { description: { [Op.iLike]: pattern } }] });
+  }
+  const dir = query.sort.direction === 'desc' ? 'DESC' : 'ASC';
+  const order: Order =
+    query.sort.field === 'site'
+      ? [[{ model: Site, as: 'site' }, 'name', dir], ['code', 'ASC']]
+      : [[query.sort.field, dir], ['code', 'ASC'], ['id', 'ASC']];
+  const [rows, count] = await Promise.all([
+    Spare.findAll({ where, include: spareIncludes, order, ...pageWindow(query) }),
+    Spare.count({ where }),
+  ]);
+  return { rows, count };
+}
+
+/** A spare with its site and design. @throws AppError 404 */
+export async function getSpare(id: string): Promise<Spare> {
+  const spare = await Spare.findByPk(id, { include: spareIncludes });
+  if (!spare) throw AppError.notFound('Spare');
+  return spare;
+}
+
+async function assertReferences(data: { siteId?: string; bankDesignId?: string | null }, transaction: Transaction) {
+  if (data.siteId !== undefined) {
+    const site = await Site.findByPk(data.siteId, { transaction });
+    if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
+  }
+  if (data.bankDesignId) {
+    const design = await BankDesign.findByPk(data.bankDesignId, { transaction });
+    if (!design || design.retiredAt) throw fieldProblem('bankDesignId', 'This bank design does not exist or is retired.');
+  }
+}
+
+async function assertCodeFree(code: string, exceptId: string | null, transaction: Transaction) {
+  const clash = await Spare.findOne({
+    attributes: ['id'],
+    where: { retiredAt: null, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}), [Op.and]: [sameTextAs('code', code)] },
+    transaction,
+  });
+  if (clash) throw duplicateValue('code', `Another spare already has the code ${code}.`);
+}
+
+/** Adds a spare and works out its reforming due date. @throws AppError 400, 409 `duplicate` */
+export async function createSpare(input: SpareData, actor: AuthUser): Promise<Spare> {
+  const id = await sequelize.transaction(async (transaction) => {
+    await assertReferences(input, transaction);
+    await assertCodeFree(input.code, null, transaction);
+    const spare = await Spare.create(
+      { ...input, reformingDueOn: reformingDueOn(input.storageStartedOn, input.lastReformedOn, input.reformingIntervalDays) },
+      { transaction },
+    );
+    await recordAudit(
+      { entityType: 'spare', entityId: spare.id, action: 'create', actor, summary: `Added spare ${spare.code}`, before: null, after: snapshotOf(spare, SPARE_AUDITED) },
+      transaction,
+    );
+    return spare.id;
+  });
+  return getSpare(id);
+}
+
+/** Changes a spare (recording a reforming moves its due date on). @throws AppError 400, 404, 409 */
+export async function updateSpare(id: string, input: SpareUpdate, actor: AuthUser): Promise<Spare> {
+  const { version, ...fields } = input;
+  await sequelize.transaction(async (transaction) => {
+    const spare = await lockForChange(Spare, id, version, 'spare', transaction);
+    const changes = changedFields(spare, fields);
+    if (Object.keys(changes).length === 0) return;
+    await assertReferences(changes, transaction);
+    if (changes.code !== undefined) await assertCodeFree(changes.code, id, transaction);
+    const storageStartedOn = changes.storageStartedOn ?? spare.storageStartedOn;
+    const lastReformedOn = changes.lastReformedOn !== undefined ? changes.lastReformedOn : spare.lastReformedOn;
+    if (lastReformedOn && lastReformedOn < storageStartedOn) {
+      throw fieldProblem('lastReformedOn', 'The last reforming cannot be before the spare went into store.');
+    }
+    const before = snapshotOf(spare, SPARE_AUDITED);
+    spare.set({
+      ...changes,
+      reformingDueOn: reformingDueOn(storageStartedOn, lastReformedOn, changes.reformingIntervalDays ?? spare.reformingIntervalDays),
+      version: spare.version + 1,
+    });
+    await spare.save({ transaction });
+    await recordAudit(
+      { entityType: 'spare', entityId: id, action: 'update', actor, summary: `Changed spare ${spare.code}`, before, after: snapshotOf(spare, SPARE_AUDITED) },
+      transaction,
+    );
+  });
+  return getSpare(id);
+}
+
+/** Retires a spare (used up or scrapped; soft delete). @throws AppError 404, 409 */
+export async function retireSpare(id: string, version: number, actor: AuthUser): Promise<Spare> {
+  await sequelize.transaction(async (transaction) => {
+    const spare = await lockForChange(Spare, id, version, 'spare', transaction);
+    const before = snapshotOf(spare, SPARE_AUDITED);
+    spare.set({ retiredAt: new Date(), version: spare.version + 1 });
+    await spare.save({ transaction });
+    await recordAudit(
+      { entityType: 'spare', entityId: id, action: 'retire', actor, summary: `Retired spare ${spare.code}`, before, after: snapshotOf(spare, SPARE_AUDITED) },
+      transaction,
+    );
+  });
+  return getSpare(id);
+}
