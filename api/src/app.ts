@@ -17,6 +17,12 @@ import { apiTokensRouter } from './routes/api-tokens/router';
 import { healthRouter } from './routes/health/router';
 import { meRouter } from './routes/me/router';
 import { peopleRouter } from './routes/people/router';
+import { areasRouter } from './routes/areas/router';
+import { bankDesignsRouter } from './routes/bank-designs/router';
+import { banksRouter } from './routes/banks/router';
+import { cabinetsRouter } from './routes/cabinets/router';
+import { sitesRouter } from './routes/sites/router';
+import { sparesRouter } from './routes/spares/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -61,6 +67,13 @@ export function createApp(): express.Express {
   api.use('/me', meRouter);
   api.use('/people', peopleRouter);
   api.use('/access-events', accessEventsRouter);
+  // the register
+  api.use('/sites', sitesRouter);
+  api.use('/areas', areasRouter);
+  api.use('/cabinets', cabinetsRouter);
+  api.use('/banks', banksRouter);
+  api.use('/bank-designs', bankDesignsRouter);
+  api.use('/spares', sparesRouter);
   api.use(apiNotFound);
   // deny by default: a route that declares no roles stops the app from starting
   app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');

@@ -1,6 +1,7 @@
 import http from 'node:http';
 import { pathToFileURL } from 'node:url';
 import { createApp } from './app';
+import { closeSessionStore } from './auth/session';
 import { getConfig } from './config/env';
 import { sequelize } from './db/sequelize';
 import { logger } from './logger';
@@ -33,6 +34,7 @@ export async function startServer(): Promise<RunningServer> {
         const timer = setTimeout(() => server.closeAllConnections(), graceMs);
         await closed;
         clearTimeout(timer);
+        await closeSessionStore();
         await sequelize.close();
         logger.info('Ebbline stopped');
       })();

@@ -22,20 +22,38 @@ const envSchema = z.object({
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').default('ebbline-local-session-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).default(60),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().int().min(1).default(12),
+  /** Our own name: the browser shares cookies between ports of one host (app and provider). */
+  SESSION_COOKIE_NAME: z.string().regex(/^[\w.-]+$/, 'letters, digits, dot, dash, underscore').default('ebbline.sid'),
+  /** How long a started sign-in may take at the provider before its state is refused. */
+  SIGN_IN_PENDING_MINUTES: z.coerce.number().int().min(1).max(60).default(10),
   OIDC_ISSUER: z.url().default('http://localhost:3001'),
   OIDC_CLIENT_ID: z.string().min(1).default('ebbline'),
   OIDC_CLIENT_SECRET: z.string().min(1).default('ebbline-local-client-secret'),
   /** Empty means APP_URL + /auth/callback. */
   OIDC_REDIRECT_URL: z.url().optional(),
+  /** Where the provider sends people after signing out; empty means APP_URL + /signed-out. */
+  OIDC_POST_LOGOUT_REDIRECT_URL: z.url().optional(),
+  /** Scopes Ebbline asks for; `roles` carries the roles claim that a first sign-in takes. */
+  OIDC_SCOPES: z.string().min(1).default('openid email profile roles'),
   /** Loopback providers speak plain http; a real provider must use https. */
   OIDC_ALLOW_HTTP: flag.default(false),
   TRUST_PROXY: flag.default(false),
 });
 
-export type Config = Omit<z.infer<typeof envSchema>, 'APP_URL' | 'OIDC_REDIRECT_URL'> & {
+export type Config = Omit<
+  z.infer<typeof envSchema>,
+  'APP_URL' | 'OIDC_REDIRECT_URL' | 'OIDC_POST_LOGOUT_REDIRECT_URL'
+> & {
   APP_URL: string;
   OIDC_REDIRECT_URL: string;
+  OIDC_POST_LOGOUT_REDIRECT_URL: string;
 };
+
+/** localhost, 127.0.0.0/8 and ::1: a provider there may speak plain http. */
+export function isLoopbackUrl(url: string): boolean {
+  const host = new URL(url).hostname;
+  return host === 'localhost' || host === '[::1]' || /^127(\.\d{1,3}){3}$/.test(host);
+}
 
 /** Thrown at boot with one line per missing or bad variable. */
 export class ConfigError extends Error {
@@ -55,10 +73,23 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
   }
   const parsed = result.data;
   const appUrl = (parsed.APP_URL ?? `http://localhost:${parsed.PORT}`).replace(/\/$/, '');
+  if (
+    !parsed.OIDC_ISSUER.startsWith('https:') &&
+    !parsed.OIDC_ALLOW_HTTP &&
+    !isLoopbackUrl(parsed.OIDC_ISSUER)
+  ) {
+    throw new ConfigError(
+      'Invalid configuration:\n  OIDC_ISSUER: a provider on another machine must use https (OIDC_ALLOW_HTTP=true allows http on a closed test network)',
+    );
+  }
   return {
     ...parsed,
     APP_URL: appUrl,
+    // the issuer must equal the provider's own string exactly; a trailing slash would not
+    OIDC_ISSUER: parsed.OIDC_ISSUER.replace(/\/+$/, ''),
     OIDC_REDIRECT_URL: parsed.OIDC_REDIRECT_URL ?? new URL('/auth/callback', appUrl).href,
+    OIDC_POST_LOGOUT_REDIRECT_URL:
+      parsed.OIDC_POST_LOGOUT_REDIRECT_URL ?? new URL('/signed-out', appUrl).href,
   };
 }
 

@@ -15,6 +15,8 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
   declare userId: ForeignKey<User['id']>;
   declare name: string;
   declare tokenHash: string;
+  /** Narrows the token to some of its owner's roles; null: all the owner holds at each use. */
+  declare roles: string[] | null;
   declare expiresAt: Date;
   declare lastUsedAt: Date | null;
   declare revokedAt: Date | null;
@@ -27,6 +29,7 @@ ApiToken.init(
     id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
     name: { type: DataTypes.TEXT, allowNull: false },
     tokenHash: { type: DataTypes.TEXT, allowNull: false, unique: true },
+    roles: { type: DataTypes.ARRAY(DataTypes.TEXT) },
     expiresAt: { type: DataTypes.DATE, allowNull: false },
     lastUsedAt: { type: DataTypes.DATE },
     revokedAt: { type: DataTypes.DATE },

@@ -2,3 +2,11 @@
 export { User } from './user';
 export { ApiToken } from './api-token';
 export { AccessEvent } from './access-event';
+export { Site } from './site';
+export { Area } from './area';
+export { Cabinet } from './cabinet';
+export { BankDesign } from './bank-design';
+export { BankDesignVersion } from './bank-design-version';
+export { Bank } from './bank';
+export { Spare } from './spare';
+export { AuditEntry } from './audit-entry';

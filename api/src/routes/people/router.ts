@@ -1,0 +1,31 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { peopleQuerySchema, personUpdateSchema } from '../../../../shared/schemas/person';
+import { requestOrigin } from '../../middleware/request-origin';
+import { requireRole, requireSignedIn } from '../../middleware/require-role';
+import { listAdmins, listPeople, updatePerson } from '../../services/people';
+import { presentAdminContact, presentPerson } from './presenter';
+
+/** `/api/people`: the users of Ebbline and their roles (admins), and whom to ask for access. */
+export const peopleRouter = Router();
+
+const personParams = z.object({ userId: z.uuid({ error: 'userId must be a person id' }) });
+
+peopleRouter.get('/', requireRole('admin'), async (req, res) => {
+  const query = peopleQuerySchema.parse(req.query);
+  const people = await listPeople(query);
+  res.json({ items: people.map(presentPerson) });
+});
+
+/** For the "waiting for access" page: any signed-in person, even without a role. */
+peopleRouter.get('/admins', requireSignedIn, async (_req, res) => {
+  const admins = await listAdmins();
+  res.json({ items: admins.map(presentAdminContact) });
+});
+
+peopleRouter.patch('/:userId', requireRole('admin'), async (req, res) => {
+  const { userId } = personParams.parse(req.params);
+  const change = personUpdateSchema.parse(req.body ?? {});
+  const person = await updatePerson(req.user!, userId, change, requestOrigin(req));
+  res.json(presentPerson(person));
+});
