@@ -63,8 +63,11 @@ function cabinetOrder(query: CabinetListQuery): Order {
 }
 
 /**
- * One page of cabinets matching the query, with the total. Indexed for a large fleet: the tag
- * order by `cabinets_tag_order`, the tag search (`q`, any part of the tag) by the trigram index.
+ * One page of cabinets matching the query, with the total. Built to stay fast on a large fleet:
+ * the page's ids come first from `cabinets` alone (joined to areas and sites only when the
+ * filter or the order needs them), using `cabinets_tag_order` for the tag order and the trigram
+ * index for the tag search (`q`, any part of the tag); then only those rows are read in full
+ * and their banks counted, so a deep page never computes anything for the rows it skips.
  */
 export async function listCabinets(query: CabinetListQuery): Promise<{ rows: Cabinet[]; count: number }> {
   const where: WhereOptions<Cabinet> = {};
@@ -74,21 +77,29 @@ export async function listCabinets(query: CabinetListQuery): Promise<{ rows: Cab
   if (query.areaId) Object.assign(where, { areaId: query.areaId });
   if (query.q) Object.assign(where, { tag: { [Op.iLike]: containsPattern(query.q) } });
   const areaWhere = query.siteId ? { siteId: query.siteId } : undefined;
-  const [rows, count] = await Promise.all([
-    Cabinet.findAll({
-      where,
-      include: [areaWithSite(areaWhere)],
-      attributes: { include: [BANK_COUNT] as never },
-      order: cabinetOrder(query),
-      ...pageWindow(query),
-    }),
+  const needsJoin = areaWhere !== undefined || query.sort.field === 'site' || query.sort.field === 'area';
+  const pageJoin: Includeable[] = needsJoin
+    ? [{ model: Area, as: 'area', required: true, where: areaWhere, attributes: [], include: [{ model: Site, as: 'site', required: true, attributes: [] }] }]
+    : [];
+  const [page, count] = await Promise.all([
+    Cabinet.findAll({ attributes: ['id'], where, include: pageJoin, order: cabinetOrder(query), ...pageWindow(query), raw: true }),
     // the count needs the area only when filtering by site
     Cabinet.count({
       where,
       include: areaWhere ? [{ model: Area, as: 'area', required: true, where: areaWhere, attributes: [] }] : [],
     }),
   ]);
-  return { rows, count };
+  const ids = page.map((c) => c.id);
+  if (ids.length === 0) return { rows: [], count };
+  const [rows, bankCounts] = await Promise.all([
+    Cabinet.findAll({ where: { id: ids }, include: [areaWithSite()] }),
+    Bank.count({ where: { cabinetId: ids, status: 'in-service' }, group: ['cabinetId'] }),
+  ]);
+  const banksOf = new Map(bankCounts.map((c) => [String(c.cabinetId), Number(c.count)]));
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  const ordered = ids.map((id) => byId.get(id)!).filter(Boolean);
+  for (const cabinet of ordered) cabinet.setDataValue('bankCount' as never, (banksOf.get(cabinet.id) ?? 0) as never);
+  return { rows: ordered, count };
 }
 
 /** A cabinet with its area, site and bank count. @throws AppError 404 */
