@@ -1,0 +1,189 @@
+/**
+ * Loose CSV reading shared by the decay-sample and history readers: the files loggers write and
+ * people type. Pure text in, cells out; no I/O.
+ *
+ * - Comma, semicolon or tab separated; the separator is found from the header row.
+ * - Decimal commas are accepted when the separator is a semicolon or a tab.
+ * - Blank lines and trailing spaces are ignored; double-quoted cells may contain the separator.
+ * - Row numbers in messages are the file's line numbers (1-based), so an editor finds them.
+ */
+
+import { EngineInputError } from './errors';
+
+/** The separators a file may use. */
+export type CsvSeparator = ',' | ';' | '\t';
+
+/** One non-blank line of a CSV file, split into cells (trimmed, quotes removed). */
+export interface CsvRow {
+  /** 1-based line number in the file. */
+  rowNumber: number;
+  cells: string[];
+}
+
+/** Human name of a separator, for messages. */
+export function separatorName(separator: CsvSeparator): string {
+  return separator === ',' ? 'comma' : separator === ';' ? 'semicolon' : 'tab';
+}
+
+/**
+ * Splits text into non-blank lines with their 1-based line numbers (a UTF-8 byte-order mark and
+ * Windows line ends are handled).
+ *
+ * @example
+ * splitLines('t;v\r\n\r\n0;5\n') // [{ rowNumber: 1, text: 't;v' }, { rowNumber: 3, text: '0;5' }]
+ */
+export function splitLines(text: string): { rowNumber: number; text: string }[] {
+  const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const lines = source.split('\n');
+  const out: { rowNumber: number; text: string }[] = [];
+  for (let i = 0; i < lines.length; i++) {
+    const line = lines[i]!.trim();
+    if (line !== '') out.push({ rowNumber: i + 1, text: line });
+  }
+  return out;
+}
+
+/**
+ * Splits one line into cells on `separator`, honouring double quotes ("" inside quotes is a quote).
+ * Cells are trimmed.
+ *
+ * @example
+ * splitCells('0;"5,5" ;x', ';') // ['0', '5,5', 'x']
+ */
+export function splitCells(line: string, separator: CsvSeparator): string[] {
+  if (!line.includes('"')) {
+    const parts = line.split(separator);
+    for (let i = 0; i < parts.length; i++) parts[i] = parts[i]!.trim();
+    return parts;
+  }
+  const cells: string[] = [];
+  let current = '';
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i]!;
+    if (quoted) {
+      if (c === '"' && line[i + 1] === '"') {
+        current += '"';
+        i++;
+      } else if (c === '"') {
+        quoted = false;
+      } else {
+        current += c;
+      }
+    } else if (c === '"') {
+      quoted = true;
+    } else if (c === separator) {
+      cells.push(current.trim());
+      current = '';
+    } else {
+      current += c;
+    }
+  }
+  cells.push(current.trim());
+  return cells;
+}
+
+/** True when `cells` is an empty row (only separators). */
+export function isEmptyRow(cells: readonly string[]): boolean {
+  return cells.every((cell) => cell === '');
+}
+
+const POINT_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+const COMMA_NUMBER = /^[+-]?(?:\d+,?\d*|,\d+)(?:[eE][+-]?\d+)?$/;
+
+/**
+ * Reads a number cell. With `decimalComma`, "12,5" and "12.5" both read 12.5. Thousands
+ * separators, units and words are refused.
+ *
+ * @returns the number, or null when the cell is not a plain number
+ * @example
+ * parseNumberCell('12,5', true) // 12.5
+ * parseNumberCell('12,5', false) // null
+ */
+export function parseNumberCell(cell: string, decimalComma: boolean): number | null {
+  if (POINT_NUMBER.test(cell)) return Number(cell);
+  if (decimalComma && COMMA_NUMBER.test(cell)) return Number(cell.replace(',', '.'));
+  return null;
+}
+
+/** A header cell taken apart: lower-case name and the unit in brackets, parentheses or after a slash. */
+export interface HeaderName {
+  /** As written, trimmed. */
+  original: string;
+  /** Lower case, unit removed, spaces and underscores collapsed to one space. */
+  name: string;
+  /** Lower-case unit, '' when none is given. */
+  unit: string;
+}
+
+/**
+ * Takes a header cell apart: "Voltage [V]" → name "voltage", unit "v"; "t (ms)" → "t", "ms";
+ * "U/V" → "u", "v".
+ *
+ * @example
+ * parseHeaderName(' Time (s) ') // { original: 'Time (s)', name: 'time', unit: 's' }
+ */
+export function parseHeaderName(cell: string): HeaderName {
+  const original = cell.trim();
+  let name = original.toLowerCase();
+  let unit = '';
+  const bracketed = /^(.*?)\s*[([]\s*([^)\]]*?)\s*[)\]]\s*$/.exec(name);
+  const slashed = /^(.*?)\s*\/\s*([a-zµ]+)$/.exec(name);
+  if (bracketed) {
+    name = bracketed[1]!;
+    unit = bracketed[2]!;
+  } else if (slashed && slashed[1] !== '') {
+    name = slashed[1]!;
+    unit = slashed[2]!;
+  }
+  return { original, name: name.replace(/[\s_]+/g, ' ').trim(), unit };
+}
+
+/**
+ * Finds the header row among the first 20 non-blank lines: the first line that, split on one of
+ * the separators, satisfies `accept`. Lines before it (a logger's preamble) are skipped.
+ *
+ * @returns the separator, the header's position in `lines` and what `accept` returned
+ * @throws EngineInputError('invalid-csv') when no line is accepted
+ */
+export function findHeader<T>(
+  lines: readonly { rowNumber: number; text: string }[],
+  accept: (cells: string[]) => T | null,
+  whatIsMissing: string,
+): { separator: CsvSeparator; headerAt: number; found: T } {
+  const separators: CsvSeparator[] = ['\t', ';', ','];
+  for (let at = 0; at < Math.min(lines.length, 20); at++) {
+    const text = lines[at]!.text;
+    for (const separator of separators) {
+      if (separator !== ',' && !text.includes(separator)) continue;
+      const found = accept(splitCells(text, separator));
+      if (found !== null) return { separator, headerAt: at, found };
+    }
+  }
+  if (lines.length === 0) throw new EngineInputError('invalid-csv', 'The file is empty.');
+  throw new EngineInputError('invalid-csv', `No header row found: ${whatIsMissing}`, [
+    { path: `row ${lines[0]!.rowNumber}`, message: whatIsMissing },
+  ]);
+}
+
+/**
+ * Refuses a row with more filled cells than the header has columns: in a comma-separated file
+ * "0,560,5" is a decimal comma splitting a number, and reading it as 560 would be a silent guess.
+ */
+export function checkRowWidth(
+  cells: readonly string[],
+  headerCells: number,
+  rowNumber: number,
+  separator: CsvSeparator,
+): void {
+  for (let i = headerCells; i < cells.length; i++) {
+    if (cells[i] !== '') {
+      const hint = separator === ',' ? ' Decimal commas need a semicolon-separated file.' : '';
+      throw new EngineInputError(
+        'invalid-csv',
+        `Row ${rowNumber} has ${cells.length} cells but the header has ${headerCells} columns.${hint}`,
+        [{ path: `row ${rowNumber}`, message: 'more cells than the header' }],
+      );
+    }
+  }
+}

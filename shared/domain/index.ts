@@ -1,0 +1,92 @@
+/**
+ * Ebbline's decay engine: pure functions from recorded discharges to τ, capacitance, health,
+ * discharge safety, trend and forecast, and life estimate. No I/O, no clock (pass `asOfOn`).
+ *
+ * The usual entry points:
+ * - {@link judgeDecayRun}: samples + bank design + baseline + cabinet + conditions → the verdict.
+ * - {@link fitDecay}: samples → τ with its interval (the fit alone, e.g. for a live preview).
+ * - {@link forecastEndOfLife}: a bank's ratio history → end-of-life date, RUL, next visit.
+ * - {@link estimateArrheniusLife} / {@link lifeUsed}: life from temperature.
+ * - {@link parseDecaySamplesCsv} / {@link parseRatioHistoryCsv}: loose CSV text → data.
+ */
+
+export * from './errors';
+export { validateDecaySamples, fitDecay } from './decay-fit';
+export type {
+  DecaySample,
+  DecayFitOptions,
+  DecayFit,
+  DecayFitResult,
+  ExcludedReading,
+  ControlSupplyPhase,
+  DecayResidual,
+} from './decay-fit';
+export { fitLogLinear, refineExponential } from './exponential-least-squares';
+export type {
+  ExponentialParameters,
+  ExponentialFit,
+  LogLinearWeighting,
+} from './exponential-least-squares';
+export {
+  controlSupplyDecayVolts,
+  controlSupplyKneeSeconds,
+  estimateControlSupplyWatts,
+} from './control-supply';
+export type { ControlSupplyDecay } from './control-supply';
+export { findTypingSlip, isOnCurve, OFF_CURVE_Z } from './outliers';
+export type { ExclusionCode, TypingSlip, ResidualScales } from './outliers';
+export {
+  effectiveDischargeOhms,
+  resolveMeterInputOhms,
+  capacitanceFromTauMicrofarads,
+  tauSecondsOf,
+  bankCapacitanceMicrofarads,
+  bleederOhmsFromBalancingResistors,
+  normaliseCapacitanceTo20C,
+} from './capacitance';
+export type {
+  BankConstruction,
+  CapacitanceTemperatureModel,
+  NormalisedCapacitance,
+} from './capacitance';
+export { classifyHealth, resolveHealthLimits, worseHealth } from './health-rules';
+export { judgeDecayRun } from './verdict';
+export type {
+  BankDesignFacts,
+  BaselineFacts,
+  CabinetFacts,
+  RunConditions,
+  DecayRunFacts,
+  DecayVerdict,
+  DecayVerdictResult,
+  VerdictFinding,
+  VerdictFindingCode,
+} from './verdict';
+export { timeToVoltsSeconds, estimateDischargeSafety, iec60204Sentence } from './discharge-safety';
+export type {
+  SafeAfterSeconds,
+  DischargeSafetyInput,
+  DischargeSafetyEstimate,
+} from './discharge-safety';
+export { forecastEndOfLife } from './trend-forecast';
+export type {
+  RatioHistoryPoint,
+  TrendModelName,
+  TrendModelFit,
+  EndOfLifeForecastInput,
+  EndOfLifeForecast,
+} from './trend-forecast';
+export { estimateArrheniusLife, lifeUsed, HOURS_PER_YEAR } from './life-estimate';
+export type { ArrheniusLifeInput, ArrheniusLifeEstimate, LifeUsed } from './life-estimate';
+export {
+  dayNumberFromIsoDate,
+  isoDateFromDayNumber,
+  addDays,
+  daysBetween,
+  DAYS_PER_YEAR,
+} from './calendar-dates';
+export { parseDecaySamplesCsv } from './samples-csv';
+export type { DecaySamplesCsv } from './samples-csv';
+export { parseRatioHistoryCsv } from './history-csv';
+export type { RatioHistoryCsv } from './history-csv';
+export { tQuantile, tCdf, normalQuantile } from './student-t';

@@ -1,0 +1,141 @@
+import { describe, expect, it } from 'vitest';
+import { parseDecaySamplesCsv } from '../../../shared/domain/samples-csv';
+import { EngineInputError } from '../../../shared/domain/errors';
+
+function errorOf(run: () => unknown): EngineInputError {
+  try {
+    run();
+  } catch (error) {
+    if (error instanceof EngineInputError) return error;
+    throw error;
+  }
+  throw new Error('expected an EngineInputError');
+}
+
+describe('parseDecaySamplesCsv: layouts', () => {
+  it('when the file is comma separated with short names, then the samples are read', () => {
+    const csv = parseDecaySamplesCsv('t,v\n0,560\n30,490.5\n');
+    expect(csv.samples).toEqual([
+      { tSeconds: 0, volts: 560 },
+      { tSeconds: 30, volts: 490.5 },
+    ]);
+    expect(csv.separator).toBe(',');
+    expect(csv.rowNumbers).toEqual([2, 3]);
+  });
+
+  it('when the file is semicolon separated with decimal commas and units, then the numbers are read', () => {
+    const csv = parseDecaySamplesCsv('Time (s);Voltage [V]\n0;560,0\n12,5;428,25\n');
+    expect(csv.samples).toEqual([
+      { tSeconds: 0, volts: 560 },
+      { tSeconds: 12.5, volts: 428.25 },
+    ]);
+    expect(csv.decimalComma).toBe(true);
+    expect([csv.timeColumn, csv.voltageColumn]).toEqual(['Time (s)', 'Voltage [V]']);
+  });
+
+  it('when the file is tab separated with milliseconds and millivolts, then they are converted to seconds and volts', () => {
+    const csv = parseDecaySamplesCsv('t [ms]\tU [mV]\n0\t560000\n1500\t490000\n');
+    expect(csv.samples).toEqual([
+      { tSeconds: 0, volts: 560 },
+      { tSeconds: 1.5, volts: 490 },
+    ]);
+  });
+
+  it('when times are in minutes, then they are converted', () => {
+    expect(parseDecaySamplesCsv('time/min,volts\n0,560\n2,300\n').samples[1]).toEqual({
+      tSeconds: 120,
+      volts: 300,
+    });
+  });
+
+  it('when the header uses other loose names (seconds, volt, s, voltage), then they match', () => {
+    expect(parseDecaySamplesCsv('seconds,volt\n0,5\n1,4\n').samples).toHaveLength(2);
+    expect(parseDecaySamplesCsv('s;voltage\n0;5\n1;4\n').samples).toHaveLength(2);
+  });
+
+  it('when there are blank lines, trailing spaces, Windows line ends and a byte-order mark, then they are ignored', () => {
+    const csv = parseDecaySamplesCsv('\uFEFFt,v  \r\n\r\n0,560  \r\n   \r\n30,490\r\n\r\n');
+    expect(csv.samples).toEqual([
+      { tSeconds: 0, volts: 560 },
+      { tSeconds: 30, volts: 490 },
+    ]);
+    expect(csv.rowNumbers).toEqual([3, 5]);
+  });
+
+  it('when a logger writes a preamble and extra columns, then the header is found and the extra columns are ignored', () => {
+    const csv = parseDecaySamplesCsv(
+      'Logger export\nSample rate 5 Hz\n\nTime (s);DC bus voltage [V];Temp (°C)\n0,0;565,2;24,1\n0,2;563,9;24,1\n',
+    );
+    expect(csv.samples).toEqual([
+      { tSeconds: 0, volts: 565.2 },
+      { tSeconds: 0.2, volts: 563.9 },
+    ]);
+    expect(csv.rowNumbers).toEqual([5, 6]);
+  });
+
+  it('when cells are quoted, then the quotes are removed', () => {
+    expect(parseDecaySamplesCsv('"t","v"\n"0","560"\n"30","490"\n').samples[1]).toEqual({
+      tSeconds: 30,
+      volts: 490,
+    });
+  });
+
+  it('when the voltage column comes first, then the columns are still matched by name', () => {
+    expect(parseDecaySamplesCsv('volts,time\n560,0\n490,30\n').samples[1]).toEqual({
+      tSeconds: 30,
+      volts: 490,
+    });
+  });
+});
+
+describe('parseDecaySamplesCsv: bad files', () => {
+  it('when a cell is not a number, then the message names its row and column', () => {
+    const error = errorOf(() => parseDecaySamplesCsv('time;volts\n0;560\n30;49O\n'));
+    expect(error.code).toBe('invalid-csv');
+    expect(error.message).toBe('Row 3, column "volts": "49O" is not a number.');
+  });
+
+  it('when a cell is empty, then the message names its row and column', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560\n30,\n')).toThrow(
+      /Row 3, column "v": the cell is empty/,
+    );
+  });
+
+  it('when a comma-separated file has a decimal comma, then the row is refused rather than misread', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560,5\n')).toThrow(/Row 2 has 3 cells.*semicolon/);
+  });
+
+  it('when there is no header, then the message says what the header needs', () => {
+    expect(() => parseDecaySamplesCsv('0,560\n30,490\n')).toThrow(
+      /No header row found: the first row must name a time column/,
+    );
+  });
+
+  it('when the file is empty, then it says so', () => {
+    expect(() => parseDecaySamplesCsv('\n\n')).toThrow(/empty/);
+  });
+
+  it('when a unit is unknown, then it is refused with the accepted units', () => {
+    expect(() => parseDecaySamplesCsv('t (fortnights),v\n0,1\n')).toThrow(
+      /unknown time unit "fortnights"/,
+    );
+  });
+
+  it('when a voltage is negative, then the message names the file row', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560\n30,490\n60,-3\n')).toThrow(
+      /^Row 4: the voltage -3 V is not above zero/,
+    );
+  });
+
+  it('when times repeat, then the message names the file row', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560\n\n30,490\n30,430\n')).toThrow(
+      /^Row 5: the time 30 s does not come after/,
+    );
+  });
+
+  it('when validation is switched off, then the raw numbers are returned', () => {
+    expect(parseDecaySamplesCsv('t,v\n0,-1\n', { validate: false }).samples).toEqual([
+      { tSeconds: 0, volts: -1 },
+    ]);
+  });
+});
