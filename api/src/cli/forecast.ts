@@ -1,0 +1,131 @@
+/**
+ * `npm run -s forecast -- HISTORY.csv [--limit 0.8] [options]`: forecasts a bank's end of life
+ * from its history of capacitance ratios (rows `date,ratio[,stdError]`) and prints
+ * `{ model, endOfLifeOn, interval90: [low, high], rulDays, nextVisitBy, ... }` as JSON on stdout.
+ *
+ * Options:
+ *   --limit R           end-of-life ratio (default 0.8, the electrolytic default)
+ *   --watch R           watch ratio; below it the next visit comes within the watch interval
+ *   --as-of YYYY-MM-DD  the day of the forecast (default: today, UTC)
+ *   --interval-days D   the design's standard inspection interval (default 365)
+ *
+ * Bad input or not enough history: exit status 2, one message on stderr, nothing on stdout.
+ */
+
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import {
+  EngineInputError,
+  dayNumberFromIsoDate,
+  forecastEndOfLife,
+  parseRatioHistoryCsv,
+} from '../../../shared/domain';
+import { DEFAULT_HEALTH_LIMITS } from '../../../shared/constants/health';
+
+const USAGE =
+  'usage: npm run -s forecast -- HISTORY.csv [--limit 0.8] [--watch 0.9] [--as-of YYYY-MM-DD] [--interval-days 365]';
+
+class UsageError extends Error {}
+
+function main(argv: string[]): void {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    options: {
+      limit: { type: 'string' },
+      watch: { type: 'string' },
+      'as-of': { type: 'string' },
+      'interval-days': { type: 'string' },
+      help: { type: 'boolean' },
+    },
+    allowPositionals: true,
+    strict: true,
+  });
+  if (values.help) {
+    process.stdout.write(`${USAGE}\n`);
+    return;
+  }
+  if (positionals.length !== 1)
+    throw new UsageError(
+      positionals.length === 0
+        ? 'no history CSV file given'
+        : `one history file expected, got ${positionals.length}`,
+    );
+  const file = positionals[0]!;
+  const limit = ratio(values.limit, '--limit') ?? DEFAULT_HEALTH_LIMITS.electrolytic.endOfLifeRatio;
+  const watch = ratio(values.watch, '--watch');
+  if (watch !== undefined && !(watch > limit))
+    throw new UsageError(`--watch (${watch}) must be above --limit (${limit})`);
+  const intervalRaw = values['interval-days'];
+  const intervalDays = intervalRaw === undefined ? undefined : Number(intervalRaw);
+  if (intervalDays !== undefined && !(Number.isInteger(intervalDays) && intervalDays > 0)) {
+    throw new UsageError(`--interval-days must be a whole number of days, got "${intervalRaw}"`);
+  }
+  // The command line is the edge of the system: here, and only here, "today" comes from the clock.
+  const asOfOn = values['as-of'] ?? new Date().toISOString().slice(0, 10);
+  dayNumberFromIsoDate(asOfOn, '--as-of');
+
+  let text: string;
+  try {
+    // `npm run` starts scripts in the project folder; INIT_CWD is where the engineer typed the command.
+    text = readFileSync(resolve(process.env.INIT_CWD ?? process.cwd(), file), 'utf8');
+  } catch (error) {
+    throw new UsageError(
+      `cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`,
+    );
+  }
+  const { history } = parseRatioHistoryCsv(text);
+  const forecast = forecastEndOfLife({
+    history,
+    endOfLifeRatio: limit,
+    asOfOn,
+    ...(watch !== undefined ? { watchRatio: watch } : {}),
+    ...(intervalDays !== undefined ? { standardIntervalDays: intervalDays } : {}),
+  });
+  if (forecast.status !== 'ok') throw new UsageError(`not enough history: ${forecast.reason}`);
+  const output = {
+    model: forecast.model,
+    endOfLifeOn: forecast.endOfLifeOn,
+    interval90: forecast.interval90,
+    rulDays: forecast.rulDays,
+    nextVisitBy: forecast.nextVisitBy,
+    nextVisitReason: forecast.nextVisitReason,
+    nextVisitOverdue: forecast.nextVisitOverdue,
+    endOfLifeReached: forecast.endOfLifeReached,
+    asOfOn,
+    limit,
+    runs: history.length,
+    ratioNow: forecast.ratioNow,
+    ratioPerYearNow: forecast.ratioPerYearNow,
+    criterion: forecast.criterion,
+    models: forecast.models,
+    notes: forecast.notes,
+  };
+  process.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
+}
+
+function ratio(raw: string | undefined, flag: string): number | undefined {
+  if (raw === undefined) return undefined;
+  const value = /^(\d+\.?\d*|\.\d+)$/.test(raw.trim()) ? Number(raw) : NaN;
+  if (!(value > 0 && value < 2))
+    throw new UsageError(`${flag} must be a ratio such as 0.8, got "${raw}"`);
+  return value;
+}
+
+try {
+  main(process.argv.slice(2));
+} catch (error) {
+  if (error instanceof UsageError || error instanceof EngineInputError) {
+    process.stderr.write(`forecast: ${error.message}\n`);
+    process.exit(2);
+  }
+  const code = (error as { code?: unknown }).code;
+  if (typeof code === 'string' && code.startsWith('ERR_PARSE_ARGS')) {
+    process.stderr.write(`forecast: ${(error as Error).message.split('\n')[0]} (see --help)\n`);
+    process.exit(2);
+  }
+  process.stderr.write(
+    `forecast: unexpected error: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
+  );
+  process.exit(1);
+}

@@ -1,0 +1,99 @@
+/**
+ * The forecast command line tool on invented histories in tests/fixtures/decay.
+ */
+
+import { describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { linearRegression } from 'simple-statistics';
+import { FIXTURES } from '../../fixtures/decay/fixture-facts';
+
+const root = join(import.meta.dirname, '..', '..', '..');
+const fixture = (name: string): string => join(root, 'tests', 'fixtures', 'decay', name);
+
+function forecast(...args: string[]): { status: number | null; stdout: string; stderr: string } {
+  const result = spawnSync('npx', ['tsx', 'api/src/cli/forecast.ts', ...args], {
+    cwd: root,
+    encoding: 'utf8',
+    timeout: 60_000,
+  });
+  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
+}
+
+const dayOf = (iso: string): number => Date.parse(`${iso}T00:00:00Z`) / 86_400_000;
+
+describe('npm run forecast', { timeout: 60_000 }, () => {
+  it('when a linear ten-year history is given, then the forecast matches an independent straight-line fit (simple-statistics)', () => {
+    const result = forecast(fixture('history-linear.csv'), '--as-of', '2024-06-01');
+    expect(result.stderr).toBe('');
+    expect(result.status).toBe(0);
+    const out = JSON.parse(result.stdout) as {
+      model: string;
+      endOfLifeOn: string;
+      interval90: [string, string];
+      rulDays: number;
+      nextVisitBy: string;
+    };
+    expect(out.model).toBe('linear');
+    // Independent reference: ordinary least squares of ratio on day number by simple-statistics.
+    const rows = readFileSync(fixture('history-linear.csv'), 'utf8')
+      .trim()
+      .split('\n')
+      .slice(1)
+      .map((line) => line.split(','));
+    const line = linearRegression(rows.map(([date, ratio]) => [dayOf(date!), Number(ratio)]));
+    const referenceDay = Math.round((0.8 - line.b) / line.m);
+    expect(Math.abs(dayOf(out.endOfLifeOn) - referenceDay)).toBeLessThanOrEqual(1);
+    expect(dayOf(out.interval90[0])).toBeLessThan(dayOf(out.endOfLifeOn));
+    expect(dayOf(out.interval90[1])).toBeGreaterThan(dayOf(out.endOfLifeOn));
+    expect(out.rulDays).toBe(dayOf(out.endOfLifeOn) - dayOf('2024-06-01'));
+    const lastRun = rows.at(-1)![0]!;
+    expect(dayOf(out.nextVisitBy)).toBeLessThanOrEqual(dayOf(lastRun) + 365);
+    // The generating slope puts the crossing within the interval.
+    const truth =
+      Date.UTC(FIXTURES.historyLinear.startYear, 2, 1) / 86_400_000 +
+      (0.2 / -FIXTURES.historyLinear.slopePerYear) * 365.2425;
+    expect(truth).toBeGreaterThan(dayOf(out.interval90[0]));
+    expect(truth).toBeLessThan(dayOf(out.interval90[1]));
+  });
+
+  it('when a different limit is given, then the crossing moves accordingly', () => {
+    const at80 = JSON.parse(
+      forecast(fixture('history-linear.csv'), '--as-of', '2024-06-01').stdout,
+    ) as { endOfLifeOn: string };
+    const at85 = JSON.parse(
+      forecast(fixture('history-linear.csv'), '--limit', '0.85', '--as-of', '2022-01-01').stdout,
+    ) as { endOfLifeOn: string };
+    expect(dayOf(at85.endOfLifeOn)).toBeLessThan(dayOf(at80.endOfLifeOn));
+  });
+
+  const badCases: [string, string[], RegExp][] = [
+    ['only two runs', [fixture('history-two-runs.csv')], /not enough history: Only 2 decay runs/],
+    [
+      'an impossible date',
+      [fixture('history-bad-date.csv')],
+      /Row 3, column date: "2022-02-30" is not a calendar date/,
+    ],
+    [
+      'a malformed limit',
+      [fixture('history-linear.csv'), '--limit', 'eighty'],
+      /--limit must be a ratio/,
+    ],
+    [
+      'a malformed as-of date',
+      [fixture('history-linear.csv'), '--as-of', '1 June'],
+      /--as-of: "1 June" is not a calendar date/,
+    ],
+    ['no file', [], /no history CSV file given/],
+  ];
+  for (const [what, args, message] of badCases) {
+    it(`when given ${what}, then exit 2 with one message on stderr and nothing on stdout`, () => {
+      const result = forecast(...args);
+      expect(result.status).toBe(2);
+      expect(result.stdout).toBe('');
+      expect(result.stderr).toMatch(message);
+      expect(result.stderr.trim().split('\n')).toHaveLength(1);
+    });
+  }
+});
