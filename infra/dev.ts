@@ -5,6 +5,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
 import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+import { localIssuer, usesLocalProvider } from './identity/settings';
 
 loadEnvFile();
 process.chdir(PROJECT_ROOT);
@@ -26,6 +27,18 @@ const devPort = process.env.EBBLINE_DEV_PORT ?? '5173';
 process.env.APP_URL ??= `http://localhost:${devPort}`;
 process.env.EBBLINE_API_URL ??= `http://localhost:${apiPort}`;
 
+// the local identity provider, unless OIDC_ISSUER names the company's (see infra/start.ts)
+const localProvider = usesLocalProvider();
+if (!process.env.OIDC_ISSUER) process.env.OIDC_ISSUER = localIssuer();
+// (this process has closed its database pool, so failed attempts go to the console here)
+const { startIdentityProvider } = await import('./identity/index');
+const idp = localProvider
+  ? await startIdentityProvider({
+      onSignInFailed: (f) => console.warn(`[ebbline] dev: failed sign-in as "${f.login}" (${f.reason})`),
+    })
+  : null;
+if (idp) console.log(`[ebbline] dev: sign-in service at ${idp.issuer} (demo accounts: see the README's table)`);
+
 const children: ChildProcess[] = [
   spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'api/src/server.ts'], { stdio: 'inherit' }),
   spawn('npx', ['vite'], { stdio: 'inherit' }),
@@ -37,6 +50,7 @@ function stop(): void {
   if (stopping) return;
   stopping = true;
   for (const child of children) child.kill('SIGTERM');
+  void idp?.close();
   stopCluster(cluster);
   process.exit(0);
 }

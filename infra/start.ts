@@ -6,6 +6,7 @@ import { performance } from 'node:perf_hooks';
 import { build } from 'vite';
 import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
 import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+import { localIssuer, usesLocalProvider } from './identity/settings';
 
 const t0 = performance.now();
 const step = (message: string) =>
@@ -14,6 +15,10 @@ const step = (message: string) =>
 loadEnvFile();
 process.chdir(PROJECT_ROOT);
 const cluster = appClusterOptions();
+// the local identity provider stands in for the company's unless OIDC_ISSUER names another;
+// the app must know its issuer before it first reads its configuration
+const localProvider = usesLocalProvider();
+if (!process.env.OIDC_ISSUER) process.env.OIDC_ISSUER = localIssuer();
 
 const stops: Array<() => Promise<void> | void> = [];
 let stopping = false;
@@ -53,6 +58,18 @@ try {
   const { seedDemo } = await import('./seed/index');
   const seeded = await seedDemo();
   step(`demo scenario ready (${Object.entries(seeded).map(([k, v]) => `${v} ${k}`).join(', ')})`);
+
+  if (localProvider) {
+    const { startIdentityProvider } = await import('./identity/index');
+    const { recordFailureInEbbline } = await import('./identity/sign-in-log');
+    const idp = await startIdentityProvider({ onSignInFailed: recordFailureInEbbline });
+    stops.push(() => idp.close());
+    step(
+      `sign-in service (local identity provider) at ${idp.issuer}${idp.keysCreated ? ', new signing keys in .data/identity' : ''}; demo accounts: see the README's table`,
+    );
+  } else {
+    step(`signing in through ${process.env.OIDC_ISSUER}`);
+  }
 
   const { startServer } = await import('../api/src/server');
   const server = await startServer();

@@ -16,6 +16,7 @@ import { DEMO_PEOPLE, type DemoPerson } from '../seed/people';
 import { createAccountStore } from './accounts';
 import { loadOrCreateSigningKeys } from './keys';
 import { createIdentityProvider, type SignInFailure } from './provider';
+import { localIssuer } from './settings';
 import { memoryStore, postgresStore } from './stores';
 
 export interface RunningIdentityProvider {
@@ -28,10 +29,6 @@ export interface RunningIdentityProvider {
 // Good enough for a laptop; never for a shared machine (IDP_COOKIE_KEYS then).
 const LOCAL_COOKIE_KEYS = ['ebbline-local-idp-cookie-key-1'];
 
-/** The issuer the local provider will have for these settings. */
-export function localIssuer(env: NodeJS.ProcessEnv = process.env): string {
-  return (env.IDP_ISSUER || `http://localhost:${env.IDP_PORT || 3001}`).replace(/\/+$/, '');
-}
 
 export interface StartOptions {
   env?: NodeJS.ProcessEnv;

@@ -29,6 +29,7 @@ export function page({ title, body, scripts = [] }: PageOptions): string {
 <meta name="theme-color" content="#0f2a33">
 <meta name="robots" content="noindex">
 <title>${escapeHtml(title)} · Brackenmoor sign-in</title>
+<link rel="icon" type="image/svg+xml" href="/assets/favicon.svg">
 <link rel="stylesheet" href="/assets/sign-in.css">
 </head>
 <body>

@@ -16,7 +16,8 @@ export interface SeedSummary {
 /** Seeds the demo scenario in one transaction. */
 export async function seedDemo(): Promise<SeedSummary> {
   return sequelize.transaction(async (transaction) => {
-    for (const person of DEMO_PEOPLE) {
+    // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
+    for (const person of DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn)) {
       await User.findOrCreate({
         where: { email: person.email },
         defaults: { email: person.email, name: person.name, roles: person.roles, subject: person.login, lastSignInAt: null },

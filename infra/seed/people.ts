@@ -2,7 +2,9 @@ import type { Role } from '../../shared/constants/roles';
 
 /**
  * The invented staff of the demo scenario: Brackenmoor Processing, a plant group of three
- * sites. The local identity provider signs them in; the seed gives them their Ebbline roles.
+ * sites. The local identity provider (infra/identity) signs them in, with `sub` = login and
+ * a `roles` claim from `roles` (the company directory). The seed registers most of them in
+ * Ebbline ahead of time, as an admin would have; the others join at their first sign-in.
  */
 export interface DemoPerson {
   login: string;
@@ -11,6 +13,11 @@ export interface DemoPerson {
   roles: Role[];
   /** Demo password of the local identity provider (listed in the README). */
   password: string;
+  /**
+   * Not in Ebbline until their first sign-in, which then takes the directory's roles
+   * (kofi: technician) or none (noor, who sees "waiting for access").
+   */
+  joinsAtFirstSignIn?: boolean;
 }
 
 export const PLANT_GROUP = 'Brackenmoor Processing';
@@ -21,8 +28,8 @@ export const DEMO_PEOPLE: DemoPerson[] = [
   { login: 'priya', name: 'Priya Halden', email: 'priya@brackenmoor.example', roles: ['planner'], password: 'tidewater-plan' },
   { login: 'dario', name: 'Dario Venn', email: 'dario@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
   { login: 'lucia', name: 'Lucia Marsh', email: 'lucia@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
-  { login: 'kofi', name: 'Kofi Brannock', email: 'kofi@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
+  { login: 'kofi', name: 'Kofi Brannock', email: 'kofi@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech', joinsAtFirstSignIn: true },
   { login: 'ines', name: 'Ines Carvell', email: 'ines@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
   { login: 'rurik', name: 'Rurik Salo', email: 'rurik@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
-  { login: 'noor', name: 'Noor Ashdown', email: 'noor@brackenmoor.example', roles: [], password: 'tidewater-new' },
+  { login: 'noor', name: 'Noor Ashdown', email: 'noor@brackenmoor.example', roles: [], password: 'tidewater-new', joinsAtFirstSignIn: true },
 ];

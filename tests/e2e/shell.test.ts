@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { signIn } from '../support/sign-in';
 
 const baseUrl = inject('baseUrl');
 
@@ -7,6 +8,7 @@ describe('the application shell', () => {
   let session: BrowserSession;
   beforeAll(async () => {
     session = await openBrowser();
+    await signIn(session.page, 'ines', 'tidewater-rel');
   });
   afterAll(async () => session?.close());
 
@@ -23,7 +25,7 @@ describe('the application shell', () => {
   it('when the screen is phone-wide, then the menu opens the navigation', async () => {
     const phone = await openBrowser(PHONE_VIEWPORT);
     try {
-      await phone.page.goto(`${baseUrl}/fleet`);
+      await signIn(phone.page, 'tomas', 'tidewater-plan', { returnTo: '/fleet' });
       await phone.page.getByRole('button', { name: 'Menu' }).click();
       await phone.page.locator('#mobile-nav').getByRole('link', { name: /Register/ }).click();
       await phone.page.getByRole('heading', { name: 'Register' }).waitFor();

@@ -1,6 +1,7 @@
 /**
  * Starts the whole product once for the browser tests: a seeded database copied from the
- * template, and the API serving the built web app, on test ports of their own.
+ * template, the local identity provider, and the API serving the built web app, on test
+ * ports of their own (E2E_PORT, E2E_IDP_PORT).
  */
 import type { TestProject } from 'vitest/node';
 import { createTestDatabase } from './test-cluster';
@@ -8,13 +9,23 @@ import { createTestDatabase } from './test-cluster';
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
+    /** The local identity provider's issuer (its sign-in page lives there). */
+    issuer: string;
   }
 }
 
 export default async function setup(project: TestProject): Promise<() => Promise<void>> {
   const port = Number(process.env.E2E_PORT || 39100);
   const baseUrl = `http://localhost:${port}`;
+  const idpPort = Number(process.env.E2E_IDP_PORT || 39101);
   Object.assign(process.env, {
+    // the local identity provider on a test port of its own, its records in the e2e database
+    IDP_PORT: String(idpPort),
+    IDP_ISSUER: `http://localhost:${idpPort}`,
+    IDP_DATA_DIR: `.data/identity-e2e-${idpPort}`,
+    IDP_STORE: 'postgres',
+    IDP_BCRYPT_ROUNDS: '4',
+    OIDC_ISSUER: `http://localhost:${idpPort}`,
     NODE_ENV: 'test',
     LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
     PORT: String(port),
@@ -24,10 +35,15 @@ export default async function setup(project: TestProject): Promise<() => Promise
   });
   const { seedDemo } = await import('../../infra/seed/index');
   await seedDemo();
+  const { startIdentityProvider } = await import('../../infra/identity/index');
+  const { recordFailureInEbbline } = await import('../../infra/identity/sign-in-log');
+  const idp = await startIdentityProvider({ onSignInFailed: recordFailureInEbbline });
   const { startServer } = await import('../../api/src/server');
   const server = await startServer();
   project.provide('baseUrl', baseUrl);
+  project.provide('issuer', idp.issuer);
   return async () => {
     await server.close(2000);
+    await idp.close();
   };
 }

@@ -1,11 +1,19 @@
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { MutationCache, QueryCache, QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { useState, type ReactNode } from 'react';
 import { ApiError } from '../lib/api-client';
+import { goToSignIn } from '../lib/sign-in';
+
+/** A 401 anywhere means the session has ended (idle, time limit, deactivation): sign in again. */
+function onApiError(error: unknown): void {
+  if (error instanceof ApiError && error.status === 401) goToSignIn();
+}
 
 export function AppProvider({ children }: { children: ReactNode }) {
   const [queryClient] = useState(
     () =>
       new QueryClient({
+        queryCache: new QueryCache({ onError: onApiError }),
+        mutationCache: new MutationCache({ onError: onApiError }),
         defaultOptions: {
           queries: {
             staleTime: 30_000,

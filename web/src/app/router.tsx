@@ -1,21 +1,25 @@
-import { createBrowserRouter, Navigate, RouterProvider } from 'react-router';
+import { createBrowserRouter, RouterProvider } from 'react-router';
 import { RootLayout } from './routes/root-layout';
 import { RouteError } from './routes/route-error';
 
 /** Each screen loads on first visit (lazy), so the first paint stays small. */
 const router = createBrowserRouter([
+  // outside the signed-in shell: the ends of sign-in and sign-out
+  { path: '/signed-out', lazy: () => import('./routes/signed-out'), errorElement: <RouteError /> },
+  { path: '/sign-in-problem', lazy: () => import('./routes/sign-in-problem'), errorElement: <RouteError /> },
   {
     path: '/',
     element: <RootLayout />,
     errorElement: <RouteError />,
     children: [
-      { index: true, element: <Navigate to="/fleet" replace /> },
+      { index: true, lazy: () => import('./routes/start') },
       { path: 'fleet', lazy: () => import('./routes/fleet') },
       { path: 'register/*', lazy: () => import('./routes/register') },
       { path: 'planner', lazy: () => import('./routes/planner') },
       { path: 'my-visits', lazy: () => import('./routes/my-visits') },
       { path: 'alerts', lazy: () => import('./routes/alerts') },
       { path: 'people', lazy: () => import('./routes/people') },
+      { path: 'profile', lazy: () => import('./routes/profile') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
   },

@@ -1,7 +1,58 @@
+import { useEffect } from 'react';
+import { useLocation } from 'react-router';
 import { AppShell } from '../../components/layout/app-shell';
+import { CenteredPage } from '../../components/layout/centered-page';
+import { ErrorPanel } from '../../components/ui/error-panel';
+import { Spinner } from '../../components/ui/spinner';
+import { useMe } from '../../features/auth/api/get-me';
+import { AccountMenu } from '../../features/auth/components/account-menu';
+import { NotAllowed } from '../../features/auth/components/not-allowed';
+import { WaitingForAccess } from '../../features/auth/components/waiting-for-access';
 import { ServerStatus } from '../../features/health/components/server-status';
-import { NAV_ITEMS } from '../nav';
+import { ApiError } from '../../lib/api-client';
+import { goToSignIn } from '../../lib/sign-in';
+import { mayOpen, navFor, screenFor, startScreenFor } from '../access';
 
+/**
+ * The signed-in frame: asks the server who is signed in (GET /api/me), sends everyone else
+ * to sign in, shows a person without a role whom to ask, and shows each role only its
+ * screens; a direct link to another screen shows "not allowed".
+ */
 export function RootLayout() {
-  return <AppShell nav={NAV_ITEMS} status={<ServerStatus compact />} />;
+  const me = useMe();
+  const location = useLocation();
+  const signedOut = me.error instanceof ApiError && me.error.status === 401;
+  useEffect(() => {
+    if (signedOut) goToSignIn(location.pathname + location.search);
+  }, [signedOut, location.pathname, location.search]);
+
+  if (me.isPending || signedOut) {
+    return (
+      <CenteredPage>
+        <Spinner label={signedOut ? 'Taking you to sign in…' : 'Checking your sign-in…'} />
+      </CenteredPage>
+    );
+  }
+  if (me.isError) {
+    return (
+      <CenteredPage>
+        <ErrorPanel title="Ebbline could not check your sign-in">{me.error.message}</ErrorPanel>
+      </CenteredPage>
+    );
+  }
+  const { roles } = me.data;
+  if (roles.length === 0) return <WaitingForAccess me={me.data} />;
+
+  const screen = screenFor(location.pathname);
+  return (
+    <AppShell
+      nav={navFor(roles)}
+      status={<ServerStatus compact />}
+      account={(closeMenu) => <AccountMenu me={me.data} onNavigate={closeMenu} />}
+    >
+      {screen && !mayOpen(location.pathname, roles) ? (
+        <NotAllowed screen={screen.label} allowedRoles={screen.roles} myRoles={roles} home={startScreenFor(roles)} />
+      ) : undefined}
+    </AppShell>
+  );
 }

@@ -7,7 +7,19 @@ import type { NavItem } from '../../app/nav';
  * The frame of every signed-in screen: a tide-blue rail on wide screens, a top bar with a
  * menu on phones.
  */
-export function AppShell({ nav, status, account }: { nav: NavItem[]; status: ReactNode; account?: ReactNode }) {
+export function AppShell({
+  nav,
+  status,
+  account,
+  children,
+}: {
+  nav: NavItem[];
+  status: ReactNode;
+  /** The signed-in person's menu; given the close action of the phone menu. */
+  account?: (closeMenu: () => void) => ReactNode;
+  /** Shown instead of the matched route (e.g. "not allowed"). */
+  children?: ReactNode;
+}) {
   const [open, setOpen] = useState(false);
   const links = (
     <nav aria-label="Main" className="flex flex-col gap-1">
@@ -29,12 +41,12 @@ export function AppShell({ nav, status, account }: { nav: NavItem[]; status: Rea
     </nav>
   );
   return (
-    <div className="min-h-screen lg:flex">
+    <div className="min-h-screen lg:flex" data-testid="app-shell">
       <aside className="hidden w-64 shrink-0 flex-col gap-6 bg-tide-900 p-4 lg:flex">
         <Brand />
         {links}
-        <div className="mt-auto space-y-3 border-t border-tide-800 pt-4">
-          {account}
+        <div className="mt-auto space-y-4 border-t border-tide-800 pt-4">
+          {account?.(() => undefined)}
           {status}
         </div>
       </aside>
@@ -53,14 +65,14 @@ export function AppShell({ nav, status, account }: { nav: NavItem[]; status: Rea
       {open ? (
         <div id="mobile-nav" className="sticky top-14 z-10 space-y-4 bg-tide-900 px-4 pb-4 lg:hidden">
           {links}
-          <div className="space-y-3 border-t border-tide-800 pt-3">
-            {account}
+          <div className="space-y-4 border-t border-tide-800 pt-3">
+            {account?.(() => setOpen(false))}
             {status}
           </div>
         </div>
       ) : null}
       <main className="min-w-0 flex-1 px-4 py-6 sm:px-8 sm:py-8">
-        <Outlet />
+        {children ?? <Outlet />}
       </main>
     </div>
   );
