@@ -16,7 +16,12 @@ export const HEALTH_LABELS: Record<HealthName, string> = {
   'end-of-life': 'end of life',
 };
 
-/** True when `value` is one of {@link HEALTH_NAMES}. */
+/**
+ * True when `value` is one of {@link HEALTH_NAMES}.
+ *
+ * @example
+ * isHealthName('end-of-life') // true
+ */
 export function isHealthName(value: unknown): value is HealthName {
   return typeof value === 'string' && (HEALTH_NAMES as readonly string[]).includes(value);
 }

@@ -114,7 +114,7 @@ export function countSteepStart(
  * @returns watts, or null with fewer than 3 readings or no sign of a constant-power draw
  * @example
  * // readings from a 30 W supply on a 94 kΩ / 220.9 s bus
- * estimateControlSupplyWatts([0, 2, 4, 6], [560, 508, 451, 388], 220.9, 94_000) // ≈ 30
+ * estimateControlSupplyWatts([0, 2, 4, 6], [560, 507, 450, 385], 220.9, 94_000) // ≈ 30
  */
 export function estimateControlSupplyWatts(
   tSeconds: ArrayLike<number>,

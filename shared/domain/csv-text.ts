@@ -20,7 +20,12 @@ export interface CsvRow {
   cells: string[];
 }
 
-/** Human name of a separator, for messages. */
+/**
+ * Human name of a separator, for messages.
+ *
+ * @example
+ * separatorName(';') // 'semicolon'
+ */
 export function separatorName(separator: CsvSeparator): string {
   return separator === ',' ? 'comma' : separator === ';' ? 'semicolon' : 'tab';
 }
@@ -83,7 +88,12 @@ export function splitCells(line: string, separator: CsvSeparator): string[] {
   return cells;
 }
 
-/** True when `cells` is an empty row (only separators). */
+/**
+ * True when `cells` is an empty row (only separators).
+ *
+ * @example
+ * isEmptyRow(['', '', '']) // true
+ */
 export function isEmptyRow(cells: readonly string[]): boolean {
   return cells.every((cell) => cell === '');
 }
@@ -145,6 +155,9 @@ export function parseHeaderName(cell: string): HeaderName {
  *
  * @returns the separator, the header's position in `lines` and what `accept` returned
  * @throws EngineInputError('invalid-csv') when no line is accepted
+ * @example
+ * findHeader(splitLines('Logger 7\nt;v\n0;5'), (cells) => (cells.includes('t') ? cells : null), 'a t column')
+ * // { separator: ';', headerAt: 1, found: ['t', 'v'] }
  */
 export function findHeader<T>(
   lines: readonly { rowNumber: number; text: string }[],
@@ -169,6 +182,10 @@ export function findHeader<T>(
 /**
  * Refuses a row with more filled cells than the header has columns: in a comma-separated file
  * "0,560,5" is a decimal comma splitting a number, and reading it as 560 would be a silent guess.
+ *
+ * @throws EngineInputError('invalid-csv')
+ * @example
+ * checkRowWidth(['0', '560', '5'], 2, 7, ',') // throws: 'Row 7 has 3 cells but the header has 2 columns. ...'
  */
 export function checkRowWidth(
   cells: readonly string[],

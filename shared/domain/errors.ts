@@ -77,12 +77,22 @@ export interface NotEnoughData {
   reason: string;
 }
 
-/** Builds an {@link Unusable} result. */
+/**
+ * Builds an {@link Unusable} result.
+ *
+ * @example
+ * unusable('no-decay', 'The voltage does not fall.') // { status: 'unusable', code: 'no-decay', reason: '...' }
+ */
 export function unusable(code: UnusableCode, reason: string): Unusable {
   return { status: 'unusable', code, reason };
 }
 
-/** Builds a {@link NotEnoughData} result. */
+/**
+ * Builds a {@link NotEnoughData} result.
+ *
+ * @example
+ * notEnoughData('Only 2 decay runs.') // { status: 'not-enough-data', reason: 'Only 2 decay runs.' }
+ */
 export function notEnoughData(reason: string): NotEnoughData {
   return { status: 'not-enough-data', reason };
 }

@@ -178,7 +178,7 @@ export interface NamedOffCurveReading {
  * @param scales - scatter of the good readings
  * @example
  * nameOffCurveReadings([0, 60, 120], [560, 41, 325], [560, 425, 325], [1], { volts: 1, log: 0.003 })
- * // [{ index: 1, code: 'dropped-digit', reason: 'The reading 41 V at t = 60 s is far off the decay (about 425 V expected): it looks like a dropped digit.' }]
+ * // [{ index: 1, code: 'dropped-digit', reason: 'The reading 41 V at t = 60 s is far off the decay (about 425 V expected): it looks like a dropped digit (perhaps 421 V).' }]
  */
 export function nameOffCurveReadings(
   tSeconds: ArrayLike<number>,

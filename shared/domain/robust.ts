@@ -19,7 +19,7 @@ export const MAD_TO_SIGMA = 1.4826;
  * @param keepFraction - fraction kept, e.g. 0.8
  * @returns the estimate, or 0 with fewer than 5 values
  * @example
- * trimmedScale(Float64Array.from([0.1, 0.5, 1.2, 0.8, 2.0, 0.3, 0.9, 1.5, 0.2, 9]), 10, 0.8) // ≈ 1.0
+ * trimmedScale(Float64Array.from([0.1, 0.5, 1.2, 0.8, 2.0, 0.3, 0.9, 1.5, 0.2, 9]), 10, 0.8) // ≈ 1.26
  */
 export function trimmedScale(absValues: Float64Array, count: number, keepFraction: number): number {
   if (count < 5) return 0;
@@ -48,7 +48,12 @@ export function median(values: ArrayLike<number>, count = values.length): number
   return medianInPlace(copy, count);
 }
 
-/** Median of `values[0..count)`, reordering `values` (quickselect, O(n) expected). */
+/**
+ * Median of `values[0..count)`, reordering `values` (quickselect, O(n) expected).
+ *
+ * @example
+ * medianInPlace(Float64Array.of(4, 1, 3, 2)) // 2.5
+ */
 export function medianInPlace(values: Float64Array, count = values.length): number {
   if (count <= 0) return 0;
   const half = count >> 1;
@@ -60,7 +65,12 @@ export function medianInPlace(values: Float64Array, count = values.length): numb
   return (lower + upper) / 2;
 }
 
-/** The k-th smallest (0-based) of `values[0..count)`, reordering `values` in place (quickselect). */
+/**
+ * The k-th smallest (0-based) of `values[0..count)`, reordering `values` in place (quickselect).
+ *
+ * @example
+ * selectInPlace(Float64Array.of(9, 7, 8), 3, 0) // 7
+ */
 export function selectInPlace(values: Float64Array, count: number, k: number): number {
   let left = 0;
   let right = count - 1;
