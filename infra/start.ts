@@ -2,6 +2,7 @@
  * `npm start`: builds the web app, starts Ebbline's own PostgreSQL, migrates, seeds the demo
  * scenario and serves the product at one address. Ctrl-C stops everything it started.
  */
+import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { build } from 'vite';
 import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
@@ -65,7 +66,7 @@ try {
     const idp = await startIdentityProvider({ onSignInFailed: recordFailureInEbbline });
     stops.push(() => idp.close());
     step(
-      `sign-in service (local identity provider) at ${idp.issuer}${idp.keysCreated ? ', new signing keys in .data/identity' : ''}; demo accounts: see the README's table`,
+      `sign-in service (local identity provider) at ${idp.issuer}${idp.keysCreated ? `, new signing keys in ${path.relative(PROJECT_ROOT, idp.keysDir)}` : ''}; demo accounts: see the README's table`,
     );
   } else {
     step(`signing in through ${process.env.OIDC_ISSUER}`);

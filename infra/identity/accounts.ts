@@ -21,11 +21,19 @@ export interface AccountStore {
  * Hashes the staff's passwords with bcrypt once at start; plain passwords are not kept.
  * @param rounds bcrypt cost; 10 for `npm start`, lower in tests
  */
-export async function createAccountStore(people: readonly DemoPerson[], rounds = 10): Promise<AccountStore> {
+export async function createAccountStore(
+  people: readonly DemoPerson[],
+  rounds = 10,
+): Promise<AccountStore> {
   const accounts = new Map<string, { account: StaffAccount; passwordHash: string }>();
   for (const person of people) {
     accounts.set(person.login.toLowerCase(), {
-      account: { subject: person.login, name: person.name, email: person.email, roles: [...person.roles] },
+      account: {
+        subject: person.login,
+        name: person.name,
+        email: person.email,
+        roles: [...person.roles],
+      },
       passwordHash: await bcrypt.hash(person.password, rounds),
     });
   }

@@ -23,12 +23,13 @@ export interface RunningIdentityProvider {
   issuer: string;
   /** True when the signing keys were made by this start (first start of a clone). */
   keysCreated: boolean;
+  /** Where the signing keys are kept. */
+  keysDir: string;
   close(): Promise<void>;
 }
 
 // Good enough for a laptop; never for a shared machine (IDP_COOKIE_KEYS then).
 const LOCAL_COOKIE_KEYS = ['ebbline-local-idp-cookie-key-1'];
-
 
 export interface StartOptions {
   env?: NodeJS.ProcessEnv;
@@ -47,12 +48,21 @@ export async function startIdentityProvider({
   const issuer = localIssuer(env);
   const port = Number(new URL(issuer).port || env.IDP_PORT || 3001);
   const host = env.IDP_HOST || '127.0.0.1';
-  const cookieKeys = (env.IDP_COOKIE_KEYS ?? '').split(',').map((k) => k.trim()).filter(Boolean);
+  const cookieKeys = (env.IDP_COOKIE_KEYS ?? '')
+    .split(',')
+    .map((k) => k.trim())
+    .filter(Boolean);
   if (cookieKeys.length === 0 && !isLoopbackUrl(app.APP_URL)) {
-    throw new Error('IDP_COOKIE_KEYS: set at least one long random key for the local provider on a shared machine');
+    throw new Error(
+      'IDP_COOKIE_KEYS: set at least one long random key for the local provider on a shared machine',
+    );
   }
-  const { keys, created } = loadOrCreateSigningKeys(path.resolve(PROJECT_ROOT, env.IDP_DATA_DIR || '.data/identity'));
-  const store = env.IDP_STORE === 'memory' ? memoryStore() : postgresStore(env.IDP_DATABASE_URL || app.DATABASE_URL);
+  const keysDir = path.resolve(PROJECT_ROOT, env.IDP_DATA_DIR || '.data/identity');
+  const { keys, created } = loadOrCreateSigningKeys(keysDir);
+  const store =
+    env.IDP_STORE === 'memory'
+      ? memoryStore()
+      : postgresStore(env.IDP_DATABASE_URL || app.DATABASE_URL);
   const accounts = await createAccountStore(people, Number(env.IDP_BCRYPT_ROUNDS || 10));
   const { app: handler } = createIdentityProvider({
     issuer,
@@ -82,6 +92,7 @@ export async function startIdentityProvider({
   return {
     issuer,
     keysCreated: created,
+    keysDir,
     async close() {
       await new Promise<void>((resolve) => {
         server.close(() => resolve());

@@ -25,7 +25,8 @@ export function loadOrCreateSigningKeys(dataDir: string): { keys: SigningJwk[]; 
   const file = path.join(dataDir, 'signing-keys.json');
   if (fs.existsSync(file)) {
     const stored = JSON.parse(fs.readFileSync(file, 'utf8')) as { keys?: SigningJwk[] };
-    if (Array.isArray(stored.keys) && stored.keys.length > 0) return { keys: stored.keys, created: false };
+    if (Array.isArray(stored.keys) && stored.keys.length > 0)
+      return { keys: stored.keys, created: false };
   }
   fs.mkdirSync(dataDir, { recursive: true, mode: 0o700 });
   const keys = [generateSigningKey()];

@@ -63,10 +63,17 @@ const SCOPE_TEXT: Record<string, string> = {
 };
 
 /** Builds the provider and the Express app that serves it with its own pages. */
-export function createIdentityProvider(options: IdentityProviderOptions): { provider: Provider; app: express.Express } {
+export function createIdentityProvider(options: IdentityProviderOptions): {
+  provider: Provider;
+  app: express.Express;
+} {
   const clientsById = new Map(options.clients.map((c) => [c.clientId, c]));
   const appOrigins = [
-    ...new Set(options.clients.flatMap((c) => [...c.redirectUris, ...c.postLogoutRedirectUris]).map((u) => new URL(u).origin)),
+    ...new Set(
+      options.clients
+        .flatMap((c) => [...c.redirectUris, ...c.postLogoutRedirectUris])
+        .map((u) => new URL(u).origin),
+    ),
   ];
   const homeOf = (clientId: unknown) => {
     const client = typeof clientId === 'string' ? clientsById.get(clientId) : undefined;
@@ -185,10 +192,7 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
       },
     }),
   );
-  app.use(
-    '/assets',
-    express.static(path.join(HERE, 'public'), { maxAge: '1h', index: false }),
-  );
+  app.use('/assets', express.static(path.join(HERE, 'public'), { maxAge: '1h', index: false }));
   app.get('/assets/fonts/:file', (req, res) => {
     const file = req.params.file;
     if (!FONT_FILES.has(file) || !fs.existsSync(path.join(FONT_DIR, file))) {
@@ -205,7 +209,8 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
     next();
   };
   const clientName = (clientId: unknown) =>
-    (typeof clientId === 'string' ? clientsById.get(clientId)?.clientName : undefined) ?? 'the application';
+    (typeof clientId === 'string' ? clientsById.get(clientId)?.clientName : undefined) ??
+    'the application';
 
   /** Gives the first-party app the scopes and claims it asked for, as a person would. */
   async function grantConsent(req: Request, res: Response): Promise<void> {
@@ -227,7 +232,12 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
       grant.addResourceScope(indicator, scopes.join(' '));
     }
     const grantId = await grant.save();
-    await provider.interactionFinished(req, res, { consent: details.grantId ? {} : { grantId } }, { mergeWithLastSubmission: true });
+    await provider.interactionFinished(
+      req,
+      res,
+      { consent: details.grantId ? {} : { grantId } },
+      { mergeWithLastSubmission: true },
+    );
   }
 
   app.get('/interaction/:uid', noStore, async (req, res) => {
@@ -244,8 +254,12 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
         await grantConsent(req, res);
         return;
       }
-      const account = details.session?.accountId ? options.accounts.find(details.session.accountId) : undefined;
-      const scopes = String(details.params.scope ?? '').split(' ').filter((s) => SCOPE_TEXT[s]);
+      const account = details.session?.accountId
+        ? options.accounts.find(details.session.accountId)
+        : undefined;
+      const scopes = String(details.params.scope ?? '')
+        .split(' ')
+        .filter((s) => SCOPE_TEXT[s]);
       res.type('html').send(
         consentPage({
           uid: details.uid,
@@ -256,7 +270,16 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
       );
       return;
     }
-    res.status(400).type('html').send(problemPage('Sign-in could not go on', 'This step is not offered here.', homeOf(details.params.client_id)));
+    res
+      .status(400)
+      .type('html')
+      .send(
+        problemPage(
+          'Sign-in could not go on',
+          'This step is not offered here.',
+          homeOf(details.params.client_id),
+        ),
+      );
   });
 
   app.post('/interaction/:uid/login', noStore, form, async (req, res) => {
@@ -274,12 +297,23 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
     const origin = { ip: req.ip ?? null, userAgent: req.get('user-agent') ?? null };
 
     if (!login || !password) {
-      res.status(400).type('html').send(
-        signInPage({ uid: details.uid, clientName: name, login, error: { title: 'Enter your login and your password.' } }),
-      );
+      res
+        .status(400)
+        .type('html')
+        .send(
+          signInPage({
+            uid: details.uid,
+            clientName: name,
+            login,
+            error: { title: 'Enter your login and your password.' },
+          }),
+        );
       return;
     }
-    const lockedMs = Math.max(limiterByLogin.lockedFor(loginKey), limiterByAddress.lockedFor(addressKey));
+    const lockedMs = Math.max(
+      limiterByLogin.lockedFor(loginKey),
+      limiterByAddress.lockedFor(addressKey),
+    );
     if (lockedMs > 0) {
       await options.onSignInFailed?.({ login, reason: 'locked-out', ...origin });
       res.status(429).setHeader('Retry-After', String(Math.ceil(lockedMs / 1000)));
@@ -298,29 +332,44 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
     }
     const account = await options.accounts.verify(login, password);
     if (!account) {
-      const lockMs = Math.max(limiterByLogin.recordFailure(loginKey), limiterByAddress.recordFailure(addressKey));
-      await options.onSignInFailed?.({ login, reason: lockMs ? 'locked-out' : 'wrong-password', ...origin });
-      const left = limiterByLogin.remaining(loginKey);
-      res.status(lockMs ? 429 : 401).type('html').send(
-        signInPage({
-          uid: details.uid,
-          clientName: name,
-          login,
-          error: lockMs
-            ? {
-                title: 'Too many failed attempts.',
-                text: ` Signing in as ${login} is paused for ${Math.ceil(lockMs / 60_000)} min.`,
-              }
-            : {
-                title: 'The login or the password is wrong.',
-                text: ` Check both and try again${left <= 2 ? ` (${left} ${left === 1 ? 'try' : 'tries'} left before a pause)` : ''}.`,
-              },
-        }),
+      const lockMs = Math.max(
+        limiterByLogin.recordFailure(loginKey),
+        limiterByAddress.recordFailure(addressKey),
       );
+      await options.onSignInFailed?.({
+        login,
+        reason: lockMs ? 'locked-out' : 'wrong-password',
+        ...origin,
+      });
+      const left = limiterByLogin.remaining(loginKey);
+      res
+        .status(lockMs ? 429 : 401)
+        .type('html')
+        .send(
+          signInPage({
+            uid: details.uid,
+            clientName: name,
+            login,
+            error: lockMs
+              ? {
+                  title: 'Too many failed attempts.',
+                  text: ` Signing in as ${login} is paused for ${Math.ceil(lockMs / 60_000)} min.`,
+                }
+              : {
+                  title: 'The login or the password is wrong.',
+                  text: ` Check both and try again${left <= 2 ? ` (${left} ${left === 1 ? 'try' : 'tries'} left before a pause)` : ''}.`,
+                },
+          }),
+        );
       return;
     }
     limiterByLogin.clear(loginKey);
-    await provider.interactionFinished(req, res, { login: { accountId: account.subject } }, { mergeWithLastSubmission: false });
+    await provider.interactionFinished(
+      req,
+      res,
+      { login: { accountId: account.subject } },
+      { mergeWithLastSubmission: false },
+    );
   });
 
   app.post('/interaction/:uid/confirm', noStore, async (req, res) => {
@@ -347,15 +396,18 @@ export function createIdentityProvider(options: IdentityProviderOptions): { prov
       return;
     }
     const expired = err instanceof errors.SessionNotFound || err instanceof errors.InvalidRequest;
-    res.status(expired ? 400 : 500).type('html').send(
-      problemPage(
-        expired ? 'This sign-in page has expired' : 'Sign-in could not go on',
-        expired
-          ? 'Sign-in pages are valid for ten minutes and only in the browser that opened them. Go back to Ebbline and sign in again.'
-          : 'Something went wrong at the sign-in service. Go back to Ebbline and try again.',
-        homeOf(undefined),
-      ),
-    );
+    res
+      .status(expired ? 400 : 500)
+      .type('html')
+      .send(
+        problemPage(
+          expired ? 'This sign-in page has expired' : 'Sign-in could not go on',
+          expired
+            ? 'Sign-in pages are valid for ten minutes and only in the browser that opened them. Go back to Ebbline and sign in again.'
+            : 'Something went wrong at the sign-in service. Go back to Ebbline and try again.',
+          homeOf(undefined),
+        ),
+      );
   };
   app.use(interactionError);
   app.use(provider.callback());

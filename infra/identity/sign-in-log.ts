@@ -8,7 +8,9 @@ import type { SignInFailure } from './provider';
  * the login).
  */
 export async function recordFailureInEbbline(failure: SignInFailure): Promise<void> {
-  const user = failure.login ? await User.findOne({ where: { subject: failure.login.toLowerCase() } }) : null;
+  const user = failure.login
+    ? await User.findOne({ where: { subject: failure.login.toLowerCase() } })
+    : null;
   await recordAccessEvent({
     kind: 'sign-in-failed',
     userId: user?.id ?? null,

@@ -19,7 +19,9 @@ const epochSeconds = (date: Date) => Math.floor(date.getTime() / 1000);
 export function postgresStore(databaseUrl: string): ProviderStore {
   const pool = new pg.Pool({ connectionString: databaseUrl, max: 4, idleTimeoutMillis: 10_000 });
   const sweep = () =>
-    pool.query('DELETE FROM identity_provider_records WHERE expires_at < now()').catch(() => undefined);
+    pool
+      .query('DELETE FROM identity_provider_records WHERE expires_at < now()')
+      .catch(() => undefined);
   void sweep();
   const timer = setInterval(sweep, 3_600_000);
   timer.unref();
@@ -33,7 +35,9 @@ export function postgresStore(databaseUrl: string): ProviderStore {
       );
       const row = rows[0];
       if (!row) return undefined;
-      return row.consumed_at ? { ...row.payload, consumed: epochSeconds(row.consumed_at) } : row.payload;
+      return row.consumed_at
+        ? { ...row.payload, consumed: epochSeconds(row.consumed_at) }
+        : row.payload;
     };
     return {
       async upsert(id, payload, expiresIn) {
@@ -57,10 +61,16 @@ export function postgresStore(databaseUrl: string): ProviderStore {
       findByUid: (uid) => findWhere('uid', uid),
       findByUserCode: (userCode) => findWhere('user_code', userCode),
       async consume(id) {
-        await pool.query('UPDATE identity_provider_records SET consumed_at = now() WHERE model = $1 AND id = $2', [model, id]);
+        await pool.query(
+          'UPDATE identity_provider_records SET consumed_at = now() WHERE model = $1 AND id = $2',
+          [model, id],
+        );
       },
       async destroy(id) {
-        await pool.query('DELETE FROM identity_provider_records WHERE model = $1 AND id = $2', [model, id]);
+        await pool.query('DELETE FROM identity_provider_records WHERE model = $1 AND id = $2', [
+          model,
+          id,
+        ]);
       },
       async revokeByGrantId(grantId) {
         await pool.query('DELETE FROM identity_provider_records WHERE grant_id = $1', [grantId]);
@@ -88,15 +98,21 @@ export function memoryStore(): ProviderStore {
     entry && (entry.expiresAt === null || entry.expiresAt > Date.now()) ? entry.payload : undefined;
   const adapter: AdapterFactory = (model) => ({
     async upsert(id, payload, expiresIn) {
-      records.set(key(model, id), { payload: { ...payload }, expiresAt: expiresIn ? Date.now() + expiresIn * 1000 : null });
+      records.set(key(model, id), {
+        payload: { ...payload },
+        expiresAt: expiresIn ? Date.now() + expiresIn * 1000 : null,
+      });
     },
     find: async (id) => live(records.get(key(model, id))),
     async findByUid(uid) {
-      for (const [k, entry] of records) if (k.startsWith(`${model}\u0000`) && entry.payload.uid === uid) return live(entry);
+      for (const [k, entry] of records)
+        if (k.startsWith(`${model}\u0000`) && entry.payload.uid === uid) return live(entry);
       return undefined;
     },
     async findByUserCode(userCode) {
-      for (const [k, entry] of records) if (k.startsWith(`${model}\u0000`) && entry.payload.userCode === userCode) return live(entry);
+      for (const [k, entry] of records)
+        if (k.startsWith(`${model}\u0000`) && entry.payload.userCode === userCode)
+          return live(entry);
       return undefined;
     },
     async consume(id) {

@@ -27,7 +27,9 @@ export const ACCESS_EVENT_LABELS: Record<AccessEventKind, string> = {
 
 /** GET /api/access-events?kind=&userId=&before=&limit= (newest first). */
 export const accessEventsQuerySchema = z.object({
-  kind: z.enum(ACCESS_EVENT_KINDS, { error: `kind is one of: ${ACCESS_EVENT_KINDS.join(', ')}` }).optional(),
+  kind: z
+    .enum(ACCESS_EVENT_KINDS, { error: `kind is one of: ${ACCESS_EVENT_KINDS.join(', ')}` })
+    .optional(),
   userId: z.uuid({ error: 'userId must be a person id' }).optional(),
   /** Only events before this instant (UTC ISO): the next page starts at the last one seen. */
   before: z.iso.datetime({ error: 'before must be a UTC ISO instant' }).optional(),

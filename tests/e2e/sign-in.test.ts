@@ -24,7 +24,9 @@ describe('signing in through the local provider', () => {
     await page.goto(`${baseUrl}/planner`);
     await page.waitForURL((url) => url.origin === new URL(issuer).origin);
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
-    expect(await page.locator('link[rel=stylesheet]').getAttribute('href')).toBe('/assets/sign-in.css');
+    expect(await page.locator('link[rel=stylesheet]').getAttribute('href')).toBe(
+      '/assets/sign-in.css',
+    );
     // our own font, from our own server
     expect(await page.evaluate(() => document.fonts.check('16px "Noto Sans"'))).toBe(true);
     await screenshot(page, 'sign-in-desktop');
@@ -36,34 +38,43 @@ describe('signing in through the local provider', () => {
     ['tomas', 'tidewater-plan', 'Tomas Keelan', '/planner', 'Planner'],
     ['dario', 'tidewater-tech', 'Dario Venn', '/my-visits', 'My visits'],
     ['ines', 'tidewater-rel', 'Ines Carvell', '/fleet', 'Fleet'],
-  ])('when %s signs in, then they land on their start screen and can sign out', async (login, password, name, start, heading) => {
-    const { page } = await browser();
-    const console = watchConsole(page);
-    await signIn(page, login, password);
-    expect(new URL(page.url()).pathname).toBe(start);
-    await page.getByRole('heading', { name: heading, exact: true }).waitFor();
-    expect(await page.getByTestId('account-name').first().textContent()).toBe(name);
-    await screenshot(page, `start-${login}`);
+  ])(
+    'when %s signs in, then they land on their start screen and can sign out',
+    async (login, password, name, start, heading) => {
+      const { page } = await browser();
+      const console = watchConsole(page);
+      await signIn(page, login, password);
+      expect(new URL(page.url()).pathname).toBe(start);
+      await page.getByRole('heading', { name: heading, exact: true }).waitFor();
+      expect(await page.getByTestId('account-name').first().textContent()).toBe(name);
+      await screenshot(page, `start-${login}`);
 
-    await signOut(page);
-    expect(new URL(page.url()).origin).toBe(new URL(baseUrl).origin);
-    // the session is gone: Ebbline sends the browser to sign in, and the provider asks again
-    await page.goto(`${baseUrl}${start}`);
-    await page.getByLabel('Password').waitFor();
-    expect(console.problems).toEqual([]);
-  });
+      await signOut(page);
+      expect(new URL(page.url()).origin).toBe(new URL(baseUrl).origin);
+      // the session is gone: Ebbline sends the browser to sign in, and the provider asks again
+      await page.goto(`${baseUrl}${start}`);
+      await page.getByLabel('Password').waitFor();
+      expect(console.problems).toEqual([]);
+    },
+  );
 
   it('when people with different roles sign in, then each sees only the screens of their roles', async () => {
     const tech = await browser();
     await signIn(tech.page, 'dario', 'tidewater-tech');
-    const techNav = await tech.page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents();
+    const techNav = await tech.page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link')
+      .allTextContents();
     expect(techNav.join('|')).toContain('My visits');
     expect(techNav.join('|')).not.toContain('People');
     expect(techNav.join('|')).not.toContain('Planner');
 
     const admin = await browser();
     await signIn(admin.page, 'maren', 'tidewater-admin');
-    const adminNav = await admin.page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents();
+    const adminNav = await admin.page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link')
+      .allTextContents();
     expect(adminNav.join('|')).toContain('People');
     expect(adminNav.join('|')).not.toContain('My visits');
   });
@@ -99,7 +110,11 @@ describe('signing in through the local provider', () => {
     await page.route(`${issuer}/interaction/*/login`, async (route) => {
       let response = await route.fetch({ maxRedirects: 0 });
       let location = response.headers().location ?? '';
-      for (let hop = 0; hop < 10 && location && !location.startsWith(`${baseUrl}/auth/callback`); hop++) {
+      for (
+        let hop = 0;
+        hop < 10 && location && !location.startsWith(`${baseUrl}/auth/callback`);
+        hop++
+      ) {
         response = await context.request.get(new URL(location, issuer).href, { maxRedirects: 0 });
         location = response.headers().location ?? '';
       }
@@ -114,7 +129,9 @@ describe('signing in through the local provider', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByTestId('sign-in-problem').waitFor();
     expect(new URL(page.url()).pathname).toBe('/sign-in-problem');
-    expect(await page.getByRole('heading').first().textContent()).toBe('This sign-in could not be matched');
+    expect(await page.getByRole('heading').first().textContent()).toBe(
+      'This sign-in could not be matched',
+    );
     const me = await page.evaluate(async () => (await fetch('/api/me')).status);
     expect(me).toBe(401);
     await screenshot(page, 'sign-in-problem');
@@ -173,7 +190,9 @@ describe('on a phone', () => {
     await page.goto(`${baseUrl}/auth/login`);
     await page.getByLabel('Login').waitFor();
     await screenshot(page, 'sign-in-phone');
-    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
 
     await page.getByLabel('Login').fill('tomas');
     await page.getByLabel('Password').fill('tidewater-plan');

@@ -6,14 +6,18 @@ import type { Page } from 'playwright-core';
  * after the steps. `expected` names answers that are part of the story, e.g. the 401 of
  * GET /api/me before signing in.
  */
-export function watchConsole(page: Page, expected: RegExp[] = [/ 401 .*\/api\/me$/]): { problems: string[] } {
+export function watchConsole(
+  page: Page,
+  expected: RegExp[] = [/ 401 .*\/api\/me$/],
+): { problems: string[] } {
   const problems: string[] = [];
   const note = (line: string) => {
     if (!expected.some((re) => re.test(line))) problems.push(line);
   };
   page.on('console', (msg) => {
     // a failed load is reported with its address by the response listener below
-    if (msg.type() === 'error' && !msg.text().startsWith('Failed to load resource')) note(`console: ${msg.text()}`);
+    if (msg.type() === 'error' && !msg.text().startsWith('Failed to load resource'))
+      note(`console: ${msg.text()}`);
   });
   page.on('pageerror', (err) => note(`page error: ${err.message}`));
   page.on('response', (res) => {
@@ -21,7 +25,8 @@ export function watchConsole(page: Page, expected: RegExp[] = [/ 401 .*\/api\/me
   });
   page.on('requestfailed', (req) => {
     // a navigation superseded by a redirect is not a failure
-    if (req.failure()?.errorText !== 'net::ERR_ABORTED') note(`request failed: ${req.url()} ${req.failure()?.errorText}`);
+    if (req.failure()?.errorText !== 'net::ERR_ABORTED')
+      note(`request failed: ${req.url()} ${req.failure()?.errorText}`);
   });
   return { problems };
 }

@@ -29,7 +29,9 @@ export interface TestProviderOptions {
 }
 
 /** Starts the provider on the reserved port; the issuer is process.env.OIDC_ISSUER. */
-export async function startTestIdentityProvider(options: TestProviderOptions = {}): Promise<{ issuer: string }> {
+export async function startTestIdentityProvider(
+  options: TestProviderOptions = {},
+): Promise<{ issuer: string }> {
   if (!server) throw new Error('no port reserved: tests/support/api-setup.ts reserves one');
   const { getConfig } = await import('../../api/src/config/env');
   const { DEMO_PEOPLE } = await import('../../infra/seed/people');

@@ -22,7 +22,10 @@ export class CookieJar {
       const value = pair.slice(at + 1).trim();
       const expired = attributes.some((a) => {
         const [key = '', v = ''] = a.trim().split('=');
-        return (key.toLowerCase() === 'expires' && new Date(v).getTime() <= Date.now()) || (key.toLowerCase() === 'max-age' && Number(v) <= 0);
+        return (
+          (key.toLowerCase() === 'expires' && new Date(v).getTime() <= Date.now()) ||
+          (key.toLowerCase() === 'max-age' && Number(v) <= 0)
+        );
       });
       if (expired || value === '') this.cookies.delete(name);
       else this.cookies.set(name, value);
@@ -47,16 +50,29 @@ export function sessionCookieFrom(setCookie: string[] | string | undefined): str
 }
 
 /** GET /auth/login: the provider's authorization URL and the pre-sign-in session cookie. */
-export async function startSignIn(app: Express, returnTo?: string): Promise<{ authorizeUrl: URL; cookie: string }> {
-  const res = await request(app).get('/auth/login').query(returnTo === undefined ? {} : { returnTo });
+export async function startSignIn(
+  app: Express,
+  returnTo?: string,
+): Promise<{ authorizeUrl: URL; cookie: string }> {
+  const res = await request(app)
+    .get('/auth/login')
+    .query(returnTo === undefined ? {} : { returnTo });
   if (res.status !== 303) throw new Error(`GET /auth/login answered ${res.status}: ${res.text}`);
   const cookie = sessionCookieFrom(res.headers['set-cookie']);
   if (!cookie) throw new Error('GET /auth/login set no session cookie');
   return { authorizeUrl: new URL(res.headers.location as string), cookie };
 }
 
-async function providerRequest(jar: CookieJar, url: URL, init: RequestInit = {}): Promise<Response> {
-  const res = await fetch(url, { ...init, redirect: 'manual', headers: { ...(init.headers ?? {}), cookie: jar.header() } });
+async function providerRequest(
+  jar: CookieJar,
+  url: URL,
+  init: RequestInit = {},
+): Promise<Response> {
+  const res = await fetch(url, {
+    ...init,
+    redirect: 'manual',
+    headers: { ...(init.headers ?? {}), cookie: jar.header() },
+  });
   jar.take(res.headers.getSetCookie());
   return res;
 }
@@ -96,7 +112,10 @@ export async function visitProvider(
     lastPage = await res.text();
     const action = /<form method="post" action="([^"]+\/login)"/.exec(lastPage)?.[1];
     if (res.status !== 200 || !action || submitted) {
-      throw Object.assign(new Error(`the provider stopped at ${url.pathname} (${res.status})`), { page: lastPage, status: res.status });
+      throw Object.assign(new Error(`the provider stopped at ${url.pathname} (${res.status})`), {
+        page: lastPage,
+        status: res.status,
+      });
     }
     submitted = true;
     const posted = await providerRequest(jar, new URL(action, url), {
@@ -106,7 +125,10 @@ export async function visitProvider(
     });
     if (posted.status !== 303) {
       lastPage = await posted.text();
-      throw Object.assign(new Error(`sign-in form answered ${posted.status}`), { page: lastPage, status: posted.status });
+      throw Object.assign(new Error(`sign-in form answered ${posted.status}`), {
+        page: lastPage,
+        status: posted.status,
+      });
     }
     url = new URL(posted.headers.get('location') as string, url);
   }
@@ -170,8 +192,15 @@ export async function signInOverHttp(
   const { callbackUrl, jar } = await visitProvider(authorizeUrl, login, password);
   const done = await finishSignIn(app, callbackUrl, preSignInCookie);
   const cookie = sessionCookieFrom(done.headers['set-cookie']);
-  if (done.status !== 303 || !cookie) throw new Error(`callback answered ${done.status} ${done.headers.location ?? ''}`);
+  if (done.status !== 303 || !cookie)
+    throw new Error(`callback answered ${done.status} ${done.headers.location ?? ''}`);
   const me = await request(app).get('/api/me').set('Cookie', cookie);
   if (me.status !== 200) throw new Error(`GET /api/me after sign-in answered ${me.status}`);
-  return { cookie, preSignInCookie, csrfToken: me.body.csrfToken, location: done.headers.location as string, providerJar: jar };
+  return {
+    cookie,
+    preSignInCookie,
+    csrfToken: me.body.csrfToken,
+    location: done.headers.location as string,
+    providerJar: jar,
+  };
 }

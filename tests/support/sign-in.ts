@@ -19,7 +19,12 @@ export interface SignInOptions {
  * "waiting for access" page for a person without a role.
  * @throws when the provider keeps showing its form (e.g. a wrong password)
  */
-export async function signIn(page: Page, login: string, password: string, options: SignInOptions = {}): Promise<void> {
+export async function signIn(
+  page: Page,
+  login: string,
+  password: string,
+  options: SignInOptions = {},
+): Promise<void> {
   const baseUrl = options.baseUrl ?? inject('baseUrl');
   const appOrigin = new URL(baseUrl).origin;
   await page.goto(`${baseUrl}/auth/login?returnTo=${encodeURIComponent(options.returnTo ?? '/')}`);
@@ -31,7 +36,10 @@ export async function signIn(page: Page, login: string, password: string, option
       page.getByRole('button', { name: 'Sign in' }).click(),
     ]);
   }
-  await page.locator('[data-testid="app-shell"], [data-testid="waiting-for-access"]').first().waitFor();
+  await page
+    .locator('[data-testid="app-shell"], [data-testid="waiting-for-access"]')
+    .first()
+    .waitFor();
   // `/` leads on to the role's start screen
   if ((options.returnTo ?? '/') === '/' && (await page.getByTestId('app-shell').count())) {
     await page.waitForURL((url) => url.pathname !== '/');

@@ -24,7 +24,8 @@ export const requireCsrfToken: RequestHandler = (req, _res, next) => {
     return;
   }
   const body = req.body as { _csrf?: unknown } | undefined;
-  const sent = req.get('x-csrf-token') ?? (typeof body?._csrf === 'string' ? body._csrf : undefined);
+  const sent =
+    req.get('x-csrf-token') ?? (typeof body?._csrf === 'string' ? body._csrf : undefined);
   if (!csrfTokenMatches(sent, req.session.csrfToken)) {
     throw new AppError(
       'csrf-failed',

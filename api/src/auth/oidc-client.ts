@@ -80,7 +80,8 @@ export async function beginSignIn(
   return { url, pending };
 }
 
-export type SignInCompletion = { ok: true; identity: SignedInIdentity } | { ok: false; detail: string };
+export type SignInCompletion =
+  { ok: true; identity: SignedInIdentity } | { ok: false; detail: string };
 
 /**
  * Completes a sign-in at the callback: checks the state, trades the code (with the PKCE
@@ -114,9 +115,15 @@ export async function completeSignIn(
   const claims = tokens.claims();
   if (!claims || !tokens.id_token) return { ok: false, detail: 'the provider sent no ID token' };
   const email = typeof claims.email === 'string' ? claims.email.trim().toLowerCase() : '';
-  if (!email) return { ok: false, detail: 'the provider shared no e-mail address (Ebbline asks for the email scope)' };
+  if (!email)
+    return {
+      ok: false,
+      detail: 'the provider shared no e-mail address (Ebbline asks for the email scope)',
+    };
   const name = typeof claims.name === 'string' && claims.name.trim() ? claims.name.trim() : email;
-  const roles = Array.isArray(claims.roles) ? claims.roles.filter((r): r is string => typeof r === 'string') : [];
+  const roles = Array.isArray(claims.roles)
+    ? claims.roles.filter((r): r is string => typeof r === 'string')
+    : [];
   return {
     ok: true,
     identity: {
@@ -134,7 +141,10 @@ export async function completeSignIn(
  * Where to send the browser to end the provider's session too (RP-initiated logout), or
  * null when the provider offers no end-session endpoint or cannot be reached.
  */
-export async function endSessionUrl(idToken: string | undefined, config: Config = getConfig()): Promise<URL | null> {
+export async function endSessionUrl(
+  idToken: string | undefined,
+  config: Config = getConfig(),
+): Promise<URL | null> {
   let provider: oidc.Configuration;
   try {
     provider = await providerConfiguration(config);

@@ -7,7 +7,13 @@ import { signInPerson } from '../services/people';
 import { csrfTokenMatches } from './csrf';
 import { beginSignIn, completeSignIn, endSessionUrl, providerConfiguration } from './oidc-client';
 import { safeReturnTo } from './return-to';
-import { endSession, newCsrfToken, regenerateSession, saveSession, type PendingSignIn } from './session';
+import {
+  endSession,
+  newCsrfToken,
+  regenerateSession,
+  saveSession,
+  type PendingSignIn,
+} from './session';
 
 /** Why a sign-in did not complete; the web app's /sign-in-problem page explains each. */
 export type SignInProblem =
@@ -53,7 +59,12 @@ authRouter.get('/login', async (req, res) => {
     res.redirect(303, returnTo);
     return;
   }
-  if (!(await providerConfiguration(config).then(() => true, () => false))) {
+  if (
+    !(await providerConfiguration(config).then(
+      () => true,
+      () => false,
+    ))
+  ) {
     problem(res, 'unreachable');
     return;
   }
@@ -74,7 +85,9 @@ authRouter.get('/callback', async (req, res) => {
   const origin = requestOrigin(req);
   const state = typeof req.query.state === 'string' ? req.query.state : '';
   const pendings = req.session.pendingSignIns ?? {};
-  const pending: PendingSignIn | undefined = Object.hasOwn(pendings, state) ? pendings[state] : undefined;
+  const pending: PendingSignIn | undefined = Object.hasOwn(pendings, state)
+    ? pendings[state]
+    : undefined;
   const fail = async (reason: SignInProblem, detail: Record<string, unknown> = {}) => {
     await recordAccessEvent({ kind: 'sign-in-failed', origin, detail: { reason, ...detail } });
     problem(res, reason);
@@ -118,21 +131,30 @@ authRouter.get('/callback', async (req, res) => {
   res.redirect(303, pending.returnTo);
 });
 
-authRouter.post('/logout', express.urlencoded({ extended: false, limit: '4kb' }), async (req, res) => {
-  const config = getConfig();
-  const { userId, idToken, csrfToken } = req.session;
-  if (userId) {
-    const body = req.body as { _csrf?: unknown } | undefined;
-    if (!csrfTokenMatches(req.get('x-csrf-token') ?? body?._csrf, csrfToken)) {
-      throw new AppError('csrf-failed', 403, 'The sign-out did not carry this session’s security token. Reload the page and try again.');
+authRouter.post(
+  '/logout',
+  express.urlencoded({ extended: false, limit: '4kb' }),
+  async (req, res) => {
+    const config = getConfig();
+    const { userId, idToken, csrfToken } = req.session;
+    if (userId) {
+      const body = req.body as { _csrf?: unknown } | undefined;
+      if (!csrfTokenMatches(req.get('x-csrf-token') ?? body?._csrf, csrfToken)) {
+        throw new AppError(
+          'csrf-failed',
+          403,
+          'The sign-out did not carry this session’s security token. Reload the page and try again.',
+        );
+      }
+      await recordAccessEvent({ kind: 'sign-out', userId, origin: requestOrigin(req) });
     }
-    await recordAccessEvent({ kind: 'sign-out', userId, origin: requestOrigin(req) });
-  }
-  await endSession(req, res, config);
-  const target = (await endSessionUrl(idToken, config))?.href ?? config.OIDC_POST_LOGOUT_REDIRECT_URL;
-  if (req.accepts(['html', 'json']) === 'json') {
-    res.json({ redirectTo: target });
-    return;
-  }
-  res.redirect(303, target);
-});
+    await endSession(req, res, config);
+    const target =
+      (await endSessionUrl(idToken, config))?.href ?? config.OIDC_POST_LOGOUT_REDIRECT_URL;
+    if (req.accepts(['html', 'json']) === 'json') {
+      res.json({ redirectTo: target });
+      return;
+    }
+    res.redirect(303, target);
+  },
+);

@@ -36,7 +36,11 @@ let store: session.Store | undefined;
 
 /** The sessions table's own small pool (connect-pg-simple speaks pg, not Sequelize). */
 function sessionPool(config: Config): pg.Pool {
-  pool ??= new pg.Pool({ connectionString: config.DATABASE_URL, max: 4, idleTimeoutMillis: 10_000 });
+  pool ??= new pg.Pool({
+    connectionString: config.DATABASE_URL,
+    max: 4,
+    idleTimeoutMillis: 10_000,
+  });
   return pool;
 }
 
@@ -85,17 +89,23 @@ export function sessionMiddleware(config = getConfig()): RequestHandler {
 
 /** Replaces the session (and its id) with a fresh one: done at sign-in against fixation. */
 export function regenerateSession(req: Request): Promise<void> {
-  return new Promise((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
+  return new Promise((resolve, reject) =>
+    req.session.regenerate((err) => (err ? reject(err) : resolve())),
+  );
 }
 
 export function saveSession(req: Request): Promise<void> {
-  return new Promise((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+  return new Promise((resolve, reject) =>
+    req.session.save((err) => (err ? reject(err) : resolve())),
+  );
 }
 
 /** Deletes the session from the store and tells the browser to drop the cookie. */
 export async function endSession(req: Request, res: Response, config = getConfig()): Promise<void> {
   if (req.session) {
-    await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      req.session.destroy((err) => (err ? reject(err) : resolve())),
+    );
   }
   const { maxAge: _maxAge, ...cookie } = sessionCookieOptions(config);
   res.clearCookie(config.SESSION_COOKIE_NAME, cookie);
@@ -108,7 +118,10 @@ export function newCsrfToken(): string {
 
 /** Ends every session of a user (deactivation): they must sign in again, and cannot. */
 export async function endSessionsOfUser(userId: string, config = getConfig()): Promise<number> {
-  const result = await sessionPool(config).query("DELETE FROM sessions WHERE sess->>'userId' = $1", [userId]);
+  const result = await sessionPool(config).query(
+    "DELETE FROM sessions WHERE sess->>'userId' = $1",
+    [userId],
+  );
   return result.rowCount ?? 0;
 }
 

@@ -60,7 +60,11 @@ export const allowPublic: AccessGuard = guard({ kind: 'public' }, (_req, _res, n
  */
 export const requireSessionCaller: RequestHandler = (req, _res, next) => {
   if (req.authMethod !== 'session') {
-    throw new AppError('session-required', 403, 'This needs a signed-in browser session; an API token cannot do it.');
+    throw new AppError(
+      'session-required',
+      403,
+      'This needs a signed-in browser session; an API token cannot do it.',
+    );
   }
   next();
 };

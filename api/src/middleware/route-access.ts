@@ -33,18 +33,30 @@ export function listRoutes(router: Router, prefix = ''): DeclaredRoute[] {
   return found;
 }
 
-function walk(stack: WalkLayer[], prefix: string, inherited: AccessRule | null, found: DeclaredRoute[]): void {
+function walk(
+  stack: WalkLayer[],
+  prefix: string,
+  inherited: AccessRule | null,
+  found: DeclaredRoute[],
+): void {
   let routerRule = inherited;
   for (const layer of stack) {
     if (layer.route) {
       const handlers = layer.route.stack;
       // a guard counts only before the last handler: the last one does the work
       const guardIndex = handlers.findIndex((h) => accessRuleOf(h.handle));
-      const own = guardIndex >= 0 && guardIndex < handlers.length - 1 ? accessRuleOf(handlers[guardIndex]?.handle) : undefined;
+      const own =
+        guardIndex >= 0 && guardIndex < handlers.length - 1
+          ? accessRuleOf(handlers[guardIndex]?.handle)
+          : undefined;
       const access = own ?? routerRule;
       const methods = Object.keys(layer.route.methods).filter((m) => m !== '_all');
       for (const method of methods.length ? methods : ['all']) {
-        found.push({ method: method.toUpperCase(), path: prefix + pathText(layer.route.path) || '/', access });
+        found.push({
+          method: method.toUpperCase(),
+          path: prefix + pathText(layer.route.path) || '/',
+          access,
+        });
       }
       continue;
     }

@@ -10,7 +10,10 @@ import { sequelize } from '../db/sequelize';
 import { User } from './user';
 
 /** One entry of the sign-in log: a sign-in, a sign-out, a failed attempt or an access change. */
-export class AccessEvent extends Model<InferAttributes<AccessEvent>, InferCreationAttributes<AccessEvent>> {
+export class AccessEvent extends Model<
+  InferAttributes<AccessEvent>,
+  InferCreationAttributes<AccessEvent>
+> {
   declare id: CreationOptional<string>;
   declare kind: string;
   declare userId: ForeignKey<User['id']> | null;

@@ -22,7 +22,10 @@ export interface AccessEventInput {
 }
 
 /** Writes one entry of the sign-in log. */
-export async function recordAccessEvent(input: AccessEventInput, transaction?: Transaction): Promise<AccessEvent> {
+export async function recordAccessEvent(
+  input: AccessEventInput,
+  transaction?: Transaction,
+): Promise<AccessEvent> {
   return AccessEvent.create(
     {
       kind: input.kind,
@@ -53,7 +56,10 @@ export async function listAccessEvents(query: AccessEventsQuery): Promise<Access
       { model: User, as: 'user', attributes: ['id', 'name'] },
       { model: User, as: 'actor', attributes: ['id', 'name'] },
     ],
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
     limit: query.limit,
   })) as AccessEventWithPeople[];
 }

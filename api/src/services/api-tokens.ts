@@ -67,17 +67,28 @@ export async function createApiToken(
 ): Promise<{ token: ApiToken; secret: string }> {
   const notHeld = (input.roles ?? []).filter((r) => !owner.roles.includes(r));
   if (notHeld.length > 0) {
-    throw AppError.badRequest(`roles: you do not hold ${notHeld.join(', ')}; a token never has more rights than you.`, [
-      { path: 'roles', message: `You do not hold: ${notHeld.join(', ')}.` },
-    ]);
+    throw AppError.badRequest(
+      `roles: you do not hold ${notHeld.join(', ')}; a token never has more rights than you.`,
+      [{ path: 'roles', message: `You do not hold: ${notHeld.join(', ')}.` }],
+    );
   }
   const roles = input.roles;
-  const issued = await issueApiToken(owner.id, input.name, new Date(now.getTime() + input.expiresInDays * DAY_MS), roles);
+  const issued = await issueApiToken(
+    owner.id,
+    input.name,
+    new Date(now.getTime() + input.expiresInDays * DAY_MS),
+    roles,
+  );
   await recordAccessEvent({
     kind: 'token-created',
     userId: owner.id,
     origin,
-    detail: { tokenId: issued.token.id, name: input.name, roles, expiresAt: issued.token.expiresAt.toISOString() },
+    detail: {
+      tokenId: issued.token.id,
+      name: input.name,
+      roles,
+      expiresAt: issued.token.expiresAt.toISOString(),
+    },
   });
   return issued;
 }
@@ -91,12 +102,22 @@ export async function listApiTokens(ownerId: string): Promise<ApiToken[]> {
  * Revokes one of the owner's tokens; it stops working at once. Revoking twice is harmless.
  * @throws AppError not-found when the token is not the owner's
  */
-export async function revokeApiToken(owner: AuthUser, tokenId: string, origin: RequestOrigin, now = new Date()): Promise<ApiToken> {
+export async function revokeApiToken(
+  owner: AuthUser,
+  tokenId: string,
+  origin: RequestOrigin,
+  now = new Date(),
+): Promise<ApiToken> {
   const token = await ApiToken.findOne({ where: { id: tokenId, userId: owner.id } });
   if (!token) throw AppError.notFound('The API token');
   if (token.revokedAt) return token;
   await token.update({ revokedAt: now });
-  await recordAccessEvent({ kind: 'token-revoked', userId: owner.id, origin, detail: { tokenId: token.id, name: token.name } });
+  await recordAccessEvent({
+    kind: 'token-revoked',
+    userId: owner.id,
+    origin,
+    detail: { tokenId: token.id, name: token.name },
+  });
   return token;
 }
 
@@ -104,7 +125,10 @@ export async function revokeApiToken(owner: AuthUser, tokenId: string, origin: R
  * The active user behind a bearer secret, or null when the token is unknown, expired,
  * revoked or its owner is deactivated. Records the use.
  */
-export async function authenticateApiToken(secret: string, now = new Date()): Promise<AuthUser | null> {
+export async function authenticateApiToken(
+  secret: string,
+  now = new Date(),
+): Promise<AuthUser | null> {
   if (!secret.startsWith(PREFIX)) return null;
   const token = await ApiToken.findOne({
     where: { tokenHash: hashToken(secret) },

@@ -37,9 +37,17 @@ export async function signInPerson(
 ): Promise<SignInOutcome> {
   const outcome = await sequelize.transaction(async (transaction): Promise<SignInOutcome> => {
     let firstSignIn = false;
-    let user = await User.findOne({ where: { subject: identity.subject }, transaction, lock: transaction.LOCK.UPDATE });
+    let user = await User.findOne({
+      where: { subject: identity.subject },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!user) {
-      const byEmail = await User.findOne({ where: { email: identity.email }, transaction, lock: transaction.LOCK.UPDATE });
+      const byEmail = await User.findOne({
+        where: { email: identity.email },
+        transaction,
+        lock: transaction.LOCK.UPDATE,
+      });
       if (byEmail && (byEmail.subject !== null || !identity.emailVerified)) {
         return {
           ok: false,
@@ -74,7 +82,10 @@ export async function signInPerson(
     }
     const emailFree =
       identity.email === user.email ||
-      !(await User.count({ where: { email: identity.email, id: { [Op.ne]: user.id } }, transaction }));
+      !(await User.count({
+        where: { email: identity.email, id: { [Op.ne]: user.id } },
+        transaction,
+      }));
     await user.update(
       { name: identity.name, ...(emailFree ? { email: identity.email } : {}), lastSignInAt: now },
       { transaction },
@@ -112,15 +123,30 @@ export async function listPeople(query: PeopleQuery): Promise<User[]> {
   const where: WhereOptions<User> = {
     ...(query.includeDeactivated ? {} : { active: true }),
     ...(query.q
-      ? { [Op.or]: [{ name: { [Op.iLike]: likePattern(query.q) } }, { email: { [Op.iLike]: likePattern(query.q) } }] }
+      ? {
+          [Op.or]: [
+            { name: { [Op.iLike]: likePattern(query.q) } },
+            { email: { [Op.iLike]: likePattern(query.q) } },
+          ],
+        }
       : {}),
   };
-  return User.findAll({ where, order: [['name', 'ASC'], ['email', 'ASC']], limit: 1000 });
+  return User.findAll({
+    where,
+    order: [
+      ['name', 'ASC'],
+      ['email', 'ASC'],
+    ],
+    limit: 1000,
+  });
 }
 
 /** The active admins, for a person waiting for access to ask. */
 export async function listAdmins(): Promise<User[]> {
-  return User.findAll({ where: { active: true, roles: { [Op.contains]: ['admin'] } }, order: [['name', 'ASC']] });
+  return User.findAll({
+    where: { active: true, roles: { [Op.contains]: ['admin'] } },
+    order: [['name', 'ASC']],
+  });
 }
 
 /**
@@ -156,19 +182,32 @@ export async function updatePerson(
         lock: transaction.LOCK.UPDATE,
       });
       if (!admins.some((a) => a.id !== user.id)) {
-        throw AppError.conflict('Ebbline needs at least one active admin: make someone else admin first.');
+        throw AppError.conflict(
+          'Ebbline needs at least one active admin: make someone else admin first.',
+        );
       }
     }
     const rolesChanged = afterRoles.join(',') !== beforeRoles.join(',');
     if (rolesChanged) {
       await recordAccessEvent(
-        { kind: 'roles-changed', userId: user.id, actorId: actor.id, origin, detail: { from: beforeRoles, to: afterRoles } },
+        {
+          kind: 'roles-changed',
+          userId: user.id,
+          actorId: actor.id,
+          origin,
+          detail: { from: beforeRoles, to: afterRoles },
+        },
         transaction,
       );
     }
     if (afterActive !== user.active) {
       await recordAccessEvent(
-        { kind: afterActive ? 'reactivated' : 'deactivated', userId: user.id, actorId: actor.id, origin },
+        {
+          kind: afterActive ? 'reactivated' : 'deactivated',
+          userId: user.id,
+          actorId: actor.id,
+          origin,
+        },
         transaction,
       );
     }

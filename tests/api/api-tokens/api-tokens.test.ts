@@ -19,14 +19,23 @@ beforeAll(async () => {
 });
 
 function create(body: object, session = tomas) {
-  return request(app).post('/api/me/tokens').set('Cookie', session.cookie).set('X-CSRF-Token', session.csrfToken).send(body);
+  return request(app)
+    .post('/api/me/tokens')
+    .set('Cookie', session.cookie)
+    .set('X-CSRF-Token', session.csrfToken)
+    .send(body);
 }
 
 describe('POST /api/me/tokens', () => {
   it('when a person makes a token, then its secret is shown once, only its hash is stored, and it works as a bearer', async () => {
     const res = await create({ name: 'Logger gateway M2', expiresInDays: 30 });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ name: 'Logger gateway M2', status: 'active', roles: null, lastUsedAt: null });
+    expect(res.body).toMatchObject({
+      name: 'Logger gateway M2',
+      status: 'active',
+      roles: null,
+      lastUsedAt: null,
+    });
     expect(res.body.secret).toMatch(/^ebl_[\w-]{40,}$/);
     const days = (new Date(res.body.expiresAt).getTime() - Date.now()) / 86_400_000;
     expect(days).toBeGreaterThan(29.9);
@@ -41,12 +50,20 @@ describe('POST /api/me/tokens', () => {
 
     const me = await request(app).get('/api/me').set('Authorization', `Bearer ${res.body.secret}`);
     expect(me.status).toBe(200);
-    expect(me.body).toMatchObject({ id: tomasId, roles: ['planner', 'reliability'], csrfToken: null });
+    expect(me.body).toMatchObject({
+      id: tomasId,
+      roles: ['planner', 'reliability'],
+      csrfToken: null,
+    });
     expect((await ApiToken.findByPk(res.body.id))?.lastUsedAt).toBeInstanceOf(Date);
   });
 
   it('when narrowed to some of the owner’s roles, then the token acts with only those', async () => {
-    const res = await create({ name: 'Reliability export', expiresInDays: 7, roles: ['reliability'] });
+    const res = await create({
+      name: 'Reliability export',
+      expiresInDays: 7,
+      roles: ['reliability'],
+    });
     expect(res.status).toBe(201);
     expect(res.body.roles).toEqual(['reliability']);
     const me = await request(app).get('/api/me').set('Authorization', `Bearer ${res.body.secret}`);
@@ -65,7 +82,11 @@ describe('POST /api/me/tokens', () => {
     await User.update({ roles: ['planner'] }, { where: { id: tomasId } });
     const me = await request(app).get('/api/me').set('Authorization', `Bearer ${res.body.secret}`);
     expect(me.body.roles).toEqual(['planner']);
-    const narrowed = await create({ name: 'Was reliability', expiresInDays: 7, roles: ['planner'] });
+    const narrowed = await create({
+      name: 'Was reliability',
+      expiresInDays: 7,
+      roles: ['planner'],
+    });
     expect(narrowed.status).toBe(201);
     await User.update({ roles: ['planner', 'reliability'] }, { where: { id: tomasId } });
   });
@@ -97,24 +118,35 @@ describe('POST /api/me/tokens', () => {
 describe('expired and revoked tokens', () => {
   it('when a token has expired, then it is refused with 401 and listed as expired', async () => {
     const made = await create({ name: 'Short-lived', expiresInDays: 1 });
-    await ApiToken.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { id: made.body.id } });
-    const res = await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`);
+    await ApiToken.update(
+      { expiresAt: new Date(Date.now() - 1000) },
+      { where: { id: made.body.id } },
+    );
+    const res = await request(app)
+      .get('/api/me')
+      .set('Authorization', `Bearer ${made.body.secret}`);
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('invalid-token');
     const list = await request(app).get('/api/me/tokens').set('Cookie', tomas.cookie);
-    expect(list.body.items.find((t: { id: string }) => t.id === made.body.id).status).toBe('expired');
+    expect(list.body.items.find((t: { id: string }) => t.id === made.body.id).status).toBe(
+      'expired',
+    );
   });
 
   it('when the owner revokes a token, then it stops working at once', async () => {
     const made = await create({ name: 'To revoke', expiresInDays: 30 });
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status).toBe(200);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status,
+    ).toBe(200);
     const res = await request(app)
       .delete(`/api/me/tokens/${made.body.id}`)
       .set('Cookie', tomas.cookie)
       .set('X-CSRF-Token', tomas.csrfToken);
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ status: 'revoked', revokedAt: expect.any(String) });
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status).toBe(401);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status,
+    ).toBe(401);
   });
 
   it('when someone tries to revoke another person’s token, then 404 and it keeps working', async () => {
@@ -125,7 +157,9 @@ describe('expired and revoked tokens', () => {
       .set('Cookie', priya.cookie)
       .set('X-CSRF-Token', priya.csrfToken);
     expect(res.status).toBe(404);
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status).toBe(200);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${made.body.secret}`)).status,
+    ).toBe(200);
     const theirs = await request(app).get('/api/me/tokens').set('Cookie', priya.cookie);
     expect(theirs.body.items).toEqual([]);
   });

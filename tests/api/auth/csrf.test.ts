@@ -13,14 +13,24 @@ let target: User;
 beforeAll(async () => {
   await startTestIdentityProvider();
   maren = await signInOverHttp(app, 'maren', 'tidewater-admin');
-  target = await User.create({ email: 'new@brackenmoor.example', name: 'New Starter', subject: 'new', lastSignInAt: null });
+  target = await User.create({
+    email: 'new@brackenmoor.example',
+    name: 'New Starter',
+    subject: 'new',
+    lastSignInAt: null,
+  });
 });
 
 describe('CSRF protection of session requests', () => {
   it('when a session PATCH has no X-CSRF-Token, then 403 csrf-failed and nothing changes', async () => {
-    const res = await request(app).patch(`/api/people/${target.id}`).set('Cookie', maren.cookie).send({ roles: ['planner'] });
+    const res = await request(app)
+      .patch(`/api/people/${target.id}`)
+      .set('Cookie', maren.cookie)
+      .send({ roles: ['planner'] });
     expect(res.status).toBe(403);
-    expect(res.body).toEqual({ error: { code: 'csrf-failed', message: expect.stringContaining('X-CSRF-Token') } });
+    expect(res.body).toEqual({
+      error: { code: 'csrf-failed', message: expect.stringContaining('X-CSRF-Token') },
+    });
     await target.reload();
     expect(target.roles).toEqual([]);
   });
@@ -61,7 +71,10 @@ describe('CSRF protection of session requests', () => {
 
   it('when the caller uses an API token, then no CSRF token is needed', async () => {
     const admin = await createCaller(['admin']);
-    const res = await request(app).patch(`/api/people/${target.id}`).set('Authorization', admin.auth).send({ roles: ['technician'] });
+    const res = await request(app)
+      .patch(`/api/people/${target.id}`)
+      .set('Authorization', admin.auth)
+      .send({ roles: ['technician'] });
     expect(res.status).toBe(200);
   });
 

@@ -32,17 +32,22 @@ describe('GET /auth/login', () => {
     expect(p.get('state')).toMatch(/^[\w-]{20,}$/);
     expect(p.get('nonce')).toMatch(/^[\w-]{20,}$/);
     expect(p.get('redirect_uri')).toBe('http://localhost:3000/auth/callback');
-    expect(p.get('scope')?.split(' ')).toEqual(expect.arrayContaining(['openid', 'email', 'profile', 'roles']));
+    expect(p.get('scope')?.split(' ')).toEqual(
+      expect.arrayContaining(['openid', 'email', 'profile', 'roles']),
+    );
   });
 
-  it.each(['https://evil.example/', '//evil.example/x', '/\\evil.example', 'planner', 'javascript:alert(1)'])(
-    'when returnTo is %s, then 400 naming returnTo',
-    async (returnTo) => {
-      const res = await request(app).get('/auth/login').query({ returnTo });
-      expect(res.status).toBe(400);
-      expect(res.body.error.issues[0].path).toBe('returnTo');
-    },
-  );
+  it.each([
+    'https://evil.example/',
+    '//evil.example/x',
+    '/\\evil.example',
+    'planner',
+    'javascript:alert(1)',
+  ])('when returnTo is %s, then 400 naming returnTo', async (returnTo) => {
+    const res = await request(app).get('/auth/login').query({ returnTo });
+    expect(res.status).toBe(400);
+    expect(res.body.error.issues[0].path).toBe('returnTo');
+  });
 });
 
 describe('a sign-in through the provider', () => {
@@ -70,7 +75,9 @@ describe('a sign-in through the provider', () => {
     const { authorizeUrl, cookie } = await startSignIn(app);
     const { callbackUrl } = await visitProvider(authorizeUrl, 'ines', 'tidewater-rel');
     const done = await finishSignIn(app, callbackUrl, cookie);
-    const line = (done.headers['set-cookie'] as unknown as string[]).find((l) => l.startsWith('ebbline.sid='));
+    const line = (done.headers['set-cookie'] as unknown as string[]).find((l) =>
+      l.startsWith('ebbline.sid='),
+    );
     expect(line).toMatch(/HttpOnly/);
     expect(line).toMatch(/SameSite=Lax/);
     expect(line).toMatch(/Path=\//);
@@ -81,7 +88,12 @@ describe('a sign-in through the provider', () => {
     expect(await User.findOne({ where: { subject: 'dario' } })).toBeNull();
     await signInOverHttp(app, 'dario', 'tidewater-tech');
     const dario = await User.findOne({ where: { subject: 'dario' } });
-    expect(dario).toMatchObject({ email: 'dario@brackenmoor.example', name: 'Dario Venn', roles: ['technician'], active: true });
+    expect(dario).toMatchObject({
+      email: 'dario@brackenmoor.example',
+      name: 'Dario Venn',
+      roles: ['technician'],
+      active: true,
+    });
     expect(dario?.lastSignInAt).toBeInstanceOf(Date);
     const event = await AccessEvent.findOne({ where: { kind: 'sign-in', userId: dario!.id } });
     expect(event?.detail).toMatchObject({ firstSignIn: true });
@@ -116,7 +128,9 @@ describe('a sign-in through the provider', () => {
     const after = sessionCookieFrom(done.headers['set-cookie']) ?? cookie;
     expect((await request(app).get('/api/me').set('Cookie', after)).status).toBe(401);
     const kofi = await User.findOne({ where: { subject: 'kofi' } });
-    expect(await AccessEvent.count({ where: { kind: 'sign-in-failed', userId: kofi!.id } })).toBe(1);
+    expect(await AccessEvent.count({ where: { kind: 'sign-in-failed', userId: kofi!.id } })).toBe(
+      1,
+    );
   });
 });
 
@@ -180,7 +194,9 @@ describe('the provider’s sign-in form', () => {
     expect(answer.page).toContain('The login or the password is wrong.');
     expect(answer.page).toContain('value="rurik"');
     expect(answer.page).not.toContain('not-his-password');
-    const failure = await AccessEvent.findOne({ where: { kind: 'sign-in-failed', login: 'rurik' } });
+    const failure = await AccessEvent.findOne({
+      where: { kind: 'sign-in-failed', login: 'rurik' },
+    });
     expect(failure?.detail).toMatchObject({ reason: 'wrong-password', at: 'identity-provider' });
     expect(failure?.ip).toBeTruthy();
   });

@@ -20,24 +20,37 @@ beforeAll(async () => {
 });
 
 function asMaren(method: 'get' | 'patch', path: string) {
-  const r = request(app)[method](path).set('Cookie', maren.cookie).set('User-Agent', TEST_USER_AGENT);
+  const r = request(app)
+    [method](path)
+    .set('Cookie', maren.cookie)
+    .set('User-Agent', TEST_USER_AGENT);
   return method === 'get' ? r : r.set('X-CSRF-Token', maren.csrfToken);
 }
 
 describe('GET /api/people', () => {
   it('when an admin lists, then everyone is there by name with roles, state and last sign-in', async () => {
-    await User.create({ email: 'zed@brackenmoor.example', name: 'Zed Never', subject: null, lastSignInAt: null, roles: ['planner'] });
+    await User.create({
+      email: 'zed@brackenmoor.example',
+      name: 'Zed Never',
+      subject: null,
+      lastSignInAt: null,
+      roles: ['planner'],
+    });
     const res = await asMaren('get', '/api/people');
     expect(res.status).toBe(200);
     const names = res.body.items.map((p: { name: string }) => p.name);
     expect(names).toEqual([...names].sort());
-    expect(res.body.items.find((p: { name: string }) => p.name === 'Maren Oyelaran')).toMatchObject({
-      email: 'maren@brackenmoor.example',
-      roles: ['admin'],
-      active: true,
-      lastSignInAt: expect.stringMatching(/^\d{4}-\d\d-\d\dT/),
-    });
-    expect(res.body.items.find((p: { name: string }) => p.name === 'Zed Never').lastSignInAt).toBeNull();
+    expect(res.body.items.find((p: { name: string }) => p.name === 'Maren Oyelaran')).toMatchObject(
+      {
+        email: 'maren@brackenmoor.example',
+        roles: ['admin'],
+        active: true,
+        lastSignInAt: expect.stringMatching(/^\d{4}-\d\d-\d\dT/),
+      },
+    );
+    expect(
+      res.body.items.find((p: { name: string }) => p.name === 'Zed Never').lastSignInAt,
+    ).toBeNull();
   });
 
   it('when searching, then only matches of name or e-mail come back, case-insensitively', async () => {
@@ -54,21 +67,38 @@ describe('PATCH /api/people/:userId', () => {
   it('when an admin takes a role away, then it counts from the person’s next request', async () => {
     const tomas = await signInOverHttp(app, 'tomas', 'tidewater-plan');
     const tomasId = (await request(app).get('/api/me').set('Cookie', tomas.cookie)).body.id;
-    await asMaren('patch', `/api/people/${tomasId}`).send({ roles: ['planner', 'admin'] }).expect(200);
+    await asMaren('patch', `/api/people/${tomasId}`)
+      .send({ roles: ['planner', 'admin'] })
+      .expect(200);
     expect((await request(app).get('/api/people').set('Cookie', tomas.cookie)).status).toBe(200);
 
     const res = await asMaren('patch', `/api/people/${tomasId}`).send({ roles: ['planner'] });
     expect(res.status).toBe(200);
     expect(res.body.roles).toEqual(['planner']);
     expect((await request(app).get('/api/people').set('Cookie', tomas.cookie)).status).toBe(403);
-    expect((await request(app).get('/api/me').set('Cookie', tomas.cookie)).body.roles).toEqual(['planner']);
+    expect((await request(app).get('/api/me').set('Cookie', tomas.cookie)).body.roles).toEqual([
+      'planner',
+    ]);
   });
 
   it('when roles change, then the sign-in log says who changed what, when, from which address and browser', async () => {
-    const person = await User.create({ email: 'log@brackenmoor.example', name: 'Log Person', subject: 'log', lastSignInAt: null });
-    await asMaren('patch', `/api/people/${person.id}`).send({ roles: ['technician'] }).expect(200);
-    const event = await AccessEvent.findOne({ where: { kind: 'roles-changed', userId: person.id } });
-    expect(event).toMatchObject({ actorId: marenId, userAgent: TEST_USER_AGENT, detail: { from: [], to: ['technician'] } });
+    const person = await User.create({
+      email: 'log@brackenmoor.example',
+      name: 'Log Person',
+      subject: 'log',
+      lastSignInAt: null,
+    });
+    await asMaren('patch', `/api/people/${person.id}`)
+      .send({ roles: ['technician'] })
+      .expect(200);
+    const event = await AccessEvent.findOne({
+      where: { kind: 'roles-changed', userId: person.id },
+    });
+    expect(event).toMatchObject({
+      actorId: marenId,
+      userAgent: TEST_USER_AGENT,
+      detail: { from: [], to: ['technician'] },
+    });
     expect(event?.ip).toMatch(/127\.0\.0\.1|::1/);
     expect(event?.createdAt).toBeInstanceOf(Date);
   });
@@ -77,16 +107,22 @@ describe('PATCH /api/people/:userId', () => {
     const ines = await signInOverHttp(app, 'ines', 'tidewater-rel');
     const inesId = (await request(app).get('/api/me').set('Cookie', ines.cookie)).body.id;
     const { secret } = await issueApiToken(inesId, 'gateway', new Date(Date.now() + 86_400_000));
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status).toBe(200);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status,
+    ).toBe(200);
 
     const res = await asMaren('patch', `/api/people/${inesId}`).send({ active: false });
     expect(res.body.active).toBe(false);
     expect((await request(app).get('/api/me').set('Cookie', ines.cookie)).status).toBe(401);
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status).toBe(401);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status,
+    ).toBe(401);
     expect(await AccessEvent.count({ where: { kind: 'deactivated', userId: inesId } })).toBe(1);
 
     await asMaren('patch', `/api/people/${inesId}`).send({ active: true }).expect(200);
-    expect((await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status).toBe(200);
+    expect(
+      (await request(app).get('/api/me').set('Authorization', `Bearer ${secret}`)).status,
+    ).toBe(200);
     expect(await AccessEvent.count({ where: { kind: 'reactivated', userId: inesId } })).toBe(1);
   });
 
@@ -104,13 +140,21 @@ describe('PATCH /api/people/:userId', () => {
   });
 
   it('when a role is not one of Ebbline’s, then 400 naming the field', async () => {
-    const person = await User.create({ email: 'bad@brackenmoor.example', name: 'Bad Input', subject: 'bad', lastSignInAt: null });
+    const person = await User.create({
+      email: 'bad@brackenmoor.example',
+      name: 'Bad Input',
+      subject: 'bad',
+      lastSignInAt: null,
+    });
     const res = await asMaren('patch', `/api/people/${person.id}`).send({ roles: ['boss'] });
     expect(res.status).toBe(400);
     expect(res.body.error.issues[0].path).toBe('roles.0');
     const empty = await asMaren('patch', `/api/people/${person.id}`).send({});
     expect(empty.status).toBe(400);
-    const extra = await asMaren('patch', `/api/people/${person.id}`).send({ roles: [], email: 'x@y.z' });
+    const extra = await asMaren('patch', `/api/people/${person.id}`).send({
+      roles: [],
+      email: 'x@y.z',
+    });
     expect(extra.status).toBe(400);
   });
 
@@ -118,13 +162,18 @@ describe('PATCH /api/people/:userId', () => {
     const bad = await asMaren('patch', '/api/people/not-an-id').send({ roles: [] });
     expect(bad.status).toBe(400);
     expect(bad.body.error.issues[0].path).toBe('userId');
-    const missing = await asMaren('patch', `/api/people/${crypto.randomUUID()}`).send({ roles: [] });
+    const missing = await asMaren('patch', `/api/people/${crypto.randomUUID()}`).send({
+      roles: [],
+    });
     expect(missing.status).toBe(404);
   });
 
   it('when a planner tries, then 403', async () => {
     const planner = await createCaller(['planner']);
-    const res = await request(app).patch(`/api/people/${marenId}`).set('Authorization', planner.auth).send({ roles: [] });
+    const res = await request(app)
+      .patch(`/api/people/${marenId}`)
+      .set('Authorization', planner.auth)
+      .send({ roles: [] });
     expect(res.status).toBe(403);
   });
 });
@@ -134,7 +183,12 @@ describe('GET /api/people/admins', () => {
     const noor = await signInOverHttp(app, 'noor', 'tidewater-new');
     const res = await request(app).get('/api/people/admins').set('Cookie', noor.cookie);
     expect(res.status).toBe(200);
-    expect(res.body.items).toContainEqual({ name: 'Maren Oyelaran', email: 'maren@brackenmoor.example' });
-    expect(res.body.items.every((a: object) => Object.keys(a).sort().join() === 'email,name')).toBe(true);
+    expect(res.body.items).toContainEqual({
+      name: 'Maren Oyelaran',
+      email: 'maren@brackenmoor.example',
+    });
+    expect(res.body.items.every((a: object) => Object.keys(a).sort().join() === 'email,name')).toBe(
+      true,
+    );
   });
 });

@@ -10,7 +10,13 @@ describe('loadOrCreateSigningKeys', () => {
     try {
       const first = loadOrCreateSigningKeys(path.join(dir, 'identity'));
       expect(first.created).toBe(true);
-      expect(first.keys[0]).toMatchObject({ kty: 'RSA', alg: 'RS256', use: 'sig', kid: expect.any(String), d: expect.any(String) });
+      expect(first.keys[0]).toMatchObject({
+        kty: 'RSA',
+        alg: 'RS256',
+        use: 'sig',
+        kid: expect.any(String),
+        d: expect.any(String),
+      });
       const file = path.join(dir, 'identity', 'signing-keys.json');
       expect(fs.statSync(file).mode & 0o777).toBe(0o600);
       const second = loadOrCreateSigningKeys(path.join(dir, 'identity'));

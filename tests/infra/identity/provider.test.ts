@@ -73,10 +73,18 @@ function authorizeUrl(extra: Record<string, string> = {}): URL {
 }
 
 /** Opens the sign-in form: its URL and the cookies a browser would hold. */
-async function openForm(): Promise<{ formUrl: URL; cookie: string; html: string; headers: Headers }> {
+async function openForm(): Promise<{
+  formUrl: URL;
+  cookie: string;
+  html: string;
+  headers: Headers;
+}> {
   const start = await fetch(authorizeUrl(), { redirect: 'manual' });
   const formUrl = new URL(start.headers.get('location') as string, issuer);
-  const cookie = start.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const cookie = start.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
   const page = await fetch(formUrl, { headers: { cookie } });
   return { formUrl, cookie, html: await page.text(), headers: page.headers };
 }
@@ -94,7 +102,9 @@ describe('discovery', () => {
   it('when asked, then it offers the roles scope and claim, code flow only and S256 PKCE', async () => {
     const meta = await (await fetch(`${issuer}/.well-known/openid-configuration`)).json();
     expect(meta.issuer).toBe(issuer);
-    expect(meta.scopes_supported).toEqual(expect.arrayContaining(['openid', 'email', 'profile', 'roles']));
+    expect(meta.scopes_supported).toEqual(
+      expect.arrayContaining(['openid', 'email', 'profile', 'roles']),
+    );
     expect(meta.claims_supported).toEqual(expect.arrayContaining(['roles', 'email', 'name']));
     expect(meta.response_types_supported).toEqual(['code']);
     expect(meta.code_challenge_methods_supported).toEqual(['S256']);
@@ -115,7 +125,9 @@ describe('authorization requests', () => {
   });
 
   it('when the redirect URI is not exactly the registered one, then the provider shows its own error page', async () => {
-    const res = await fetch(authorizeUrl({ redirect_uri: `${APP}/auth/callback/` }), { redirect: 'manual' });
+    const res = await fetch(authorizeUrl({ redirect_uri: `${APP}/auth/callback/` }), {
+      redirect: 'manual',
+    });
     expect(res.status).toBe(400);
     const html = await res.text();
     expect(html).toContain('Sign-in could not go on');
@@ -166,7 +178,8 @@ describe('the sign-in page', () => {
 
   it('when the failures reach the limit, then the login is paused, even for the right password', async () => {
     const { formUrl, cookie } = await openForm();
-    for (let i = 0; i < 2; i++) expect((await post(formUrl, cookie, 'rurik', 'wrong')).status).toBe(401);
+    for (let i = 0; i < 2; i++)
+      expect((await post(formUrl, cookie, 'rurik', 'wrong')).status).toBe(401);
     const third = await post(formUrl, cookie, 'rurik', 'wrong');
     expect(third.status).toBe(429);
     expect(await third.text()).toContain('Too many failed attempts.');
@@ -212,7 +225,9 @@ describe('the sign-in page', () => {
     });
     expect(tokens.status).toBe(200);
     const { id_token: idToken } = (await tokens.json()) as { id_token: string };
-    const claims = JSON.parse(Buffer.from(idToken.split('.')[1] as string, 'base64url').toString('utf8'));
+    const claims = JSON.parse(
+      Buffer.from(idToken.split('.')[1] as string, 'base64url').toString('utf8'),
+    );
     expect(claims).toMatchObject({
       iss: issuer,
       aud: 'ebbline',
@@ -222,6 +237,8 @@ describe('the sign-in page', () => {
       email_verified: true,
       roles: ['admin'],
     });
-    expect(JSON.parse(Buffer.from(idToken.split('.')[0] as string, 'base64url').toString('utf8')).alg).toBe('RS256');
+    expect(
+      JSON.parse(Buffer.from(idToken.split('.')[0] as string, 'base64url').toString('utf8')).alg,
+    ).toBe('RS256');
   });
 });

@@ -7,7 +7,10 @@ export function navFor(roles: readonly Role[], items: readonly NavItem[] = NAV_I
 }
 
 /** The navigation screen a path belongs to (`/register/sites/…` → Register), if any. */
-export function screenFor(pathname: string, items: readonly NavItem[] = NAV_ITEMS): NavItem | undefined {
+export function screenFor(
+  pathname: string,
+  items: readonly NavItem[] = NAV_ITEMS,
+): NavItem | undefined {
   return items.find((item) => pathname === item.to || pathname.startsWith(`${item.to}/`));
 }
 
@@ -16,7 +19,11 @@ export function screenFor(pathname: string, items: readonly NavItem[] = NAV_ITEM
  * redirect, unknown addresses) are open to every signed-in person with a role; the server
  * enforces the same roles on the data either way.
  */
-export function mayOpen(pathname: string, roles: readonly Role[], items: readonly NavItem[] = NAV_ITEMS): boolean {
+export function mayOpen(
+  pathname: string,
+  roles: readonly Role[],
+  items: readonly NavItem[] = NAV_ITEMS,
+): boolean {
   const screen = screenFor(pathname, items);
   return !screen || hasAnyRole(roles, screen.roles);
 }

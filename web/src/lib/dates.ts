@@ -8,5 +8,7 @@ export function formatInstant(iso: string): string {
 /** "3 days ago", "in 29 days". */
 export function fromNow(iso: string): string {
   const date = new Date(iso);
-  return Math.abs(Date.now() - date.getTime()) < 60_000 ? 'just now' : formatDistanceToNowStrict(date, { addSuffix: true });
+  return Math.abs(Date.now() - date.getTime()) < 60_000
+    ? 'just now'
+    : formatDistanceToNowStrict(date, { addSuffix: true });
 }

@@ -8,9 +8,17 @@ export const up: Migration = async ({ context: qi }) => {
     // sign-in, sign-out, sign-in-failed, roles-changed, deactivated, reactivated, …
     kind: { type: DataTypes.TEXT, allowNull: false },
     // the person the event is about; null when a failed sign-in names no known person
-    user_id: { type: DataTypes.UUID, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+    user_id: {
+      type: DataTypes.UUID,
+      references: { model: 'users', key: 'id' },
+      onDelete: 'SET NULL',
+    },
     // who did it when that is someone else (an admin changing roles)
-    actor_id: { type: DataTypes.UUID, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+    actor_id: {
+      type: DataTypes.UUID,
+      references: { model: 'users', key: 'id' },
+      onDelete: 'SET NULL',
+    },
     // the login typed at a failed sign-in, kept as typed
     login: { type: DataTypes.TEXT },
     ip: { type: DataTypes.TEXT },

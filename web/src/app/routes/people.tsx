@@ -29,14 +29,18 @@ export function Component() {
             aria-selected={tab === t.id}
             onClick={() => setParams(t.id === 'people' ? {} : { tab: t.id }, { replace: true })}
             className={`-mb-px border-b-2 px-4 py-2 text-sm font-medium transition ${
-              tab === t.id ? 'border-spark-400 text-tide-900' : 'border-transparent text-tide-600 hover:text-tide-900'
+              tab === t.id
+                ? 'border-spark-400 text-tide-900'
+                : 'border-transparent text-tide-600 hover:text-tide-900'
             }`}
           >
             {t.label}
           </button>
         ))}
       </div>
-      <div role="tabpanel">{tab === 'people' ? <PeopleList myId={me.data?.id ?? ''} /> : <SignInLog />}</div>
+      <div role="tabpanel">
+        {tab === 'people' ? <PeopleList myId={me.data?.id ?? ''} /> : <SignInLog />}
+      </div>
     </div>
   );
 }

@@ -15,7 +15,10 @@ export function Component() {
   if (!me.data) return null;
   return (
     <div>
-      <PageHeader title="Your profile" lead="Your name and e-mail come from the company’s sign-in service; your roles from Ebbline’s admins." />
+      <PageHeader
+        title="Your profile"
+        lead="Your name and e-mail come from the company’s sign-in service; your roles from Ebbline’s admins."
+      />
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
         <Card title="You">
           <dl className="grid grid-cols-[6rem_minmax(0,1fr)] gap-y-2 text-sm">
@@ -24,13 +27,16 @@ export function Component() {
             <dt className="text-tide-600">E-mail</dt>
             <dd className="break-all font-medium text-tide-900">{me.data.email}</dd>
             <dt className="text-tide-600">Roles</dt>
-            <dd className="font-medium text-tide-900">{me.data.roles.map((r) => ROLE_LABELS[r]).join(', ')}</dd>
+            <dd className="font-medium text-tide-900">
+              {me.data.roles.map((r) => ROLE_LABELS[r]).join(', ')}
+            </dd>
           </dl>
         </Card>
         <Card title="API tokens">
           <p className="mb-4 text-sm leading-relaxed text-tide-800">
-            For scripts and logger gateways that send readings to Ebbline. A token acts for you, never with more rights
-            than you hold at the time it is used, and only until it expires or you revoke it.
+            For scripts and logger gateways that send readings to Ebbline. A token acts for you,
+            never with more rights than you hold at the time it is used, and only until it expires
+            or you revoke it.
           </p>
           <div className="space-y-5">
             {issued ? <IssuedToken token={issued} onDone={() => setIssued(null)} /> : null}

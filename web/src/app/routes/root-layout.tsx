@@ -51,7 +51,12 @@ export function RootLayout() {
       account={(closeMenu) => <AccountMenu me={me.data} onNavigate={closeMenu} />}
     >
       {screen && !mayOpen(location.pathname, roles) ? (
-        <NotAllowed screen={screen.label} allowedRoles={screen.roles} myRoles={roles} home={startScreenFor(roles)} />
+        <NotAllowed
+          screen={screen.label}
+          allowedRoles={screen.roles}
+          myRoles={roles}
+          home={startScreenFor(roles)}
+        />
       ) : undefined}
     </AppShell>
   );

@@ -7,8 +7,8 @@ export function Component() {
       <div data-testid="signed-out">
         <h1 className="text-2xl font-bold tracking-tight text-tide-900">You have signed out</h1>
         <p className="mt-2 text-tide-800">
-          Your Ebbline session has ended, and so has your sign-in at the company’s sign-in service on this
-          device.
+          Your Ebbline session has ended, and so has your sign-in at the company’s sign-in service
+          on this device.
         </p>
         <a
           href="/auth/login"

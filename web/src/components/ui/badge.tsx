@@ -10,9 +10,17 @@ const TONES = {
 } as const;
 
 /** A short label in a pill; the word carries the meaning, the colour only helps. */
-export function Badge({ tone = 'tide', children }: { tone?: keyof typeof TONES; children: ReactNode }) {
+export function Badge({
+  tone = 'tide',
+  children,
+}: {
+  tone?: keyof typeof TONES;
+  children: ReactNode;
+}) {
   return (
-    <span className={`inline-flex items-center rounded-full px-2 py-0.5 text-xs font-medium ${TONES[tone]}`}>
+    <span
+      className={`inline-flex items-center rounded-full px-2 py-0.5 text-xs font-medium ${TONES[tone]}`}
+    >
       {children}
     </span>
   );

@@ -5,7 +5,10 @@ import { apiTokenKeys } from './get-api-tokens';
 
 /** Makes a token; the answer carries its secret, the only time it is shown. */
 export async function createApiToken(input: ApiTokenData): Promise<IssuedApiToken> {
-  return apiFetch<IssuedApiToken>('/api/me/tokens', { method: 'POST', body: JSON.stringify(input) });
+  return apiFetch<IssuedApiToken>('/api/me/tokens', {
+    method: 'POST',
+    body: JSON.stringify(input),
+  });
 }
 
 export function useCreateApiToken() {

@@ -12,6 +12,7 @@ export const apiTokenKeys = {
   lists: () => [...apiTokenKeys.all, 'list'] as const,
 };
 
-export const apiTokensQueryOptions = () => queryOptions({ queryKey: apiTokenKeys.lists(), queryFn: getApiTokens });
+export const apiTokensQueryOptions = () =>
+  queryOptions({ queryKey: apiTokenKeys.lists(), queryFn: getApiTokens });
 
 export const useApiTokens = () => useQuery(apiTokensQueryOptions());

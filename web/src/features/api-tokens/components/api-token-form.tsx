@@ -11,10 +11,21 @@ import {
 import { ApiError } from '../../../lib/api-client';
 import { useCreateApiToken } from '../api/create-api-token';
 
-const EXPIRY_LABELS: Record<number, string> = { 7: '7 days', 30: '30 days', 90: '90 days', 365: '1 year' };
+const EXPIRY_LABELS: Record<number, string> = {
+  7: '7 days',
+  30: '30 days',
+  90: '90 days',
+  365: '1 year',
+};
 
 /** Makes a named token with an expiry, optionally narrowed to some of the person's roles. */
-export function ApiTokenForm({ myRoles, onIssued }: { myRoles: readonly Role[]; onIssued: (token: IssuedApiToken) => void }) {
+export function ApiTokenForm({
+  myRoles,
+  onIssued,
+}: {
+  myRoles: readonly Role[];
+  onIssued: (token: IssuedApiToken) => void;
+}) {
   const create = useCreateApiToken();
   const form = useForm<ApiTokenInput, unknown, ApiTokenData>({
     resolver: zodResolver(apiTokenInputSchema),
@@ -32,7 +43,8 @@ export function ApiTokenForm({ myRoles, onIssued }: { myRoles: readonly Role[]; 
         if (error instanceof ApiError) {
           for (const issue of error.issues) {
             const field = issue.path.split('.')[0] as keyof ApiTokenInput;
-            if (field === 'name' || field === 'expiresInDays' || field === 'roles') form.setError(field, { message: issue.message });
+            if (field === 'name' || field === 'expiresInDays' || field === 'roles')
+              form.setError(field, { message: issue.message });
           }
         }
       },
@@ -75,7 +87,9 @@ export function ApiTokenForm({ myRoles, onIssued }: { myRoles: readonly Role[]; 
               </option>
             ))}
           </select>
-          {errors.expiresInDays ? <p className="mt-1 text-sm text-eol-600">{errors.expiresInDays.message}</p> : null}
+          {errors.expiresInDays ? (
+            <p className="mt-1 text-sm text-eol-600">{errors.expiresInDays.message}</p>
+          ) : null}
         </div>
       </div>
       {myRoles.length > 1 ? (
@@ -96,14 +110,19 @@ export function ApiTokenForm({ myRoles, onIssued }: { myRoles: readonly Role[]; 
                   All my roles
                 </label>
                 {myRoles.map((role) => (
-                  <label key={role} className="flex items-center gap-2 rounded-lg border border-tide-100 bg-white px-3 py-2 text-sm">
+                  <label
+                    key={role}
+                    className="flex items-center gap-2 rounded-lg border border-tide-100 bg-white px-3 py-2 text-sm"
+                  >
                     <input
                       type="checkbox"
                       className="accent-tide-600"
                       checked={field.value?.includes(role) ?? false}
                       onChange={(e) => {
                         const now = field.value ?? [];
-                        const next = e.target.checked ? [...now, role] : now.filter((r) => r !== role);
+                        const next = e.target.checked
+                          ? [...now, role]
+                          : now.filter((r) => r !== role);
                         field.onChange(next.length ? next : null);
                       }}
                     />
@@ -111,7 +130,9 @@ export function ApiTokenForm({ myRoles, onIssued }: { myRoles: readonly Role[]; 
                   </label>
                 ))}
               </div>
-              {errors.roles ? <p className="mt-1 text-sm text-eol-600">{errors.roles.message}</p> : null}
+              {errors.roles ? (
+                <p className="mt-1 text-sm text-eol-600">{errors.roles.message}</p>
+              ) : null}
             </fieldset>
           )}
         />

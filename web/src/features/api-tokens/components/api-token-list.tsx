@@ -18,7 +18,8 @@ const STATUS = {
 export function ApiTokenList() {
   const tokens = useApiTokens();
   if (tokens.isPending) return <Spinner label="Loading your tokens…" />;
-  if (tokens.isError) return <ErrorPanel title="Your tokens could not be loaded">{tokens.error.message}</ErrorPanel>;
+  if (tokens.isError)
+    return <ErrorPanel title="Your tokens could not be loaded">{tokens.error.message}</ErrorPanel>;
   if (tokens.data.length === 0) {
     return <p className="text-sm text-tide-800">You have no API tokens yet.</p>;
   }
@@ -42,14 +43,22 @@ function TokenRow({ token }: { token: ApiTokenView }) {
           {token.name} <Badge tone={status.tone}>{status.label}</Badge>
         </p>
         <p className="mt-0.5 text-sm text-tide-800">
-          {token.roles ? `Only ${token.roles.map((r) => ROLE_LABELS[r]).join(', ')}` : 'All your roles'} ·{' '}
-          {token.status === 'revoked' && token.revokedAt
-            ? `revoked ${fromNow(token.revokedAt)}`
-            : `${token.status === 'expired' ? 'expired' : 'expires'} ${fromNow(token.expiresAt)}`}{' '}
-          <span className="text-tide-600">({formatInstant(token.expiresAt)})</span>
+          {token.roles
+            ? `Only ${token.roles.map((r) => ROLE_LABELS[r]).join(', ')}`
+            : 'All your roles'}{' '}
+          ·{' '}
+          {token.status === 'revoked' && token.revokedAt ? (
+            `revoked ${fromNow(token.revokedAt)}`
+          ) : (
+            <>
+              {token.status === 'expired' ? 'expired' : 'expires'} {fromNow(token.expiresAt)}{' '}
+              <span className="text-tide-600">({formatInstant(token.expiresAt)})</span>
+            </>
+          )}
         </p>
         <p className="text-xs text-tide-600">
-          {token.lastUsedAt ? `Last used ${fromNow(token.lastUsedAt)}` : 'Never used'} · made {formatInstant(token.createdAt)}
+          {token.lastUsedAt ? `Last used ${fromNow(token.lastUsedAt)}` : 'Never used'} · made{' '}
+          {formatInstant(token.createdAt)}
         </p>
         {revoke.isError ? (
           <p role="alert" className="mt-1 text-sm text-eol-600">

@@ -5,11 +5,17 @@ import type { IssuedApiToken } from '../../../../../shared/schemas/api-token';
 export function IssuedToken({ token, onDone }: { token: IssuedApiToken; onDone: () => void }) {
   const [copied, setCopied] = useState(false);
   return (
-    <div role="status" className="rounded-xl border-2 border-spark-400 bg-spark-300/20 p-4" data-testid="issued-token">
-      <p className="font-bold text-tide-900">Copy the token “{token.name}” now: it is shown only this once.</p>
+    <div
+      role="status"
+      className="rounded-xl border-2 border-spark-400 bg-spark-300/20 p-4"
+      data-testid="issued-token"
+    >
+      <p className="font-bold text-tide-900">
+        Copy the token “{token.name}” now: it is shown only this once.
+      </p>
       <p className="mt-1 text-sm text-tide-800">
-        Send it as <code className="font-medium">Authorization: Bearer …</code>. Ebbline keeps only a fingerprint of it;
-        if it is lost, revoke it and make a new one.
+        Send it as <code className="font-medium">Authorization: Bearer …</code>. Ebbline keeps only
+        a fingerprint of it; if it is lost, revoke it and make a new one.
       </p>
       <div className="mt-3 flex flex-wrap items-center gap-2">
         <code

@@ -9,6 +9,7 @@ export async function getAdmins(): Promise<AdminContact[]> {
 
 export const adminKeys = { all: ['admins'] as const };
 
-export const adminsQueryOptions = () => queryOptions({ queryKey: adminKeys.all, queryFn: getAdmins });
+export const adminsQueryOptions = () =>
+  queryOptions({ queryKey: adminKeys.all, queryFn: getAdmins });
 
 export const useAdmins = () => useQuery(adminsQueryOptions());

@@ -5,7 +5,9 @@ import { SignOutButton } from './sign-out-button';
 
 function initials(name: string): string {
   const parts = name.trim().split(/\s+/);
-  return ((parts[0]?.[0] ?? '') + (parts.length > 1 ? (parts.at(-1)?.[0] ?? '') : '')).toUpperCase();
+  return (
+    (parts[0]?.[0] ?? '') + (parts.length > 1 ? (parts.at(-1)?.[0] ?? '') : '')
+  ).toUpperCase();
 }
 
 /** The signed-in person in the shell: name, roles, their profile and signing out. */
@@ -23,7 +25,9 @@ export function AccountMenu({ me, onNavigate }: { me: Me; onNavigate?: () => voi
           <p className="truncate font-medium text-white" data-testid="account-name">
             {me.name}
           </p>
-          <p className="truncate text-xs text-tide-200">{me.roles.map((r) => ROLE_LABELS[r]).join(' · ')}</p>
+          <p className="truncate text-xs text-tide-200">
+            {me.roles.map((r) => ROLE_LABELS[r]).join(' · ')}
+          </p>
         </div>
       </div>
       <div className="flex gap-2">

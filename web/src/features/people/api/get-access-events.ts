@@ -9,7 +9,10 @@ export interface AccessEventFilters {
 const PAGE = 50;
 
 /** One page of the sign-in log, newest first, before an instant. */
-export async function getAccessEvents(filters: AccessEventFilters, before?: string): Promise<AccessEventView[]> {
+export async function getAccessEvents(
+  filters: AccessEventFilters,
+  before?: string,
+): Promise<AccessEventView[]> {
   const params = new URLSearchParams({ limit: String(PAGE) });
   if (filters.kind) params.set('kind', filters.kind);
   if (before) params.set('before', before);
@@ -30,4 +33,5 @@ export const accessEventsQueryOptions = (filters: AccessEventFilters) =>
     getNextPageParam: (last) => (last.length === PAGE ? last.at(-1)?.at : undefined),
   });
 
-export const useAccessEvents = (filters: AccessEventFilters) => useInfiniteQuery(accessEventsQueryOptions(filters));
+export const useAccessEvents = (filters: AccessEventFilters) =>
+  useInfiniteQuery(accessEventsQueryOptions(filters));

@@ -6,13 +6,17 @@ import { peopleKeys } from './get-people';
 
 /** An admin changes a person's roles or (de)activates them. */
 export async function updatePerson(userId: string, change: PersonUpdate): Promise<Person> {
-  return apiFetch<Person>(`/api/people/${userId}`, { method: 'PATCH', body: JSON.stringify(change) });
+  return apiFetch<Person>(`/api/people/${userId}`, {
+    method: 'PATCH',
+    body: JSON.stringify(change),
+  });
 }
 
 export function useUpdatePerson() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ userId, change }: { userId: string; change: PersonUpdate }) => updatePerson(userId, change),
+    mutationFn: ({ userId, change }: { userId: string; change: PersonUpdate }) =>
+      updatePerson(userId, change),
     onSuccess: async () => {
       await Promise.all([
         client.invalidateQueries({ queryKey: peopleKeys.all }),

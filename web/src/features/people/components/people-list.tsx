@@ -43,7 +43,10 @@ export function PeopleList({ myId }: { myId: string }) {
           {q ? `Nobody matches “${q}”.` : 'Nobody has signed in yet.'}
         </p>
       ) : (
-        <ul className="divide-y divide-tide-100 overflow-hidden rounded-xl border border-tide-100 bg-white shadow-sm" data-testid="people-list">
+        <ul
+          className="divide-y divide-tide-100 overflow-hidden rounded-xl border border-tide-100 bg-white shadow-sm"
+          data-testid="people-list"
+        >
           <li className="hidden grid-cols-[minmax(0,2fr)_minmax(0,2fr)_minmax(0,1.3fr)_7rem] gap-4 bg-tide-50 px-4 py-2 text-xs font-bold uppercase tracking-wide text-tide-600 md:grid">
             <span>Person</span>
             <span>Roles</span>
@@ -53,7 +56,11 @@ export function PeopleList({ myId }: { myId: string }) {
           {people.data.map((person) => (
             <li key={person.id} data-testid="person-row" data-login={person.email}>
               {editing === person.id ? (
-                <PersonEditor person={person} isMe={person.id === myId} onDone={() => setEditing(null)} />
+                <PersonEditor
+                  person={person}
+                  isMe={person.id === myId}
+                  onDone={() => setEditing(null)}
+                />
               ) : (
                 <PersonRow person={person} onEdit={() => setEditing(person.id)} />
               )}
@@ -92,7 +99,10 @@ function PersonRow({ person, onEdit }: { person: Person; onEdit: () => void }) {
       </div>
       <div className="col-start-1 text-sm text-tide-800 md:col-start-auto">
         {person.lastSignInAt ? (
-          <span title={formatInstant(person.lastSignInAt)}>{fromNow(person.lastSignInAt)}</span>
+          <span title={formatInstant(person.lastSignInAt)}>
+            <span className="md:hidden">Last sign-in </span>
+            {fromNow(person.lastSignInAt)}
+          </span>
         ) : (
           <span className="text-tide-600">Never signed in</span>
         )}
@@ -111,7 +121,15 @@ function PersonRow({ person, onEdit }: { person: Person; onEdit: () => void }) {
   );
 }
 
-function PersonEditor({ person, isMe, onDone }: { person: Person; isMe: boolean; onDone: () => void }) {
+function PersonEditor({
+  person,
+  isMe,
+  onDone,
+}: {
+  person: Person;
+  isMe: boolean;
+  onDone: () => void;
+}) {
   const [roles, setRoles] = useState<Role[]>(person.roles);
   const [active, setActive] = useState(person.active);
   const update = useUpdatePerson();
@@ -148,7 +166,11 @@ function PersonEditor({ person, isMe, onDone }: { person: Person; isMe: boolean;
                 type="checkbox"
                 className="h-4 w-4 accent-tide-600"
                 checked={roles.includes(role)}
-                onChange={(e) => setRoles((now) => (e.target.checked ? [...now, role] : now.filter((r) => r !== role)))}
+                onChange={(e) =>
+                  setRoles((now) =>
+                    e.target.checked ? [...now, role] : now.filter((r) => r !== role),
+                  )
+                }
               />
               {ROLE_LABELS[role]}
             </label>
@@ -165,7 +187,9 @@ function PersonEditor({ person, isMe, onDone }: { person: Person; isMe: boolean;
         />
         <span>
           Deactivated: cannot sign in, sessions end at once, API tokens stop working.
-          {isMe ? <span className="block text-tide-600">You cannot deactivate yourself.</span> : null}
+          {isMe ? (
+            <span className="block text-tide-600">You cannot deactivate yourself.</span>
+          ) : null}
         </span>
       </label>
       {update.isError ? (

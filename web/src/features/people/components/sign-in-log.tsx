@@ -67,9 +67,14 @@ function describe(event: AccessEventView): string {
   const d = event.detail;
   switch (event.kind) {
     case 'sign-in':
-      return d.firstSignIn ? `first sign-in, roles from the directory: ${roleList(d.rolesFromProvider)}` : '';
+      return d.firstSignIn
+        ? `first sign-in, roles from the directory: ${roleList(d.rolesFromProvider)}`
+        : '';
     case 'sign-in-failed':
-      return [event.login ? `as “${event.login}”` : '', REASONS[String(d.reason)] ?? String(d.reason ?? '')]
+      return [
+        event.login ? `as “${event.login}”` : '',
+        REASONS[String(d.reason)] ?? String(d.reason ?? ''),
+      ]
         .filter(Boolean)
         .join(', ');
     case 'roles-changed':
@@ -110,9 +115,14 @@ export function SignInLog() {
       ) : events.isError ? (
         <ErrorPanel title="The sign-in log could not be loaded">{events.error.message}</ErrorPanel>
       ) : items.length === 0 ? (
-        <p className="rounded-xl border border-dashed border-tide-200 bg-white/60 p-6 text-tide-800">Nothing recorded yet.</p>
+        <p className="rounded-xl border border-dashed border-tide-200 bg-white/60 p-6 text-tide-800">
+          Nothing recorded yet.
+        </p>
       ) : (
-        <ol className="divide-y divide-tide-100 overflow-hidden rounded-xl border border-tide-100 bg-white shadow-sm" data-testid="sign-in-log">
+        <ol
+          className="divide-y divide-tide-100 overflow-hidden rounded-xl border border-tide-100 bg-white shadow-sm"
+          data-testid="sign-in-log"
+        >
           {items.map((e) => (
             <li
               key={e.id}
@@ -124,12 +134,21 @@ export function SignInLog() {
               </time>
               <div className="min-w-0">
                 <p className="flex flex-wrap items-center gap-2">
-                  <Badge tone={TONE[e.kind] ?? 'tide'}>{ACCESS_EVENT_LABELS[e.kind] ?? e.kind}</Badge>
-                  <span className="font-medium text-tide-900">{e.person?.name ?? e.login ?? 'Someone'}</span>
-                  {e.actor ? <span className="text-sm text-tide-600">by {e.actor.name}</span> : null}
+                  <Badge tone={TONE[e.kind] ?? 'tide'}>
+                    {ACCESS_EVENT_LABELS[e.kind] ?? e.kind}
+                  </Badge>
+                  <span className="font-medium text-tide-900">
+                    {e.person?.name ?? e.login ?? 'Someone'}
+                  </span>
+                  {e.actor ? (
+                    <span className="text-sm text-tide-600">by {e.actor.name}</span>
+                  ) : null}
                 </p>
                 {describe(e) ? <p className="mt-0.5 text-sm text-tide-800">{describe(e)}</p> : null}
-                <p className="mt-0.5 truncate text-xs text-tide-600" title={e.userAgent ?? undefined}>
+                <p
+                  className="mt-0.5 truncate text-xs text-tide-600"
+                  title={e.userAgent ?? undefined}
+                >
                   from {e.ip ?? 'unknown address'} · {browserName(e.userAgent)}
                 </p>
               </div>
