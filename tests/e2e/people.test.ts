@@ -46,6 +46,13 @@ describe('People (admin)', () => {
       /Chrome on Linux/,
     );
     await screenshot(page, 'sign-in-log-desktop');
+
+    // leave Priya as the demo has her
+    await page.getByRole('tab', { name: 'People' }).click();
+    await page.getByRole('button', { name: 'Edit Priya Halden' }).click();
+    await page.getByRole('checkbox', { name: 'Reliability engineer' }).uncheck();
+    await page.getByRole('button', { name: 'Save' }).click();
+    await page.getByRole('button', { name: 'Edit Priya Halden' }).waitFor();
     expect(console.problems).toEqual([]);
   });
 
@@ -97,5 +104,13 @@ describe('People (admin)', () => {
     expect(await rurik.page.getByRole('heading').first().textContent()).toBe(
       'Your Ebbline account is deactivated',
     );
+
+    // reactivated, Rurik signs in again
+    await admin.page.getByRole('button', { name: 'Edit Rurik Salo' }).click();
+    await admin.page.getByRole('checkbox', { name: /Deactivated/ }).uncheck();
+    await admin.page.getByRole('button', { name: 'Save' }).click();
+    await admin.page.getByRole('button', { name: 'Edit Rurik Salo' }).waitFor();
+    await signIn(rurik.page, 'rurik', 'tidewater-rel');
+    expect(new URL(rurik.page.url()).pathname).toBe('/fleet');
   });
 });

@@ -1,3 +1,4 @@
+import pg from 'pg';
 import { afterEach, describe, expect, inject, it } from 'vitest';
 import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
 import { watchConsole } from '../support/console';
@@ -135,6 +136,32 @@ describe('signing in through the local provider', () => {
     const me = await page.evaluate(async () => (await fetch('/api/me')).status);
     expect(me).toBe(401);
     await screenshot(page, 'sign-in-problem');
+  });
+
+  it('when the sign-in took longer than allowed at the provider, then its state has expired and is refused', async () => {
+    const { page } = await browser();
+    await page.goto(`${baseUrl}/auth/login`);
+    await page.getByLabel('Login').waitFor();
+    // age the pending sign-in in Ebbline's session store by 11 minutes
+    const db = new pg.Client({ connectionString: inject('databaseUrl') });
+    await db.connect();
+    try {
+      const aged = await db.query(
+        `UPDATE sessions SET sess = jsonb_set(sess::jsonb, '{pendingSignIns}',
+           (SELECT jsonb_object_agg(k, jsonb_set(v, '{startedAt}', to_jsonb((v->>'startedAt')::bigint - 660000)))
+              FROM jsonb_each(sess::jsonb->'pendingSignIns') AS e(k, v)))::json
+         WHERE sess::jsonb ? 'pendingSignIns' AND NOT (sess::jsonb ? 'userId')`,
+      );
+      expect(aged.rowCount).toBeGreaterThan(0);
+    } finally {
+      await db.end();
+    }
+    await page.getByLabel('Login').fill('priya');
+    await page.getByLabel('Password').fill('tidewater-plan');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByTestId('sign-in-problem').waitFor();
+    expect(new URL(page.url()).search).toBe('?reason=expired');
+    expect(await page.getByRole('heading').first().textContent()).toBe('The sign-in took too long');
   });
 
   it('when an old callback address is opened again (its state spent), then it is refused', async () => {

@@ -11,6 +11,8 @@ declare module 'vitest' {
     baseUrl: string;
     /** The local identity provider's issuer (its sign-in page lives there). */
     issuer: string;
+    /** The product's database, for tests that must age or inspect a record. */
+    databaseUrl: string;
   }
 }
 
@@ -42,6 +44,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
   const server = await startServer();
   project.provide('baseUrl', baseUrl);
   project.provide('issuer', idp.issuer);
+  project.provide('databaseUrl', process.env.DATABASE_URL as string);
   return async () => {
     await server.close(2000);
     await idp.close();
