@@ -2,19 +2,23 @@
  * The demo scenario, seeded by `npm start`. Deterministic and idempotent: a second run
  * finds every record by its natural key and adds nothing.
  *
- *   tsx infra/seed/index.ts        (against DATABASE_URL)
+ *   tsx infra/seed/index.ts                   (against DATABASE_URL)
+ *   tsx infra/seed/index.ts --cabinets 20000  (a large fleet, for measuring the register)
  */
 import { pathToFileURL } from 'node:url';
 import { User } from '../../api/src/models/user';
 import { sequelize } from '../../api/src/db/sequelize';
 import { DEMO_PEOPLE } from './people';
+import { seedRegister, type RegisterSeedOptions, type RegisterSeedSummary } from './register';
 
-export interface SeedSummary {
+export interface SeedSummary extends Partial<RegisterSeedSummary> {
   people: number;
 }
 
+export type SeedOptions = RegisterSeedOptions;
+
 /** Seeds the demo scenario in one transaction. */
-export async function seedDemo(): Promise<SeedSummary> {
+export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> {
   return sequelize.transaction(async (transaction) => {
     // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
     for (const person of DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn)) {
@@ -24,11 +28,18 @@ export async function seedDemo(): Promise<SeedSummary> {
         transaction,
       });
     }
-    return { people: DEMO_PEOPLE.length };
+    const register = await seedRegister(transaction, options);
+    return { people: DEMO_PEOPLE.length, ...register };
   });
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
-  console.log(await seedDemo());
+  const at = process.argv.indexOf('--cabinets');
+  const cabinets = at >= 0 ? Number(process.argv[at + 1]) : undefined;
+  if (cabinets !== undefined && !(Number.isInteger(cabinets) && cabinets > 0)) {
+    console.error('usage: tsx infra/seed/index.ts [--cabinets N]   (N a whole number of cabinets)');
+    process.exit(2);
+  }
+  console.log(await seedDemo({ cabinets }));
   await sequelize.close();
 }

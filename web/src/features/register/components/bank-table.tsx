@@ -1,0 +1,160 @@
+import type { ReactNode } from 'react';
+import { BANK_STATUSES, BANK_STATUS_LABELS } from '../../../../../shared/constants/register';
+import type { Bank } from '../../../../../shared/schemas/bank';
+import { ButtonLink } from '../../../components/ui/button';
+import { DataTable, type DataColumn } from '../../../components/ui/data-table';
+import { ErrorPanel } from '../../../components/ui/error-panel';
+import { SearchInput } from '../../../components/ui/search-input';
+import { Spinner } from '../../../components/ui/spinner';
+import { formatCalendarDate, formatMicrofarads, formatSeconds } from '../../../lib/units';
+import { banksApi } from '../api/banks';
+import { sitesApi } from '../api/sites';
+import { useListParams } from '../hooks/use-list-params';
+import { useRegisterPermissions } from './permissions';
+import { FilterSelect, ListToolbar, RetiredToggle } from './record-parts';
+import { BankStatusBadge, BaselineSourceBadge, LatestVerdict, Tau } from './status-badges';
+
+const cabinetColumn: DataColumn<Bank> = {
+  id: 'cabinet',
+  header: 'Cabinet',
+  cell: ({ row }) => <span className="font-mono">{row.original.cabinetTag}</span>,
+};
+
+const bankColumns: DataColumn<Bank>[] = [
+  { id: 'position', header: 'Position', cell: ({ row }) => row.original.position },
+  {
+    id: 'design',
+    header: 'Design',
+    cell: ({ row }) => (
+      <span>
+        <span className="font-mono">{row.original.bankDesignCode}</span>{' '}
+        <span className="text-tide-600">{row.original.technology}</span>
+      </span>
+    ),
+  },
+  { id: 'nominal', header: 'Nominal C', enableSorting: false, cell: ({ row }) => formatMicrofarads(row.original.nominalCapacitanceMicrofarads) },
+  {
+    id: 'baseline',
+    header: () => (
+      <>
+        Baseline <Tau />
+      </>
+    ),
+    enableSorting: false,
+    cell: ({ row }) => (
+      <span className="whitespace-nowrap">
+        {formatSeconds(row.original.baseline.tauSeconds)} <BaselineSourceBadge source={row.original.baseline.source} />
+      </span>
+    ),
+  },
+  { id: 'installedOn', header: 'Installed', cell: ({ row }) => formatCalendarDate(row.original.installedOn) },
+  { id: 'verdict', header: 'Latest verdict', enableSorting: false, cell: ({ row }) => <LatestVerdict verdict={row.original.latestVerdict} /> },
+  { id: 'status', header: 'Status', cell: ({ row }) => <BankStatusBadge status={row.original.status} /> },
+];
+
+function BankCard({ bank: b, showCabinet }: { bank: Bank; showCabinet: boolean }) {
+  return (
+    <div>
+      <div className="flex items-start justify-between gap-2">
+        <p className="font-bold text-tide-900">
+          {showCabinet ? <span className="mr-1 font-mono">{b.cabinetTag}</span> : null}
+          {b.position}
+        </p>
+        <LatestVerdict verdict={b.latestVerdict} />
+      </div>
+      <p className="mt-0.5 text-sm text-tide-800">
+        <span className="font-mono">{b.bankDesignCode}</span> · {formatMicrofarads(b.nominalCapacitanceMicrofarads)}
+      </p>
+      <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-tide-600">
+        τ₀ {formatSeconds(b.baseline.tauSeconds)} <BaselineSourceBadge source={b.baseline.source} />
+        {b.status !== 'in-service' ? <BankStatusBadge status={b.status} /> : null}
+      </p>
+    </div>
+  );
+}
+
+/** Banks, server-paged and sorted; `fixed` pins filters (e.g. one cabinet's banks). */
+export function BankTable({
+  fixed = {},
+  toolbar = false,
+  action,
+}: {
+  fixed?: Record<string, string>;
+  toolbar?: boolean;
+  /** Shown beside the embedded list's own controls, e.g. "Add bank". */
+  action?: ReactNode;
+}) {
+  const can = useRegisterPermissions();
+  const inCabinet = 'cabinetId' in fixed;
+  const embedded = !toolbar;
+  const [params, update] = useListParams({ sort: inCabinet ? 'position' : 'cabinet', pageSize: inCabinet ? 50 : embedded ? 10 : 25 }, [
+    'siteId',
+    'status',
+    'includeRetired',
+  ]);
+  const banks = banksApi.useList({ ...params, ...fixed });
+  const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' }, toolbar);
+  return (
+    <section aria-label="Banks">
+      {toolbar ? (
+        <ListToolbar
+          search={<SearchInput label="Search banks" placeholder="Cabinet tag, position or serial" value={params.q ?? ''} onSearch={(q) => update({ q })} />}
+          action={can.editRegister ? <ButtonLink to="/register/banks/new" variant="primary">Add bank</ButtonLink> : undefined}
+        >
+          <FilterSelect
+            label="Site"
+            value={String(params.siteId ?? '')}
+            onChange={(siteId) => update({ siteId })}
+            options={[{ value: '', label: 'All sites' }, ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name }))]}
+          />
+          <FilterSelect
+            label="Status"
+            value={String(params.status ?? '')}
+            onChange={(status) => update({ status })}
+            options={[{ value: '', label: 'In service' }, ...BANK_STATUSES.map((s) => ({ value: s, label: BANK_STATUS_LABELS[s] }))]}
+          />
+        </ListToolbar>
+      ) : inCabinet ? (
+        <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
+          <div>{action}</div>
+          <RetiredToggle
+            label="Show replaced and removed"
+            checked={params.includeRetired === 'true'}
+            onChange={(v) => update({ includeRetired: v ? 'true' : undefined })}
+          />
+        </div>
+      ) : null}
+      {banks.isPending ? (
+        <Spinner label="Loading banks…" />
+      ) : banks.isError ? (
+        <ErrorPanel title="Banks could not be loaded">{banks.error.message}</ErrorPanel>
+      ) : (
+        <DataTable
+          caption="Banks"
+          columns={
+            inCabinet
+              ? bankColumns
+              : [cabinetColumn, ...bankColumns.filter((c) => !('bankDesignId' in fixed) || c.id !== 'design')]
+          }
+          rows={banks.data.items}
+          total={banks.data.total}
+          page={params.page}
+          pageSize={params.pageSize}
+          sort={params.sort}
+          onSortChange={(sort) => update({ sort })}
+          onPageChange={(page) => update({ page })}
+          onPageSizeChange={toolbar ? (pageSize) => update({ pageSize }) : undefined}
+          rowKey={(b) => b.id}
+          rowHref={(b) => `/register/banks/${b.id}`}
+          loading={banks.isFetching}
+          empty={inCabinet ? 'No banks recorded in this cabinet yet.' : params.q ? `No bank matches “${params.q}”.` : 'No banks yet.'}
+          card={(b) => <BankCard bank={b} showCabinet={!inCabinet} />}
+        />
+      )}
+    </section>
+  );
+}
+
+export function BankList() {
+  return <BankTable toolbar />;
+}
