@@ -6,7 +6,8 @@ import { ensureDatabase, isRunning, startCluster, stopCluster, type ClusterOptio
 
 const cluster: ClusterOptions = {
   dataDir: path.join(PROJECT_ROOT, '.data', `pg-lifecycle-${process.pid}`),
-  port: Number(process.env.PG_LIFECYCLE_PORT || 54399),
+  // next to the run's own test cluster, so two test runs on one machine never meet
+  port: Number(process.env.PG_LIFECYCLE_PORT || Number(process.env.PG_TEST_PORT || 54329) + 70),
   user: 'ebbline',
   password: 'lifecycle',
   durable: false,
