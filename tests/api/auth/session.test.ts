@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../api/src/app';
-import { parseConfig } from '../../../api/src/config/env';
+import { getConfig, parseConfig } from '../../../api/src/config/env';
 import { sessionCookieOptions } from '../../../api/src/auth/session';
 import { sequelize } from '../../../api/src/db/sequelize';
 import { AccessEvent } from '../../../api/src/models/access-event';
@@ -37,7 +37,7 @@ describe('POST /auth/logout', () => {
     expect(target.origin + target.pathname).toBe(`${process.env.OIDC_ISSUER}/session/end`);
     expect(target.searchParams.get('id_token_hint')).toMatch(/^ey/);
     expect(target.searchParams.get('post_logout_redirect_uri')).toBe(
-      'http://localhost:3000/signed-out',
+      getConfig().OIDC_POST_LOGOUT_REDIRECT_URL,
     );
     const cleared = (res.headers['set-cookie'] as unknown as string[]).find((l) =>
       l.startsWith('ebbline.sid='),
@@ -78,7 +78,7 @@ describe('POST /auth/logout', () => {
       redirect: 'manual',
     });
     expect(confirmed.status).toBe(303);
-    expect(confirmed.headers.get('location')).toBe('http://localhost:3000/signed-out');
+    expect(confirmed.headers.get('location')).toBe(getConfig().OIDC_POST_LOGOUT_REDIRECT_URL);
     s.providerJar.take(confirmed.headers.getSetCookie());
 
     // with the provider's cookies from before, a new sign-in must show the form again

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../api/src/app';
+import { getConfig } from '../../../api/src/config/env';
 import { AccessEvent } from '../../../api/src/models/access-event';
 import { User } from '../../../api/src/models/user';
 import { recordFailureInEbbline } from '../../../infra/identity/sign-in-log';
@@ -31,7 +32,9 @@ describe('GET /auth/login', () => {
     expect(p.get('code_challenge')).toMatch(/^[\w-]{43}$/);
     expect(p.get('state')).toMatch(/^[\w-]{20,}$/);
     expect(p.get('nonce')).toMatch(/^[\w-]{20,}$/);
-    expect(p.get('redirect_uri')).toBe('http://localhost:3000/auth/callback');
+    // exactly the configured one (APP_URL + /auth/callback by default)
+    expect(p.get('redirect_uri')).toBe(getConfig().OIDC_REDIRECT_URL);
+    expect(getConfig().OIDC_REDIRECT_URL).toBe(`${getConfig().APP_URL}/auth/callback`);
     expect(p.get('scope')?.split(' ')).toEqual(
       expect.arrayContaining(['openid', 'email', 'profile', 'roles']),
     );
