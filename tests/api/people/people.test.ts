@@ -20,8 +20,8 @@ beforeAll(async () => {
 });
 
 function asMaren(method: 'get' | 'patch', path: string) {
-  const r = request(app)
-    [method](path)
+  const agent = request(app);
+  const r = (method === 'get' ? agent.get(path) : agent.patch(path))
     .set('Cookie', maren.cookie)
     .set('User-Agent', TEST_USER_AGENT);
   return method === 'get' ? r : r.set('X-CSRF-Token', maren.csrfToken);
