@@ -498,7 +498,9 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
   added.cabinets = newCabinets.length;
   added.banks = newBanks.length;
 
-  // spares, by code; dates are fixed, so which are overdue depends on the day you look
+  // spares, by code. Their dates count back from the day of seeding, so the demo always has
+  // about a third of its spares overdue for reforming, whenever it is started.
+  const today = iso(now);
   const takenSpares = await existingKeys('SELECT lower(code) AS key FROM spares', transaction);
   const spareRandom = generator(7_331);
   const newSpares: Row[] = [];
@@ -516,11 +518,17 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
   spareSeeds.forEach((spare, index) => {
     const code = `BRK-SP-${String(index + 1).padStart(3, '0')}`;
     const site = SITES[index % SITES.length]!;
-    const storageStartedOn = addDays('2022-01-10', Math.floor(spareRandom() * 1200));
     const film = spare.designCode?.startsWith('FI');
-    const reformed = spareRandom() < 0.5;
-    const lastReformedOn = reformed ? addDays(storageStartedOn, 200 + Math.floor(spareRandom() * 500)) : null;
     const reformingIntervalDays = film ? 1825 : spare.kind === 'drive' ? 730 : 365;
+    const overdue = index % 3 === 0 && !film;
+    // days since the last reforming (or, never reformed, since it went into store)
+    const sinceLast = overdue
+      ? reformingIntervalDays + 10 + Math.floor(spareRandom() * 200)
+      : 20 + Math.floor(spareRandom() * (reformingIntervalDays - 60));
+    const reformed = spareRandom() < 0.5;
+    const lastEvent = addDays(today, -sinceLast);
+    const storageStartedOn = reformed ? addDays(lastEvent, -(200 + Math.floor(spareRandom() * 600))) : lastEvent;
+    const lastReformedOn = reformed ? lastEvent : null;
     if (takenSpares.has(code.toLowerCase())) return;
     const design = spare.designCode ? designByCode.get(spare.designCode.toLowerCase()) : undefined;
     const row = {

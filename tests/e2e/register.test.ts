@@ -218,6 +218,33 @@ describe('the register (technician)', () => {
   });
 });
 
+describe('the register on a phone (planner)', () => {
+  it('when a planner opens the forms, a bank and the import on a 390 px screen, then nothing is wider than the screen', async () => {
+    const { page } = await browser(PHONE_VIEWPORT);
+    const console = watchConsole(page);
+    const fits = () => page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth);
+    await signIn(page, 'tomas', 'tidewater-plan', { returnTo: '/register/cabinets/new' });
+    await page.getByRole('button', { name: 'Add cabinet' }).waitFor();
+    expect(await fits()).toBe(true);
+    await screenshot(page, 'register-cabinet-form-phone');
+
+    await page.goto(`${baseUrl}/register/banks?q=BRK-M3`);
+    await page.getByRole('list', { name: 'Banks' }).getByRole('link').first().click();
+    await page.getByTestId('baseline').waitFor();
+    expect(await fits()).toBe(true);
+    await screenshot(page, 'register-bank-phone');
+
+    await page.goto(`${baseUrl}/register/cabinets/import`);
+    await page.getByTestId('import-file').setInputFiles(
+      csvFile('hollin-additions.csv', ['H,Silo top,BRK-H2-VFD-101,,,,four hundred,,,,,,,', 'X,Silo top,BRK-H2-VFD-102,,,,400,,,,,,,']),
+    );
+    await page.getByTestId('import-problems').waitFor();
+    expect(await page.getByTestId('import-problem').count()).toBe(2);
+    await screenshot(page, 'register-import-phone');
+    expect(console.problems).toEqual([]);
+  });
+});
+
 describe('the register (reliability engineer)', () => {
   it('when a reliability engineer changes a design’s watch limit, then it becomes a new revision and the old one stays', async () => {
     const { page } = await browser();

@@ -3,7 +3,7 @@
 const number = (value: number, digits: number) =>
   value.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 });
 
-/** 7050 → "7 050 µF"; 0.82 → "0.82 µF"; 15 000 → "15.0 mF" is avoided: µF is the trade's unit. */
+/** 7050 → "7,050 µF"; 0.82 → "0.82 µF". Always µF, the unit nameplates and meters use. */
 export function formatMicrofarads(value: number | null | undefined): string {
   if (value == null) return '';
   return `${number(value, value < 10 ? 2 : 0)} µF`;

@@ -1,5 +1,5 @@
-import type { ReactNode } from 'react';
-import { Navigate, NavLink, Route, Routes, useParams, useSearchParams } from 'react-router';
+import { useEffect, useRef, type ReactNode } from 'react';
+import { Navigate, NavLink, Route, Routes, useLocation, useParams, useSearchParams } from 'react-router';
 import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
 import { AreaEditScreen, AreaNewScreen, AreaPage } from '../../features/register/components/area-page';
@@ -24,8 +24,14 @@ const TABS = [
 ] as const;
 
 function Tabs() {
+  const nav = useRef<HTMLElement>(null);
+  const { pathname } = useLocation();
+  // on a phone the tabs scroll sideways: keep the open one in sight
+  useEffect(() => {
+    nav.current?.querySelector('[aria-current="page"]')?.scrollIntoView({ block: 'nearest', inline: 'center' });
+  }, [pathname]);
   return (
-    <nav aria-label="Register" className="-mx-4 mb-5 overflow-x-auto border-b border-tide-100 px-4 sm:mx-0 sm:px-0">
+    <nav ref={nav} aria-label="Register" className="-mx-4 mb-5 overflow-x-auto border-b border-tide-100 px-4 sm:mx-0 sm:px-0">
       <ul className="flex min-w-max gap-1">
         {TABS.map((tab) => (
           <li key={tab.to}>

@@ -31,17 +31,17 @@ function ProblemsTable({ preview }: { preview: ImportPreview }) {
         </caption>
         <thead className="bg-tide-50 text-xs uppercase tracking-wide text-tide-600">
           <tr>
-            <th className="px-4 py-2">Row</th>
-            <th className="px-4 py-2">Column</th>
-            <th className="px-4 py-2">Reason</th>
+            <th className="px-3 py-2 sm:px-4">Row</th>
+            <th className="px-3 py-2 sm:px-4">Column</th>
+            <th className="px-3 py-2 sm:px-4">Reason</th>
           </tr>
         </thead>
         <tbody className="divide-y divide-tide-100">
           {preview.problems.map((p, i) => (
             <tr key={`${p.row}-${p.column}-${i}`} data-testid="import-problem" data-row={p.row} data-column={p.column}>
-              <td className="px-4 py-2 font-mono">{p.row}</td>
-              <td className="px-4 py-2 font-mono">{p.column || '—'}</td>
-              <td className="px-4 py-2">{p.reason}</td>
+              <td className="px-3 py-2 font-mono sm:px-4">{p.row}</td>
+              <td className="whitespace-nowrap px-3 py-2 font-mono sm:px-4">{p.column || '—'}</td>
+              <td className="min-w-40 px-3 py-2 sm:px-4">{p.reason}</td>
             </tr>
           ))}
         </tbody>
@@ -69,7 +69,7 @@ function RowsTable({ preview }: { preview: ImportPreview }) {
         </thead>
         <tbody className="divide-y divide-tide-100">
           {shown.map((r) => (
-            <tr key={r.row} className={r.problems.length ? 'bg-eol-600/5' : ''}>
+            <tr key={r.row} className={`whitespace-nowrap ${r.problems.length ? 'bg-eol-600/5' : ''}`}>
               <td className="px-3 py-2 font-mono">{r.row}</td>
               <td className="px-3 py-2 font-mono">{r.tag}</td>
               <td className="px-3 py-2">{r.siteCode}</td>
@@ -78,7 +78,7 @@ function RowsTable({ preview }: { preview: ImportPreview }) {
               </td>
               <td className="px-3 py-2">{[r.values.drive_make, r.values.drive_model].filter(Boolean).join(' ')}</td>
               <td className="px-3 py-2">{r.values.supply_volts}</td>
-              <td className="px-3 py-2">
+              <td className="min-w-64 whitespace-normal px-3 py-2">
                 {r.problems.length ? (
                   <span className="text-eol-600">{r.problems.map((p) => `${p.column}: ${p.reason}`).join('; ')}</span>
                 ) : (
