@@ -78,7 +78,8 @@ async function assertAreaNameFree(siteId: string, name: string, exceptId: string
  */
 export async function createArea(input: AreaData, actor: AuthUser): Promise<Area> {
   const id = await sequelize.transaction(async (transaction) => {
-    const site = await Site.findByPk(input.siteId, { transaction });
+    // FOR SHARE: waits for a retirement of the site under way, and holds one off meanwhile
+    const site = await Site.findByPk(input.siteId, { transaction, lock: transaction.LOCK.SHARE });
     if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
     await assertAreaNameFree(input.siteId, input.name, null, transaction);
     const area = await Area.create(input, { transaction });

@@ -193,7 +193,8 @@ async function lockBankInService(id: string, version: number, transaction: Trans
  */
 export async function createBank(input: BankData, actor: AuthUser): Promise<Bank> {
   const id = await sequelize.transaction(async (transaction) => {
-    const cabinet = await Cabinet.findByPk(input.cabinetId, { transaction });
+    // FOR SHARE: waits for a retirement of the cabinet under way, and holds one off meanwhile
+    const cabinet = await Cabinet.findByPk(input.cabinetId, { transaction, lock: transaction.LOCK.SHARE });
     if (!cabinet || cabinet.retiredAt) throw fieldProblem('cabinetId', 'This cabinet does not exist or is retired.');
     const { current } = await designInUse(input.bankDesignId, transaction);
     await assertPositionFree(input.cabinetId, input.position, null, transaction);

@@ -115,7 +115,8 @@ export async function getCabinet(id: string, transaction?: Transaction): Promise
 
 /** The area a cabinet goes into: it must exist and be in use. */
 async function areaInUse(areaId: string, transaction: Transaction): Promise<Area> {
-  const area = await Area.findByPk(areaId, { include: [{ model: Site, as: 'site' }], transaction });
+  // FOR SHARE: waits for a retirement of the area under way, and holds one off meanwhile
+  const area = await Area.findByPk(areaId, { include: [{ model: Site, as: 'site' }], transaction, lock: { level: transaction.LOCK.SHARE, of: Area } });
   if (!area || area.retiredAt || area.site?.retiredAt) throw fieldProblem('areaId', 'This area does not exist or is retired.');
   return area;
 }
