@@ -259,5 +259,17 @@ describe('the register (reliability engineer)', () => {
     expect(await revisions.textContent()).toContain('Revision 1');
     expect(await revisions.textContent()).toContain('Tighter watch after the fleet review');
     await screenshot(page, 'register-design-desktop');
+
+    // what the engineer reads elsewhere in the register
+    await page.goto(`${baseUrl}/register/cabinets`);
+    await page.getByTestId('list-total').filter({ hasText: /of [\d,]+/ }).waitFor();
+    await screenshot(page, 'register-cabinets-desktop');
+    await page.goto(`${baseUrl}/register/banks`);
+    await page.getByTestId('list-total').filter({ hasText: /of [\d,]+/ }).waitFor();
+    await screenshot(page, 'register-banks-desktop');
+    await page.goto(`${baseUrl}/register/spares?overdue=true`);
+    await page.getByTestId('table-row').first().getByRole('link').click();
+    await page.getByText('Reforming due').first().waitFor();
+    await screenshot(page, 'register-spare-desktop');
   });
 });

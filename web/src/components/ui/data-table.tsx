@@ -91,7 +91,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
                           key={header.id}
                           scope="col"
                           aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                          className="whitespace-nowrap px-4 py-2.5 font-bold"
+                          className="whitespace-nowrap px-3 py-2.5 font-bold"
                         >
                           {canSort ? (
                             <button
@@ -119,7 +119,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
                     {row.getVisibleCells().map((cell, index) => (
                       <td
                         key={cell.id}
-                        className={`px-4 py-2.5 align-top text-tide-900 ${
+                        className={`px-3 py-2.5 align-top text-tide-900 ${
                           (cell.column.columnDef.meta as { wrap?: boolean } | undefined)?.wrap ? 'min-w-48' : 'whitespace-nowrap'
                         }`}
                       >

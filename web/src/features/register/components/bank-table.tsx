@@ -22,13 +22,13 @@ const cabinetColumn: DataColumn<Bank> = {
 
 const bankColumns: DataColumn<Bank>[] = [
   { id: 'position', header: 'Position', cell: ({ row }) => row.original.position },
+  { id: 'verdict', header: 'Latest verdict', enableSorting: false, cell: ({ row }) => <LatestVerdict verdict={row.original.latestVerdict} /> },
   {
     id: 'design',
     header: 'Design',
     cell: ({ row }) => (
-      <span>
-        <span className="font-mono">{row.original.bankDesignCode}</span>{' '}
-        <span className="text-tide-600">{row.original.technology}</span>
+      <span className="font-mono" title={`${row.original.bankDesignName} (${row.original.technology})`}>
+        {row.original.bankDesignCode}
       </span>
     ),
   },
@@ -42,13 +42,12 @@ const bankColumns: DataColumn<Bank>[] = [
     ),
     enableSorting: false,
     cell: ({ row }) => (
-      <span className="whitespace-nowrap">
+      <span>
         {formatSeconds(row.original.baseline.tauSeconds)} <BaselineSourceBadge source={row.original.baseline.source} />
       </span>
     ),
   },
   { id: 'installedOn', header: 'Installed', cell: ({ row }) => formatCalendarDate(row.original.installedOn) },
-  { id: 'verdict', header: 'Latest verdict', enableSorting: false, cell: ({ row }) => <LatestVerdict verdict={row.original.latestVerdict} /> },
   { id: 'status', header: 'Status', cell: ({ row }) => <BankStatusBadge status={row.original.status} /> },
 ];
 

@@ -100,7 +100,7 @@ export function ListToolbar({ search, children, action }: { search: ReactNode; c
   return (
     <div className="mb-3 space-y-2">
       <div className="flex flex-col gap-2 sm:flex-row sm:flex-wrap sm:items-center sm:justify-between">
-        <div className="flex gap-2">
+        <div className="flex gap-2 sm:w-80">
           <div className="min-w-0 flex-1">{search}</div>
           {children ? (
             <button
