@@ -13,7 +13,8 @@ import crypto from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import type { CapacitorTechnology } from '../../shared/constants/health';
 import type { Criticality } from '../../shared/constants/register';
-import { defaultDesignLimits, nominalBankCapacitanceMicrofarads, nominalTauSeconds } from '../../shared/schemas/bank-design';
+import { defaultDesignLimits } from '../../shared/schemas/bank-design';
+import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../shared/domain/capacitance';
 import { reformingDueOn } from '../../shared/schemas/spare';
 import { sequelize } from '../../api/src/db/sequelize';
 import { User } from '../../api/src/models/user';
@@ -377,9 +378,9 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
 
       for (let b = 0; b < bankCount; b += 1) {
         const design = designByCode.get(bankDesigns[b]!.toLowerCase())!;
-        const capacitance = nominalBankCapacitanceMicrofarads(design.unitCapacitanceMicrofarads, design.seriesCount, design.parallelCount);
+        const capacitance = bankCapacitanceMicrofarads(design);
         const nameplate = {
-          baselineTauSeconds: nominalTauSeconds(design.bleederOhms, capacitance),
+          baselineTauSeconds: tauSecondsOf(design.bleederOhms, capacitance),
           baselineCapacitanceMicrofarads: capacitance,
           baselineSource: 'nameplate',
           baselineSetAt: now,
@@ -433,7 +434,7 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
             baselineDesignVersionId: null,
             baselineNote: 'Commissioning measurement',
           };
-          measured.baselineTauSeconds = Math.round(nominalTauSeconds(design.bleederOhms, measured.baselineCapacitanceMicrofarads) * 10) / 10;
+          measured.baselineTauSeconds = Math.round(tauSecondsOf(design.bleederOhms, measured.baselineCapacitanceMicrofarads) * 10) / 10;
           newBanks.push(measured);
           audit.push(auditRow('bank', bank.id, 'create', plannerActor, `Added bank ${bank.position} to cabinet ${tag}`, null, pick(bank, BANK_AUDITED)));
           baselineAudits.push(auditRow('bank', bank.id, 'baseline', engineerActor, `Set the baseline of bank ${bank.position} by hand`, pick(bank, BANK_AUDITED), pick(measured, BANK_AUDITED)));

@@ -120,33 +120,6 @@ export function defaultDesignLimits(technology: CapacitorTechnology): {
   return { ...DEFAULT_HEALTH_LIMITS[technology], inspectionIntervalDays: DEFAULT_INSPECTION_INTERVAL_DAYS };
 }
 
-/**
- * Nominal capacitance of a bank, microfarads: C_bank = p × C_unit / s (DOMAIN.md).
- *
- * @param unitCapacitanceMicrofarads - one can, µF
- * @param seriesCount - cans in series per string (s ≥ 1)
- * @param parallelCount - strings in parallel (p ≥ 1)
- * @example nominalBankCapacitanceMicrofarads(4700, 2, 3) // 7050
- */
-export function nominalBankCapacitanceMicrofarads(
-  unitCapacitanceMicrofarads: number,
-  seriesCount: number,
-  parallelCount: number,
-): number {
-  return (parallelCount * unitCapacitanceMicrofarads) / seriesCount;
-}
-
-/**
- * Nominal time constant of a bank discharging through its bleeder, seconds: τ = R × C.
- *
- * @param bleederOhms - bleeder resistance across the bus, Ω
- * @param capacitanceMicrofarads - bank capacitance, µF
- * @example nominalTauSeconds(47_000, 7050) // ≈ 331.4
- */
-export function nominalTauSeconds(bleederOhms: number, capacitanceMicrofarads: number): number {
-  return bleederOhms * capacitanceMicrofarads * 1e-6;
-}
-
 /** Rated voltage of the bank (the series string), volts: s × V_unit. */
 export function bankRatedVolts(unitRatedVolts: number, seriesCount: number): number {
   return unitRatedVolts * seriesCount;

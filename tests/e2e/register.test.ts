@@ -158,11 +158,14 @@ describe('the register (planner)', () => {
     await signIn(page, 'tomas', 'tidewater-plan', { returnTo: '/register/cabinets?q=BRK-H2-VFD-001' });
     await page.getByRole('link', { name: 'BRK-H2-VFD-001' }).first().click();
     await page.getByRole('heading', { name: 'BRK-H2-VFD-001' }).waitFor();
+    // the cabinet page speaks of the marked wait time, so it carries the discharge caution
+    expect(await page.getByTestId('discharge-caution').textContent()).toContain('Only qualified persons');
     const cabinetPath = new URL(page.url()).pathname;
     await page.getByRole('link', { name: 'Print label' }).click();
     const label = page.getByTestId('cabinet-label').first();
     await label.waitFor();
     expect(await label.textContent()).toContain('BRK-H2-VFD-001');
+    expect(await label.textContent()).toMatch(/Qualified persons only.*rated meter/);
     expect(await page.getByTestId('label-url').textContent()).toBe(`${baseUrl}${cabinetPath}`);
     const qrWidth = await page.getByTestId('label-qr').first().evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth);
     expect(qrWidth).toBeGreaterThan(0);

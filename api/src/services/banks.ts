@@ -5,10 +5,7 @@
  */
 import { Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import type { BaselineSource } from '../../../shared/constants/register';
-import {
-  nominalBankCapacitanceMicrofarads,
-  nominalTauSeconds,
-} from '../../../shared/schemas/bank-design';
+import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../../shared/domain/capacitance';
 import type { BankData, BankListQuery, BankReplacementData, BankUpdate } from '../../../shared/schemas/bank';
 import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
@@ -130,12 +127,8 @@ export async function getBankLineage(bank: Bank): Promise<Bank[]> {
 
 /** The nameplate baseline of a design revision: C = p × C_unit / s, τ = R_bleed × C. */
 export function nameplateBaseline(version: BankDesignVersion): { tauSeconds: number; capacitanceMicrofarads: number } {
-  const capacitanceMicrofarads = nominalBankCapacitanceMicrofarads(
-    version.unitCapacitanceMicrofarads,
-    version.seriesCount,
-    version.parallelCount,
-  );
-  return { capacitanceMicrofarads, tauSeconds: nominalTauSeconds(version.bleederOhms, capacitanceMicrofarads) };
+  const capacitanceMicrofarads = bankCapacitanceMicrofarads(version);
+  return { capacitanceMicrofarads, tauSeconds: tauSecondsOf(version.bleederOhms, capacitanceMicrofarads) };
 }
 
 function nameplateBaselineFields(version: BankDesignVersion, actor: AuthUser | null, note: string) {

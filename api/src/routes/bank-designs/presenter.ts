@@ -1,17 +1,16 @@
 import {
   bankRatedVolts,
-  nominalBankCapacitanceMicrofarads,
-  nominalTauSeconds,
   type BankDesign as BankDesignJson,
   type BankDesignRevision,
 } from '../../../../shared/schemas/bank-design';
 import type { BankDesign } from '../../models/bank-design';
 import type { BankDesignVersion } from '../../models/bank-design-version';
 import { revisionFieldsOf } from '../../services/bank-designs';
+import { nameplateBaseline } from '../../services/banks';
 
 function nominal(version: BankDesignVersion) {
-  const capacitance = nominalBankCapacitanceMicrofarads(version.unitCapacitanceMicrofarads, version.seriesCount, version.parallelCount);
-  return { nominalCapacitanceMicrofarads: capacitance, nominalTauSeconds: nominalTauSeconds(version.bleederOhms, capacitance) };
+  const { capacitanceMicrofarads, tauSeconds } = nameplateBaseline(version);
+  return { nominalCapacitanceMicrofarads: capacitanceMicrofarads, nominalTauSeconds: tauSeconds };
 }
 
 /** A design with its current revision's fields, as the API returns it. */

@@ -1,5 +1,5 @@
 import type { Bank as BankJson, BankDetail, BankLineageEntry } from '../../../../shared/schemas/bank';
-import { nominalBankCapacitanceMicrofarads } from '../../../../shared/schemas/bank-design';
+import { bankCapacitanceMicrofarads } from '../../../../shared/domain/capacitance';
 import type { Bank } from '../../models/bank';
 
 /** A bank as the API returns it; the query includes its cabinet, area, site and design. */
@@ -18,9 +18,7 @@ export function presentBank(bank: Bank): BankJson {
     bankDesignName: design?.name ?? '',
     technology: current?.technology ?? 'electrolytic',
     designRevision: current?.revision ?? 0,
-    nominalCapacitanceMicrofarads: current
-      ? nominalBankCapacitanceMicrofarads(current.unitCapacitanceMicrofarads, current.seriesCount, current.parallelCount)
-      : 0,
+    nominalCapacitanceMicrofarads: current ? bankCapacitanceMicrofarads(current) : 0,
     position: bank.position,
     serialNumber: bank.serialNumber,
     installedOn: bank.installedOn,

@@ -8,10 +8,9 @@ import {
   bankDesignFormSchema,
   bankRatedVolts,
   defaultDesignLimits,
-  nominalBankCapacitanceMicrofarads,
-  nominalTauSeconds,
   type BankDesign,
 } from '../../../../../shared/schemas/bank-design';
+import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../../../../shared/domain/capacitance';
 import { Field, Select, TextArea, TextInput, UnitInput } from '../../../components/ui/field';
 import { formatMicrofarads, formatSeconds, formatVolts } from '../../../lib/units';
 import { bankDesignsApi } from '../api/bank-designs';
@@ -90,8 +89,12 @@ export function BankDesignForm({ design, onSaved, onCancel }: { design?: BankDes
     mutation.reset();
   };
   const [c, s, p, r, v] = useWatch({ control, name: ['unitCapacitanceMicrofarads', 'seriesCount', 'parallelCount', 'bleederOhms', 'unitRatedVolts'] });
-  const nominal = typeof c === 'number' && c > 0 && s > 0 && p > 0 ? nominalBankCapacitanceMicrofarads(c, s, p) : null;
-  const tau = nominal && typeof r === 'number' && r > 0 ? nominalTauSeconds(r, nominal) : null;
+  // the preview waits for whole counts: the engine refuses half a can
+  const nominal =
+    typeof c === 'number' && c > 0 && Number.isInteger(s) && s > 0 && Number.isInteger(p) && p > 0
+      ? bankCapacitanceMicrofarads({ unitCapacitanceMicrofarads: c, seriesCount: s, parallelCount: p })
+      : null;
+  const tau = nominal && typeof r === 'number' && r > 0 ? tauSecondsOf(r, nominal) : null;
   const e = formState.errors;
   const num = { setValueAs: asNumber };
   return (

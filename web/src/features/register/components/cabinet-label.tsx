@@ -43,10 +43,11 @@ function LabelCard({ cabinet: c, label }: { cabinet: Cabinet; label: CabinetLabe
         <div className="mt-auto" style={{ border: '0.5mm solid #000', padding: '1.2mm 1.5mm', fontSize: '2.7mm', lineHeight: 1.25 }}>
           <p className="font-bold">⚠ Stored energy in the DC link</p>
           <p>
+            Qualified persons only. Lock out and tag out.{' '}
             {c.markedWaitMinutes !== null
               ? `Wait at least ${c.markedWaitMinutes} min after isolation (maker's marking),`
               : "Wait at least the maker's marked time after isolation,"}{' '}
-            then verify absence of voltage.
+            then verify absence of voltage with a rated meter. Local codes apply.
           </p>
         </div>
       </div>

@@ -1,4 +1,5 @@
 import { useNavigate } from 'react-router';
+import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import type { Cabinet } from '../../../../../shared/schemas/cabinet';
 import { Badge } from '../../../components/ui/badge';
 import { ButtonLink } from '../../../components/ui/button';
@@ -80,9 +81,9 @@ export function CabinetPage({ cabinetId }: { cabinetId: string }) {
           <p className="text-sm text-tide-800">
             No visits recorded yet. Once the Planner schedules visits to this cabinet, their decay runs, photos and notes show here.
           </p>
-          <p className="mt-3 rounded-lg bg-spark-300/30 px-3 py-2 text-sm text-tide-900">
-            Before opening: isolate, lock out, wait at least the marked time, and verify absence of voltage with a rated meter.
-          </p>
+          <div className="mt-3">
+            <DischargeCaution compact />
+          </div>
         </Card>
       </div>
       <Card title="DC-link banks">
