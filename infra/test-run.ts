@@ -39,6 +39,7 @@ function summarise(): { passed: number; failed: number; skipped: number } {
 }
 
 let exitCode = 1;
+let closingLine = '0 passed, 1 failed';
 try {
   await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production', build: { outDir: webDistDir } });
 
@@ -60,12 +61,14 @@ try {
   );
   const { passed, failed, skipped } = summarise();
   exitCode = vitest.status === 0 && failed === 0 ? 0 : 1;
-  console.log(`\n${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+  closingLine = `${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`;
 } catch (err) {
   console.error(`[test] ${err instanceof Error ? err.message : String(err)}`);
-  console.log('\n0 passed, 1 failed');
 } finally {
   stopCluster(cluster);
   fs.rmSync(cluster.dataDir, { recursive: true, force: true });
+  fs.rmSync(webDistDir, { recursive: true, force: true });
 }
+// CI reads the last line of the output: nothing may follow it
+console.log(`\n${closingLine}`);
 process.exit(exitCode);
