@@ -7,18 +7,9 @@ import { Area } from '../models/area';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
 import type { AuthUser } from '../types/express';
-import { recordAudit } from './audit';
-import { AREA_AUDITED } from './audited-fields';
-import {
-  changedFields,
-  containsPattern,
-  duplicateValue,
-  fieldProblem,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { recordCreation, saveChange } from './audited-change';
+import { AREA_TRAIL } from './audited-fields';
+import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 
 
 const CABINET_COUNT = [
@@ -83,18 +74,7 @@ export async function createArea(input: AreaData, actor: AuthUser): Promise<Area
     if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
     await assertAreaNameFree(input.siteId, input.name, null, transaction);
     const area = await Area.create(input, { transaction });
-    await recordAudit(
-      {
-        entityType: 'area',
-        entityId: area.id,
-        action: 'create',
-        actor,
-        summary: `Added area ${area.name} to ${site.name}`,
-        before: null,
-        after: snapshotOf(area, AREA_AUDITED),
-      },
-      transaction,
-    );
+    await recordCreation(AREA_TRAIL, area, actor, `Added area ${area.name} to ${site.name}`, transaction);
     return area.id;
   });
   return getArea(id);
@@ -108,13 +88,7 @@ export async function updateArea(id: string, input: AreaUpdate, actor: AuthUser)
     const changes = changedFields(area, fields);
     if (Object.keys(changes).length === 0) return;
     if (changes.name !== undefined) await assertAreaNameFree(area.siteId, changes.name, id, transaction);
-    const before = snapshotOf(area, AREA_AUDITED);
-    area.set({ ...changes, version: area.version + 1 });
-    await area.save({ transaction });
-    await recordAudit(
-      { entityType: 'area', entityId: id, action: 'update', actor, summary: `Changed area ${area.name}`, before, after: snapshotOf(area, AREA_AUDITED) },
-      transaction,
-    );
+    await saveChange(AREA_TRAIL, area, changes, { action: 'update', actor, summary: (a) => `Changed area ${a.name}` }, transaction);
   });
   return getArea(id);
 }
@@ -127,11 +101,11 @@ export async function retireArea(id: string, version: number, actor: AuthUser): 
     if (inUse > 0) {
       throw new AppError('in-use', 409, `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
     }
-    const before = snapshotOf(area, AREA_AUDITED);
-    area.set({ retiredAt: new Date(), version: area.version + 1 });
-    await area.save({ transaction });
-    await recordAudit(
-      { entityType: 'area', entityId: id, action: 'retire', actor, summary: `Retired area ${area.name}`, before, after: snapshotOf(area, AREA_AUDITED) },
+    await saveChange(
+      AREA_TRAIL,
+      area,
+      { retiredAt: new Date() },
+      { action: 'retire', actor, summary: (a) => `Retired area ${a.name}` },
       transaction,
     );
   });

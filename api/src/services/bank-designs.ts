@@ -19,17 +19,9 @@ import { BankDesign } from '../models/bank-design';
 import { BankDesignVersion } from '../models/bank-design-version';
 import { User } from '../models/user';
 import type { AuthUser } from '../types/express';
-import { recordAudit } from './audit';
+import { recordCreation, saveChange, type AuditedKind } from './audited-change';
 import { BANK_DESIGN_AUDITED } from './audited-fields';
-import {
-  containsPattern,
-  duplicateValue,
-  fieldProblem,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs, snapshotOf } from './register-records';
 
 const BANK_COUNT = [
   literal(`(SELECT count(*)::int FROM banks b WHERE b.bank_design_id = "BankDesign"."id" AND b.status = 'in-service')`),
@@ -45,9 +37,20 @@ export function revisionFieldsOf(version: BankDesignVersion): BankDesignRevision
   return out as unknown as BankDesignRevisionFields;
 }
 
-/** A design's identity and current revision together, as the audit trail keeps it. */
-function designSnapshot(design: BankDesign, version: BankDesignVersion): Record<string, unknown> {
-  return { ...snapshotOf(design, BANK_DESIGN_AUDITED), revision: version.revision, ...revisionFieldsOf(version) };
+/**
+ * Designs as the audit trail keeps them: identity and current revision together. The current
+ * revision is the one of `revisions` that the design's `currentVersionId` names, so a change
+ * that makes a new revision current shows the old one before and the new one after.
+ */
+function designTrail(...revisions: BankDesignVersion[]): AuditedKind<BankDesign> {
+  return {
+    entityType: 'bank-design',
+    snapshot: (design) => {
+      const version = revisions.find((r) => r.id === design.currentVersionId);
+      if (!version) throw new Error(`bank design ${design.id}: revision ${design.currentVersionId} not loaded`);
+      return { ...snapshotOf(design, BANK_DESIGN_AUDITED), revision: version.revision, ...revisionFieldsOf(version) };
+    },
+  };
 }
 
 /** One page of designs matching the query, with the total. */
@@ -127,18 +130,7 @@ export async function createBankDesign(input: BankDesignData, actor: AuthUser): 
     );
     design.set({ currentVersionId: revision.id });
     await design.save({ transaction });
-    await recordAudit(
-      {
-        entityType: 'bank-design',
-        entityId: design.id,
-        action: 'create',
-        actor,
-        summary: `Added bank design ${design.code}`,
-        before: null,
-        after: designSnapshot(design, revision),
-      },
-      transaction,
-    );
+    await recordCreation(designTrail(revision), design, actor, `Added bank design ${design.code}`, transaction);
     return design.id;
   });
   return getBankDesign(id);
@@ -155,7 +147,6 @@ export async function updateBankDesign(id: string, input: BankDesignUpdate, acto
     const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
     const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
     if (!current) throw new Error(`bank design ${id} has no current revision`);
-    const before = designSnapshot(design, current);
 
     const currentFields = revisionFieldsOf(current);
     const merged = { ...currentFields };
@@ -184,19 +175,17 @@ export async function updateBankDesign(id: string, input: BankDesignUpdate, acto
         { transaction },
       );
     }
-    design.set({ ...identity, currentVersionId: revision.id, version: design.version + 1 });
-    await design.save({ transaction });
-    await recordAudit(
+    await saveChange(
+      designTrail(current, revision),
+      design,
+      { ...identity, currentVersionId: revision.id },
       {
-        entityType: 'bank-design',
-        entityId: id,
         action: 'update',
         actor,
-        summary: technicalChange
-          ? `Made revision ${revision.revision} of bank design ${design.code}${changeNote ? `: ${changeNote}` : ''}`
-          : `Changed bank design ${design.code}`,
-        before,
-        after: designSnapshot(design, revision),
+        summary: (changed) =>
+          technicalChange
+            ? `Made revision ${revision.revision} of bank design ${changed.code}${changeNote ? `: ${changeNote}` : ''}`
+            : `Changed bank design ${changed.code}`,
       },
       transaction,
     );
@@ -214,11 +203,11 @@ export async function retireBankDesign(id: string, version: number, actor: AuthU
     }
     const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
     if (!current) throw new Error(`bank design ${id} has no current revision`);
-    const before = designSnapshot(design, current);
-    design.set({ retiredAt: new Date(), version: design.version + 1 });
-    await design.save({ transaction });
-    await recordAudit(
-      { entityType: 'bank-design', entityId: id, action: 'retire', actor, summary: `Retired bank design ${design.code}`, before, after: designSnapshot(design, current) },
+    await saveChange(
+      designTrail(current),
+      design,
+      { retiredAt: new Date() },
+      { action: 'retire', actor, summary: (changed) => `Retired bank design ${changed.code}` },
       transaction,
     );
   });

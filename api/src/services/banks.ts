@@ -18,17 +18,9 @@ import { Site } from '../models/site';
 import { User } from '../models/user';
 import type { AuthUser } from '../types/express';
 import { recordAudit } from './audit';
-import { BANK_AUDITED } from './audited-fields';
-import {
-  changedFields,
-  containsPattern,
-  duplicateValue,
-  fieldProblem,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { recordCreation, saveChange } from './audited-change';
+import { BANK_TRAIL } from './audited-fields';
+import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 
 /** Everything a bank's answer shows: cabinet, area, site, design and who set the baseline. */
 function bankIncludes(siteId?: string): Includeable[] {
@@ -201,18 +193,7 @@ export async function createBank(input: BankData, actor: AuthUser): Promise<Bank
       },
       { transaction },
     );
-    await recordAudit(
-      {
-        entityType: 'bank',
-        entityId: bank.id,
-        action: 'create',
-        actor,
-        summary: `Added bank ${bank.position} to cabinet ${cabinet.tag}`,
-        before: null,
-        after: snapshotOf(bank, BANK_AUDITED),
-      },
-      transaction,
-    );
+    await recordCreation(BANK_TRAIL, bank, actor, `Added bank ${bank.position} to cabinet ${cabinet.tag}`, transaction);
     return bank.id;
   });
   return getBank(id);
@@ -237,13 +218,7 @@ export async function updateBank(id: string, input: BankUpdate, actor: AuthUser)
         Object.assign(changes, nameplateBaselineFields(current, actor, 'Design corrected'));
       }
     }
-    const before = snapshotOf(bank, BANK_AUDITED);
-    bank.set({ ...changes, version: bank.version + 1 });
-    await bank.save({ transaction });
-    await recordAudit(
-      { entityType: 'bank', entityId: id, action: 'update', actor, summary: `Changed bank ${bank.position}`, before, after: snapshotOf(bank, BANK_AUDITED) },
-      transaction,
-    );
+    await saveChange(BANK_TRAIL, bank, changes, { action: 'update', actor, summary: (b) => `Changed bank ${b.position}` }, transaction);
   });
   return getBank(id);
 }
@@ -252,11 +227,11 @@ export async function updateBank(id: string, input: BankUpdate, actor: AuthUser)
 export async function retireBank(id: string, version: number, actor: AuthUser): Promise<Bank> {
   await sequelize.transaction(async (transaction) => {
     const bank = await lockBankInService(id, version, transaction);
-    const before = snapshotOf(bank, BANK_AUDITED);
-    bank.set({ status: 'removed', retiredAt: new Date(), version: bank.version + 1 });
-    await bank.save({ transaction });
-    await recordAudit(
-      { entityType: 'bank', entityId: id, action: 'retire', actor, summary: `Removed bank ${bank.position}`, before, after: snapshotOf(bank, BANK_AUDITED) },
+    await saveChange(
+      BANK_TRAIL,
+      bank,
+      { status: 'removed', retiredAt: new Date() },
+      { action: 'retire', actor, summary: (b) => `Removed bank ${b.position}` },
       transaction,
     );
   });
@@ -283,15 +258,15 @@ export interface BaselineChange {
 export async function setBankBaseline(id: string, change: BaselineChange, actor: AuthUser): Promise<Bank> {
   await sequelize.transaction(async (transaction) => {
     const bank = await lockBankInService(id, change.version, transaction);
-    const before = snapshotOf(bank, BANK_AUDITED);
+    let baseline: object;
     if (change.source === 'nameplate') {
       const { current } = await designInUse(bank.bankDesignId, transaction);
-      bank.set(nameplateBaselineFields(current, actor, change.note));
+      baseline = nameplateBaselineFields(current, actor, change.note);
     } else {
       if (!change.tauSeconds) throw fieldProblem('tauSeconds', 'Enter the baseline τ in seconds.');
       if (!change.capacitanceMicrofarads) throw fieldProblem('capacitanceMicrofarads', 'Enter the baseline capacitance in µF.');
       if (change.source === 'decay-run' && !change.decayRunId) throw fieldProblem('decayRunId', 'Name the trusted decay run.');
-      bank.set({
+      baseline = {
         baselineTauSeconds: change.tauSeconds,
         baselineCapacitanceMicrofarads: change.capacitanceMicrofarads,
         baselineSource: change.source,
@@ -300,19 +275,17 @@ export async function setBankBaseline(id: string, change: BaselineChange, actor:
         baselineDesignVersionId: null,
         baselineDecayRunId: change.source === 'decay-run' ? (change.decayRunId ?? null) : null,
         baselineNote: change.note,
-      });
+      };
     }
-    bank.set({ version: bank.version + 1 });
-    await bank.save({ transaction });
-    await recordAudit(
+    await saveChange(
+      BANK_TRAIL,
+      bank,
+      baseline,
       {
-        entityType: 'bank',
-        entityId: id,
         action: 'baseline',
         actor,
-        summary: `Set the baseline of bank ${bank.position} ${change.source === 'nameplate' ? 'from the nameplate' : change.source === 'manual' ? 'by hand' : 'from a decay run'}`,
-        before,
-        after: snapshotOf(bank, BANK_AUDITED),
+        summary: (b) =>
+          `Set the baseline of bank ${b.position} ${change.source === 'nameplate' ? 'from the nameplate' : change.source === 'manual' ? 'by hand' : 'from a decay run'}`,
       },
       transaction,
     );
@@ -333,7 +306,7 @@ export async function replaceBank(id: string, input: BankReplacementData, actor:
       throw fieldProblem('installedOn', `The new bank cannot go in before the old one did (${old.installedOn}).`);
     }
     const { current } = await designInUse(input.bankDesignId ?? old.bankDesignId, transaction);
-    const before = snapshotOf(old, BANK_AUDITED);
+    const before = BANK_TRAIL.snapshot(old);
     old.set({ status: 'replaced', replacedOn: input.installedOn, version: old.version + 1 });
     await old.save({ transaction });
     const successor = await Bank.create(
@@ -361,22 +334,11 @@ export async function replaceBank(id: string, input: BankReplacementData, actor:
         actor,
         summary: `Replaced bank ${old.position} on ${input.installedOn}${input.note ? `: ${input.note}` : ''}`,
         before,
-        after: snapshotOf(old, BANK_AUDITED),
+        after: BANK_TRAIL.snapshot(old),
       },
       transaction,
     );
-    await recordAudit(
-      {
-        entityType: 'bank',
-        entityId: successor.id,
-        action: 'create',
-        actor,
-        summary: `Installed bank ${successor.position} in place of the replaced one`,
-        before: null,
-        after: snapshotOf(successor, BANK_AUDITED),
-      },
-      transaction,
-    );
+    await recordCreation(BANK_TRAIL, successor, actor, `Installed bank ${successor.position} in place of the replaced one`, transaction);
     return successor.id;
   });
   return getBank(newId);

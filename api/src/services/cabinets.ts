@@ -10,18 +10,10 @@ import { Bank } from '../models/bank';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
 import type { AuthUser } from '../types/express';
-import { recordAudit, recordAuditBatch } from './audit';
-import { BANK_AUDITED, CABINET_AUDITED } from './audited-fields';
-import {
-  changedFields,
-  containsPattern,
-  duplicateValue,
-  fieldProblem,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { recordAuditBatch, type AuditRecordInput } from './audit';
+import { applyChange, recordCreation, saveChange } from './audited-change';
+import { BANK_TRAIL, CABINET_TRAIL } from './audited-fields';
+import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 
 
 const BANK_COUNT = [
@@ -142,18 +134,7 @@ export async function createCabinet(input: CabinetData, actor: AuthUser): Promis
       throw duplicateValue('tag', `${input.tag} is already in the register.`);
     }
     const cabinet = await Cabinet.create(input, { transaction });
-    await recordAudit(
-      {
-        entityType: 'cabinet',
-        entityId: cabinet.id,
-        action: 'create',
-        actor,
-        summary: `Added cabinet ${cabinet.tag} to ${area.name}`,
-        before: null,
-        after: snapshotOf(cabinet, CABINET_AUDITED),
-      },
-      transaction,
-    );
+    await recordCreation(CABINET_TRAIL, cabinet, actor, `Added cabinet ${cabinet.tag} to ${area.name}`, transaction);
     return cabinet.id;
   });
   return getCabinet(id);
@@ -170,13 +151,7 @@ export async function updateCabinet(id: string, input: CabinetUpdate, actor: Aut
     if (changes.tag !== undefined && (await tagInUse(changes.tag, id, transaction))) {
       throw duplicateValue('tag', `${changes.tag} is already in the register.`);
     }
-    const before = snapshotOf(cabinet, CABINET_AUDITED);
-    cabinet.set({ ...changes, version: cabinet.version + 1 });
-    await cabinet.save({ transaction });
-    await recordAudit(
-      { entityType: 'cabinet', entityId: id, action: 'update', actor, summary: `Changed cabinet ${cabinet.tag}`, before, after: snapshotOf(cabinet, CABINET_AUDITED) },
-      transaction,
-    );
+    await saveChange(CABINET_TRAIL, cabinet, changes, { action: 'update', actor, summary: (c) => `Changed cabinet ${c.tag}` }, transaction);
   });
   return getCabinet(id);
 }
@@ -191,33 +166,26 @@ export async function retireCabinet(id: string, version: number, actor: AuthUser
     const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
     const now = new Date();
     const banks = await Bank.findAll({ where: { cabinetId: id, status: 'in-service' }, transaction, lock: transaction.LOCK.UPDATE });
-    const bankEntries = [];
+    const bankEntries: AuditRecordInput[] = [];
     for (const bank of banks) {
-      const before = snapshotOf(bank, BANK_AUDITED);
-      bank.set({ status: 'removed', retiredAt: now, version: bank.version + 1 });
-      await bank.save({ transaction });
-      bankEntries.push({
-        entityType: 'bank' as const,
-        entityId: bank.id,
-        action: 'retire' as const,
-        actor,
-        summary: `Removed bank ${bank.position} with cabinet ${cabinet.tag}`,
-        before,
-        after: snapshotOf(bank, BANK_AUDITED),
-      });
+      bankEntries.push(
+        await applyChange(
+          BANK_TRAIL,
+          bank,
+          { status: 'removed', retiredAt: now },
+          { action: 'retire', actor, summary: (b) => `Removed bank ${b.position} with cabinet ${cabinet.tag}` },
+          transaction,
+        ),
+      );
     }
-    const before = snapshotOf(cabinet, CABINET_AUDITED);
-    cabinet.set({ status: 'retired', retiredAt: now, version: cabinet.version + 1 });
-    await cabinet.save({ transaction });
-    await recordAudit(
+    await saveChange(
+      CABINET_TRAIL,
+      cabinet,
+      { status: 'retired', retiredAt: now },
       {
-        entityType: 'cabinet',
-        entityId: id,
         action: 'retire',
         actor,
-        summary: banks.length ? `Retired cabinet ${cabinet.tag} and removed its ${banks.length} bank(s)` : `Retired cabinet ${cabinet.tag}`,
-        before,
-        after: snapshotOf(cabinet, CABINET_AUDITED),
+        summary: (c) => (banks.length ? `Retired cabinet ${c.tag} and removed its ${banks.length} bank(s)` : `Retired cabinet ${c.tag}`),
       },
       transaction,
     );

@@ -6,17 +6,9 @@ import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Site } from '../models/site';
 import type { AuthUser } from '../types/express';
-import { recordAudit } from './audit';
-import { SITE_AUDITED } from './audited-fields';
-import {
-  changedFields,
-  containsPattern,
-  duplicateValue,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { recordCreation, saveChange } from './audited-change';
+import { SITE_TRAIL } from './audited-fields';
+import { changedFields, containsPattern, duplicateValue, lockForChange, pageWindow, sameTextAs } from './register-records';
 
 
 /** Columns counting a site's areas and cabinets in use, for lists and pages. */
@@ -82,18 +74,7 @@ export async function createSite(input: SiteData, actor: AuthUser): Promise<Site
   const id = await sequelize.transaction(async (transaction) => {
     await assertSiteUnique(input, null, transaction);
     const site = await Site.create(input, { transaction });
-    await recordAudit(
-      {
-        entityType: 'site',
-        entityId: site.id,
-        action: 'create',
-        actor,
-        summary: `Added site ${site.name}`,
-        before: null,
-        after: snapshotOf(site, SITE_AUDITED),
-      },
-      transaction,
-    );
+    await recordCreation(SITE_TRAIL, site, actor, `Added site ${site.name}`, transaction);
     return site.id;
   });
   return getSite(id);
@@ -110,13 +91,7 @@ export async function updateSite(id: string, input: SiteUpdate, actor: AuthUser)
     const changes = changedFields(site, fields);
     if (Object.keys(changes).length === 0) return;
     await assertSiteUnique(changes, id, transaction);
-    const before = snapshotOf(site, SITE_AUDITED);
-    site.set({ ...changes, version: site.version + 1 });
-    await site.save({ transaction });
-    await recordAudit(
-      { entityType: 'site', entityId: id, action: 'update', actor, summary: `Changed site ${site.name}`, before, after: snapshotOf(site, SITE_AUDITED) },
-      transaction,
-    );
+    await saveChange(SITE_TRAIL, site, changes, { action: 'update', actor, summary: (s) => `Changed site ${s.name}` }, transaction);
   });
   return getSite(id);
 }
@@ -132,11 +107,11 @@ export async function retireSite(id: string, version: number, actor: AuthUser): 
     if (areasInUse > 0) {
       throw new AppError('in-use', 409, `${site.name} still has ${areasInUse} area(s) in use. Retire its areas first.`);
     }
-    const before = snapshotOf(site, SITE_AUDITED);
-    site.set({ retiredAt: new Date(), version: site.version + 1 });
-    await site.save({ transaction });
-    await recordAudit(
-      { entityType: 'site', entityId: id, action: 'retire', actor, summary: `Retired site ${site.name}`, before, after: snapshotOf(site, SITE_AUDITED) },
+    await saveChange(
+      SITE_TRAIL,
+      site,
+      { retiredAt: new Date() },
+      { action: 'retire', actor, summary: (s) => `Retired site ${s.name}` },
       transaction,
     );
   });

@@ -7,18 +7,9 @@ import { BankDesign } from '../models/bank-design';
 import { Site } from '../models/site';
 import { Spare } from '../models/spare';
 import type { AuthUser } from '../types/express';
-import { recordAudit } from './audit';
-import { SPARE_AUDITED } from './audited-fields';
-import {
-  changedFields,
-  containsPattern,
-  duplicateValue,
-  fieldProblem,
-  lockForChange,
-  pageWindow,
-  sameTextAs,
-  snapshotOf,
-} from './register-records';
+import { recordCreation, saveChange } from './audited-change';
+import { SPARE_TRAIL } from './audited-fields';
+import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 
 const spareIncludes: Includeable[] = [
   { model: Site, as: 'site', required: true },
@@ -92,10 +83,7 @@ export async function createSpare(input: SpareData, actor: AuthUser): Promise<Sp
       { ...input, reformingDueOn: reformingDueOn(input.storageStartedOn, input.lastReformedOn, input.reformingIntervalDays) },
       { transaction },
     );
-    await recordAudit(
-      { entityType: 'spare', entityId: spare.id, action: 'create', actor, summary: `Added spare ${spare.code}`, before: null, after: snapshotOf(spare, SPARE_AUDITED) },
-      transaction,
-    );
+    await recordCreation(SPARE_TRAIL, spare, actor, `Added spare ${spare.code}`, transaction);
     return spare.id;
   });
   return getSpare(id);
@@ -115,15 +103,14 @@ export async function updateSpare(id: string, input: SpareUpdate, actor: AuthUse
     if (lastReformedOn && lastReformedOn < storageStartedOn) {
       throw fieldProblem('lastReformedOn', 'The last reforming cannot be before the spare went into store.');
     }
-    const before = snapshotOf(spare, SPARE_AUDITED);
-    spare.set({
-      ...changes,
-      reformingDueOn: reformingDueOn(storageStartedOn, lastReformedOn, changes.reformingIntervalDays ?? spare.reformingIntervalDays),
-      version: spare.version + 1,
-    });
-    await spare.save({ transaction });
-    await recordAudit(
-      { entityType: 'spare', entityId: id, action: 'update', actor, summary: `Changed spare ${spare.code}`, before, after: snapshotOf(spare, SPARE_AUDITED) },
+    await saveChange(
+      SPARE_TRAIL,
+      spare,
+      {
+        ...changes,
+        reformingDueOn: reformingDueOn(storageStartedOn, lastReformedOn, changes.reformingIntervalDays ?? spare.reformingIntervalDays),
+      },
+      { action: 'update', actor, summary: (s) => `Changed spare ${s.code}` },
       transaction,
     );
   });
@@ -134,11 +121,11 @@ export async function updateSpare(id: string, input: SpareUpdate, actor: AuthUse
 export async function retireSpare(id: string, version: number, actor: AuthUser): Promise<Spare> {
   await sequelize.transaction(async (transaction) => {
     const spare = await lockForChange(Spare, id, version, 'spare', transaction);
-    const before = snapshotOf(spare, SPARE_AUDITED);
-    spare.set({ retiredAt: new Date(), version: spare.version + 1 });
-    await spare.save({ transaction });
-    await recordAudit(
-      { entityType: 'spare', entityId: id, action: 'retire', actor, summary: `Retired spare ${spare.code}`, before, after: snapshotOf(spare, SPARE_AUDITED) },
+    await saveChange(
+      SPARE_TRAIL,
+      spare,
+      { retiredAt: new Date() },
+      { action: 'retire', actor, summary: (s) => `Retired spare ${s.code}` },
       transaction,
     );
   });

@@ -1,0 +1,90 @@
+/**
+ * The audited write every register record shares: a new record and its `create` entry, or a
+ * change that bumps the record's version, saves it and records its before/after snapshots.
+ * Callers lock the record and make their own checks first (see `lockForChange`).
+ */
+import type { Model, Transaction } from 'sequelize';
+import type { AuditAction, RegisterEntityType } from '../../../shared/constants/register';
+import type { AuthUser } from '../types/express';
+import { recordAudit, type AuditRecordInput } from './audit';
+import { snapshotOf, type VersionedRecord } from './register-records';
+
+/** How one kind of register record is kept in the audit trail. */
+export interface AuditedKind<M extends Model> {
+  entityType: RegisterEntityType;
+  /** The record as its before/after snapshot keeps it. */
+  snapshot: (record: M) => Record<string, unknown>;
+}
+
+/** A kind whose snapshot is its own columns `attributes` (see audited-fields). */
+export function auditedColumns<M extends Model>(entityType: RegisterEntityType, attributes: readonly string[]): AuditedKind<M> {
+  return { entityType, snapshot: (record) => snapshotOf(record, attributes) };
+}
+
+/** What an audited change records besides the snapshots. */
+export interface ChangeEntry<M extends Model> {
+  action: AuditAction;
+  actor: AuthUser;
+  /** The entry's summary, read from the record once changed (so a new name shows). */
+  summary: (changed: M) => string;
+}
+
+/**
+ * Records the `create` entry of a record just added, inside the caller's transaction.
+ *
+ * @param summary - what the trail says, e.g. "Added site Brookfield"
+ */
+export async function recordCreation<M extends Model & { id: string }>(
+  kind: AuditedKind<M>,
+  record: M,
+  actor: AuthUser,
+  summary: string,
+  transaction: Transaction,
+): Promise<void> {
+  await recordAudit(
+    { entityType: kind.entityType, entityId: record.id, action: 'create', actor, summary, before: null, after: kind.snapshot(record) },
+    transaction,
+  );
+}
+
+/**
+ * Applies `changes` to a record with its version bumped by one and saves it, returning the
+ * audit entry (before and after snapshots) for the caller to record, alone or in a batch.
+ *
+ * @param changes - the fields to write (only those differing, see `changedFields`)
+ */
+export async function applyChange<M extends VersionedRecord>(
+  kind: AuditedKind<M>,
+  record: M,
+  changes: object,
+  entry: ChangeEntry<M>,
+  transaction: Transaction,
+): Promise<AuditRecordInput> {
+  const before = kind.snapshot(record);
+  record.set({ ...changes, version: record.version + 1 } as Partial<M['_attributes']>);
+  await record.save({ transaction });
+  return {
+    entityType: kind.entityType,
+    entityId: record.id,
+    action: entry.action,
+    actor: entry.actor,
+    summary: entry.summary(record),
+    before,
+    after: kind.snapshot(record),
+  };
+}
+
+/**
+ * Applies `changes` with the version bumped, saves the record and records the entry, all in
+ * the caller's transaction. A retirement is the change `{ retiredAt: new Date() }` with the
+ * action `retire`.
+ */
+export async function saveChange<M extends VersionedRecord>(
+  kind: AuditedKind<M>,
+  record: M,
+  changes: object,
+  entry: ChangeEntry<M>,
+  transaction: Transaction,
+): Promise<void> {
+  await recordAudit(await applyChange(kind, record, changes, entry, transaction), transaction);
+}
