@@ -4,10 +4,8 @@ import type { BankDesign } from '../../../../../shared/schemas/bank-design';
 import { Badge } from '../../../components/ui/badge';
 import { ButtonLink } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
-import { DataTable, type DataColumn } from '../../../components/ui/data-table';
+import type { DataColumn } from '../../../components/ui/data-table';
 import { DetailList } from '../../../components/ui/detail-list';
-import { ErrorPanel } from '../../../components/ui/error-panel';
-import { SearchInput } from '../../../components/ui/search-input';
 import { Spinner } from '../../../components/ui/spinner';
 import { formatInstant } from '../../../lib/dates';
 import { formatMicrofarads, formatOhms, formatRatio, formatSeconds, formatVolts } from '../../../lib/units';
@@ -16,8 +14,9 @@ import { useListParams } from '../hooks/use-list-params';
 import { AuditTrail } from './audit-trail';
 import { BankDesignForm } from './bank-design-form';
 import { BankTable } from './bank-table';
+import { FlagToggle, ListResults, ListSearch, ParamSelect } from './list-controls';
 import { ReadOnlyNote, useRegisterPermissions } from './permissions';
-import { FilterSelect, ListToolbar, RecordHeader, RecordLoading, RetireButton, RetiredToggle } from './record-parts';
+import { ListToolbar, RecordHeader, RecordLoading, RetireButton } from './record-parts';
 import { Tau } from './status-badges';
 
 const columns: DataColumn<BankDesign>[] = [
@@ -49,50 +48,40 @@ export function BankDesignList() {
   return (
     <section aria-label="Bank designs">
       <ListToolbar
-          search={<SearchInput label="Search designs" placeholder="Code or name" value={params.q ?? ''} onSearch={(q) => update({ q })} />}
+        search={<ListSearch params={params} update={update} label="Search designs" placeholder="Code or name" />}
         action={can.editDesigns ? <ButtonLink to="/register/bank-designs/new" variant="primary">Add bank design</ButtonLink> : undefined}
       >
-        <FilterSelect
+        <ParamSelect
+          params={params}
+          update={update}
+          name="technology"
           label="Technology"
-          value={String(params.technology ?? '')}
-          onChange={(technology) => update({ technology })}
-          options={[{ value: '', label: 'Any' }, ...CAPACITOR_TECHNOLOGIES.map((t) => ({ value: t, label: t }))]}
+          allLabel="Any"
+          options={CAPACITOR_TECHNOLOGIES.map((t) => ({ value: t, label: t }))}
         />
-        <RetiredToggle checked={params.includeRetired === 'true'} onChange={(v) => update({ includeRetired: v ? 'true' : undefined })} />
+        <FlagToggle params={params} update={update} name="includeRetired" />
       </ListToolbar>
-      {designs.isPending ? (
-        <Spinner label="Loading bank designs…" />
-      ) : designs.isError ? (
-        <ErrorPanel title="Bank designs could not be loaded">{designs.error.message}</ErrorPanel>
-      ) : (
-        <DataTable
-          caption="Bank designs"
-          columns={columns}
-          rows={designs.data.items}
-          total={designs.data.total}
-          page={params.page}
-          pageSize={params.pageSize}
-          sort={params.sort}
-          onSortChange={(sort) => update({ sort })}
-          onPageChange={(page) => update({ page })}
-          onPageSizeChange={(pageSize) => update({ pageSize })}
-          rowKey={(d) => d.id}
-          rowHref={(d) => `/register/bank-designs/${d.id}`}
-          loading={designs.isFetching}
-          empty="No bank designs match."
-          card={(d) => (
-            <div>
-              <p className="flex justify-between gap-2 font-bold text-tide-900">
-                <span className="font-mono">{d.code}</span> <Badge tone={d.technology === 'film' ? 'spark' : 'tide'}>{d.technology}</Badge>
-              </p>
-              <p className="text-sm text-tide-800">{d.name}</p>
-              <p className="mt-1 text-sm text-tide-600">
-                {formatMicrofarads(d.nominalCapacitanceMicrofarads)} · watch {formatRatio(d.watchRatio)} · {d.bankCount} banks
-              </p>
-            </div>
-          )}
-        />
-      )}
+      <ListResults
+        query={designs}
+        params={params}
+        update={update}
+        caption="Bank designs"
+        columns={columns}
+        rowKey={(d) => d.id}
+        rowHref={(d) => `/register/bank-designs/${d.id}`}
+        empty="No bank designs match."
+        card={(d) => (
+          <div>
+            <p className="flex justify-between gap-2 font-bold text-tide-900">
+              <span className="font-mono">{d.code}</span> <Badge tone={d.technology === 'film' ? 'spark' : 'tide'}>{d.technology}</Badge>
+            </p>
+            <p className="text-sm text-tide-800">{d.name}</p>
+            <p className="mt-1 text-sm text-tide-600">
+              {formatMicrofarads(d.nominalCapacitanceMicrofarads)} · watch {formatRatio(d.watchRatio)} · {d.bankCount} banks
+            </p>
+          </div>
+        )}
+      />
     </section>
   );
 }

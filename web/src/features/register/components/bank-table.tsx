@@ -2,16 +2,13 @@ import type { ReactNode } from 'react';
 import { BANK_STATUSES, BANK_STATUS_LABELS } from '../../../../../shared/constants/register';
 import type { Bank } from '../../../../../shared/schemas/bank';
 import { ButtonLink } from '../../../components/ui/button';
-import { DataTable, type DataColumn } from '../../../components/ui/data-table';
-import { ErrorPanel } from '../../../components/ui/error-panel';
-import { SearchInput } from '../../../components/ui/search-input';
-import { Spinner } from '../../../components/ui/spinner';
+import type { DataColumn } from '../../../components/ui/data-table';
 import { formatCalendarDate, formatMicrofarads, formatSeconds } from '../../../lib/units';
 import { banksApi } from '../api/banks';
-import { sitesApi } from '../api/sites';
 import { useListParams } from '../hooks/use-list-params';
+import { FlagToggle, ListResults, ListSearch, ParamSelect, SiteFilter } from './list-controls';
 import { useRegisterPermissions } from './permissions';
-import { FilterSelect, ListToolbar, RetiredToggle } from './record-parts';
+import { ListToolbar } from './record-parts';
 import { BankStatusBadge, BaselineSourceBadge, LatestVerdict, Tau } from './status-badges';
 
 const cabinetColumn: DataColumn<Bank> = {
@@ -92,64 +89,45 @@ export function BankTable({
     'includeRetired',
   ]);
   const banks = banksApi.useList({ ...params, ...fixed });
-  const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' }, toolbar);
   return (
     <section aria-label="Banks">
       {toolbar ? (
         <ListToolbar
-          search={<SearchInput label="Search banks" placeholder="Cabinet tag, position or serial" value={params.q ?? ''} onSearch={(q) => update({ q })} />}
+          search={<ListSearch params={params} update={update} label="Search banks" placeholder="Cabinet tag, position or serial" />}
           action={can.editRegister ? <ButtonLink to="/register/banks/new" variant="primary">Add bank</ButtonLink> : undefined}
         >
-          <FilterSelect
-            label="Site"
-            value={String(params.siteId ?? '')}
-            onChange={(siteId) => update({ siteId })}
-            options={[{ value: '', label: 'All sites' }, ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name }))]}
-          />
-          <FilterSelect
+          <SiteFilter params={params} update={update} />
+          <ParamSelect
+            params={params}
+            update={update}
+            name="status"
             label="Status"
-            value={String(params.status ?? '')}
-            onChange={(status) => update({ status })}
-            options={[{ value: '', label: 'In service' }, ...BANK_STATUSES.map((s) => ({ value: s, label: BANK_STATUS_LABELS[s] }))]}
+            allLabel="In service"
+            options={BANK_STATUSES.map((s) => ({ value: s, label: BANK_STATUS_LABELS[s] }))}
           />
         </ListToolbar>
       ) : inCabinet ? (
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
           <div>{action}</div>
-          <RetiredToggle
-            label="Show replaced and removed"
-            checked={params.includeRetired === 'true'}
-            onChange={(v) => update({ includeRetired: v ? 'true' : undefined })}
-          />
+          <FlagToggle params={params} update={update} name="includeRetired" label="Show replaced and removed" />
         </div>
       ) : null}
-      {banks.isPending ? (
-        <Spinner label="Loading banks…" />
-      ) : banks.isError ? (
-        <ErrorPanel title="Banks could not be loaded">{banks.error.message}</ErrorPanel>
-      ) : (
-        <DataTable
-          caption="Banks"
-          columns={
-            inCabinet
-              ? bankColumns
-              : [cabinetColumn, ...bankColumns.filter((c) => !('bankDesignId' in fixed) || c.id !== 'design')]
-          }
-          rows={banks.data.items}
-          total={banks.data.total}
-          page={params.page}
-          pageSize={params.pageSize}
-          sort={params.sort}
-          onSortChange={(sort) => update({ sort })}
-          onPageChange={(page) => update({ page })}
-          onPageSizeChange={toolbar ? (pageSize) => update({ pageSize }) : undefined}
-          rowKey={(b) => b.id}
-          rowHref={(b) => `/register/banks/${b.id}`}
-          loading={banks.isFetching}
-          empty={inCabinet ? 'No banks recorded in this cabinet yet.' : params.q ? `No bank matches “${params.q}”.` : 'No banks yet.'}
-          card={(b) => <BankCard bank={b} showCabinet={!inCabinet} />}
-        />
-      )}
+      <ListResults
+        query={banks}
+        params={params}
+        update={update}
+        pageSizeChoice={toolbar}
+        caption="Banks"
+        columns={
+          inCabinet
+            ? bankColumns
+            : [cabinetColumn, ...bankColumns.filter((c) => !('bankDesignId' in fixed) || c.id !== 'design')]
+        }
+        rowKey={(b) => b.id}
+        rowHref={(b) => `/register/banks/${b.id}`}
+        empty={inCabinet ? 'No banks recorded in this cabinet yet.' : params.q ? `No bank matches “${params.q}”.` : 'No banks yet.'}
+        card={(b) => <BankCard bank={b} showCabinet={!inCabinet} />}
+      />
     </section>
   );
 }

@@ -1,16 +1,13 @@
 import { CABINET_STATUS_LABELS, CABINET_STATUSES, CRITICALITIES } from '../../../../../shared/constants/register';
 import type { Cabinet } from '../../../../../shared/schemas/cabinet';
 import { ButtonLink } from '../../../components/ui/button';
-import { DataTable, type DataColumn } from '../../../components/ui/data-table';
-import { ErrorPanel } from '../../../components/ui/error-panel';
-import { SearchInput } from '../../../components/ui/search-input';
-import { Spinner } from '../../../components/ui/spinner';
+import type { DataColumn } from '../../../components/ui/data-table';
 import { formatVolts } from '../../../lib/units';
 import { cabinetsApi } from '../api/cabinets';
-import { sitesApi } from '../api/sites';
 import { useListParams } from '../hooks/use-list-params';
+import { FlagToggle, ListResults, ListSearch, ParamSelect, SiteFilter } from './list-controls';
 import { useRegisterPermissions } from './permissions';
-import { FilterSelect, ListToolbar, RetiredToggle } from './record-parts';
+import { ListToolbar } from './record-parts';
 import { CabinetStatusBadge, CriticalityBadge } from './status-badges';
 
 const columns: DataColumn<Cabinet>[] = [
@@ -62,12 +59,11 @@ export function CabinetTable({ fixed = {}, toolbar = false }: { fixed?: Record<s
   const [params, update] = useListParams({ sort: 'tag' }, FILTERS);
   const query = { ...params, ...fixed };
   const cabinets = cabinetsApi.useList(query);
-  const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' }, toolbar);
   return (
     <section aria-label="Cabinets">
       {toolbar ? (
         <ListToolbar
-          search={<SearchInput label="Search by tag" placeholder="Tag, e.g. M2-VFD-014" value={params.q ?? ''} onSearch={(q) => update({ q })} />}
+          search={<ListSearch params={params} update={update} label="Search by tag" placeholder="Tag, e.g. M2-VFD-014" />}
           action={
             can.editRegister ? (
               <>
@@ -79,50 +75,37 @@ export function CabinetTable({ fixed = {}, toolbar = false }: { fixed?: Record<s
             ) : undefined
           }
         >
-          <FilterSelect
-            label="Site"
-            value={String(params.siteId ?? '')}
-            onChange={(siteId) => update({ siteId })}
-            options={[{ value: '', label: 'All sites' }, ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name }))]}
-          />
-          <FilterSelect
+          <SiteFilter params={params} update={update} />
+          <ParamSelect
+            params={params}
+            update={update}
+            name="status"
             label="Status"
-            value={String(params.status ?? '')}
-            onChange={(status) => update({ status })}
-            options={[{ value: '', label: 'Any' }, ...CABINET_STATUSES.map((s) => ({ value: s, label: CABINET_STATUS_LABELS[s] }))]}
+            allLabel="Any"
+            options={CABINET_STATUSES.map((s) => ({ value: s, label: CABINET_STATUS_LABELS[s] }))}
           />
-          <FilterSelect
+          <ParamSelect
+            params={params}
+            update={update}
+            name="criticality"
             label="Criticality"
-            value={String(params.criticality ?? '')}
-            onChange={(criticality) => update({ criticality })}
-            options={[{ value: '', label: 'Any' }, ...CRITICALITIES.map((c) => ({ value: c, label: c }))]}
+            allLabel="Any"
+            options={CRITICALITIES.map((c) => ({ value: c, label: c }))}
           />
-          <RetiredToggle checked={params.includeRetired === 'true'} onChange={(v) => update({ includeRetired: v ? 'true' : undefined })} />
+          <FlagToggle params={params} update={update} name="includeRetired" />
         </ListToolbar>
       ) : null}
-      {cabinets.isPending ? (
-        <Spinner label="Loading cabinets…" />
-      ) : cabinets.isError ? (
-        <ErrorPanel title="Cabinets could not be loaded">{cabinets.error.message}</ErrorPanel>
-      ) : (
-        <DataTable
-          caption="Cabinets"
-          columns={columns}
-          rows={cabinets.data.items}
-          total={cabinets.data.total}
-          page={params.page}
-          pageSize={params.pageSize}
-          sort={params.sort}
-          onSortChange={(sort) => update({ sort })}
-          onPageChange={(page) => update({ page })}
-          onPageSizeChange={(pageSize) => update({ pageSize })}
-          rowKey={(c) => c.id}
-          rowHref={(c) => `/register/cabinets/${c.id}`}
-          loading={cabinets.isFetching}
-          empty={params.q ? `No cabinet tag contains “${params.q}”.` : 'No cabinets here yet.'}
-          card={(c) => <CabinetCard cabinet={c} />}
-        />
-      )}
+      <ListResults
+        query={cabinets}
+        params={params}
+        update={update}
+        caption="Cabinets"
+        columns={columns}
+        rowKey={(c) => c.id}
+        rowHref={(c) => `/register/cabinets/${c.id}`}
+        empty={params.q ? `No cabinet tag contains “${params.q}”.` : 'No cabinets here yet.'}
+        card={(c) => <CabinetCard cabinet={c} />}
+      />
     </section>
   );
 }

@@ -9,12 +9,9 @@ import { spareInputSchema, type Spare } from '../../../../../shared/schemas/spar
 import { Badge } from '../../../components/ui/badge';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
-import { DataTable, type DataColumn } from '../../../components/ui/data-table';
+import type { DataColumn } from '../../../components/ui/data-table';
 import { DetailList } from '../../../components/ui/detail-list';
-import { ErrorPanel } from '../../../components/ui/error-panel';
 import { Field, Select, TextArea, TextInput } from '../../../components/ui/field';
-import { SearchInput } from '../../../components/ui/search-input';
-import { Spinner } from '../../../components/ui/spinner';
 import { formatCalendarDate } from '../../../lib/units';
 import { bankDesignsApi } from '../api/bank-designs';
 import { sitesApi } from '../api/sites';
@@ -22,8 +19,9 @@ import { sparesApi } from '../api/spares';
 import { useListParams } from '../hooks/use-list-params';
 import { AuditTrail } from './audit-trail';
 import { asDate, asNumber, FormActions, SaveProblem, showServerIssues } from './form-kit';
+import { FlagToggle, ListResults, ListSearch, ParamSelect, SiteFilter } from './list-controls';
 import { useRegisterPermissions } from './permissions';
-import { FilterSelect, ListToolbar, RecordHeader, RecordLoading, RetireButton, RetiredToggle } from './record-parts';
+import { ListToolbar, RecordHeader, RecordLoading, RetireButton } from './record-parts';
 
 function Due({ spare }: { spare: Spare }) {
   return spare.reformingOverdue ? (
@@ -48,59 +46,45 @@ export function SpareList() {
   const can = useRegisterPermissions();
   const [params, update] = useListParams({ sort: 'reformingDueOn' }, ['siteId', 'kind', 'overdue', 'includeRetired']);
   const spares = sparesApi.useList(params);
-  const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
   return (
     <section aria-label="Spares">
       <ListToolbar
-          search={<SearchInput label="Search spares" placeholder="Code or description" value={params.q ?? ''} onSearch={(q) => update({ q })} />} action={can.editRegister ? <ButtonLink to="/register/spares/new" variant="primary">Add spare</ButtonLink> : undefined}>
-        <FilterSelect
-          label="Site"
-          value={String(params.siteId ?? '')}
-          onChange={(siteId) => update({ siteId })}
-          options={[{ value: '', label: 'All sites' }, ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name }))]}
-        />
-        <FilterSelect
+        search={<ListSearch params={params} update={update} label="Search spares" placeholder="Code or description" />}
+        action={can.editRegister ? <ButtonLink to="/register/spares/new" variant="primary">Add spare</ButtonLink> : undefined}
+      >
+        <SiteFilter params={params} update={update} />
+        <ParamSelect
+          params={params}
+          update={update}
+          name="kind"
           label="Kind"
-          value={String(params.kind ?? '')}
-          onChange={(kind) => update({ kind })}
-          options={[{ value: '', label: 'Any' }, ...SPARE_KINDS.map((k) => ({ value: k, label: k }))]}
+          allLabel="Any"
+          options={SPARE_KINDS.map((k) => ({ value: k, label: k }))}
         />
-        <RetiredToggle label="Overdue only" checked={params.overdue === 'true'} onChange={(v) => update({ overdue: v ? 'true' : undefined })} />
-        <RetiredToggle checked={params.includeRetired === 'true'} onChange={(v) => update({ includeRetired: v ? 'true' : undefined })} />
+        <FlagToggle params={params} update={update} name="overdue" label="Overdue only" />
+        <FlagToggle params={params} update={update} name="includeRetired" />
       </ListToolbar>
-      {spares.isPending ? (
-        <Spinner label="Loading spares…" />
-      ) : spares.isError ? (
-        <ErrorPanel title="Spares could not be loaded">{spares.error.message}</ErrorPanel>
-      ) : (
-        <DataTable
-          caption="Spares"
-          columns={columns}
-          rows={spares.data.items}
-          total={spares.data.total}
-          page={params.page}
-          pageSize={params.pageSize}
-          sort={params.sort}
-          onSortChange={(sort) => update({ sort })}
-          onPageChange={(page) => update({ page })}
-          onPageSizeChange={(pageSize) => update({ pageSize })}
-          rowKey={(s) => s.id}
-          rowHref={(s) => `/register/spares/${s.id}`}
-          loading={spares.isFetching}
-          empty="No spares match."
-          card={(s) => (
-            <div>
-              <p className="flex justify-between gap-2 font-bold text-tide-900">
-                <span className="font-mono">{s.code}</span> <Due spare={s} />
-              </p>
-              <p className="text-sm text-tide-800">{s.description}</p>
-              <p className="text-sm text-tide-600">
-                {s.siteName} · {s.storageLocation}
-              </p>
-            </div>
-          )}
-        />
-      )}
+      <ListResults
+        query={spares}
+        params={params}
+        update={update}
+        caption="Spares"
+        columns={columns}
+        rowKey={(s) => s.id}
+        rowHref={(s) => `/register/spares/${s.id}`}
+        empty="No spares match."
+        card={(s) => (
+          <div>
+            <p className="flex justify-between gap-2 font-bold text-tide-900">
+              <span className="font-mono">{s.code}</span> <Due spare={s} />
+            </p>
+            <p className="text-sm text-tide-800">{s.description}</p>
+            <p className="text-sm text-tide-600">
+              {s.siteName} · {s.storageLocation}
+            </p>
+          </div>
+        )}
+      />
     </section>
   );
 }

@@ -2,6 +2,9 @@ import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router';
 import type { ListParams } from '../api/resource';
 
+/** Changes some of a list's parameters (an empty value removes one). */
+export type ListUpdate = (change: Record<string, string | number | undefined>) => void;
+
 /**
  * A list's page, size, sort, search and filters, kept in the address bar so a list can be
  * shared, bookmarked and come back with the browser's Back button.
@@ -24,8 +27,8 @@ export function useListParams(defaults: { sort: string; pageSize?: number }, fil
   }, [search, defaults.sort, defaults.pageSize, filterKey]);
 
   /** Changes some parameters; any change other than the page starts again at page 1. */
-  const update = useCallback(
-    (change: Record<string, string | number | undefined>) => {
+  const update = useCallback<ListUpdate>(
+    (change) => {
       setSearch(
         (now) => {
           const next = new URLSearchParams(now);
