@@ -1,20 +1,11 @@
-import { afterEach, describe, expect, inject, it } from 'vitest';
-import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
 
 const baseUrl = inject('baseUrl');
 
-let open: BrowserSession[] = [];
-async function browser(viewport?: { width: number; height: number }): Promise<BrowserSession> {
-  const session = await openBrowser(viewport);
-  open.push(session);
-  return session;
-}
-afterEach(async () => {
-  await Promise.all(open.map((s) => s.close()));
-  open = [];
-});
+const browser = browsersClosedAfterEach();
 
 describe('People (admin)', () => {
   it('when the admin searches and changes a person’s roles, then the list shows it and the sign-in log records who did it', async () => {

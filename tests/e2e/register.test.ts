@@ -1,20 +1,11 @@
-import { afterEach, describe, expect, inject, it } from 'vitest';
-import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
 
 const baseUrl = inject('baseUrl');
 
-let open: BrowserSession[] = [];
-async function browser(viewport?: { width: number; height: number }): Promise<BrowserSession> {
-  const session = await openBrowser(viewport);
-  open.push(session);
-  return session;
-}
-afterEach(async () => {
-  await Promise.all(open.map((s) => s.close()));
-  open = [];
-});
+const browser = browsersClosedAfterEach();
 
 const HEADER =
   'site_code,area,tag,location,drive_make,drive_model,supply_volts,dc_bus_volts,rated_power_kw,marked_wait_minutes,criticality,environment_notes,commissioned_on,status';

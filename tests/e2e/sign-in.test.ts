@@ -1,22 +1,13 @@
 import pg from 'pg';
-import { afterEach, describe, expect, inject, it } from 'vitest';
-import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn, signOut } from '../support/sign-in';
 
 const baseUrl = inject('baseUrl');
 const issuer = inject('issuer');
 
-let open: BrowserSession[] = [];
-async function browser(viewport?: { width: number; height: number }): Promise<BrowserSession> {
-  const session = await openBrowser(viewport);
-  open.push(session);
-  return session;
-}
-afterEach(async () => {
-  await Promise.all(open.map((s) => s.close()));
-  open = [];
-});
+const browser = browsersClosedAfterEach();
 
 describe('signing in through the local provider', () => {
   it('when nobody is signed in, then Ebbline sends the browser to the provider’s own sign-in page', async () => {

@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { afterEach } from 'vitest';
 
 /** Debian's Chromium; a test never downloads a browser. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
@@ -48,6 +49,23 @@ export async function openBrowser(
       await context.close();
       fs.rmSync(userDataDir, { recursive: true, force: true });
     },
+  };
+}
+
+/**
+ * Browsers for the tests of one file, each closed when its test ends: call once at the top of
+ * the file; the function returned opens one (desktop-wide unless `viewport` says otherwise).
+ */
+export function browsersClosedAfterEach(): (viewport?: { width: number; height: number }) => Promise<BrowserSession> {
+  let open: BrowserSession[] = [];
+  afterEach(async () => {
+    await Promise.all(open.map((s) => s.close()));
+    open = [];
+  });
+  return async (viewport) => {
+    const session = await openBrowser(viewport);
+    open.push(session);
+    return session;
   };
 }
 

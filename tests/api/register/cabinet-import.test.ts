@@ -20,6 +20,10 @@ beforeAll(async () => {
 
 const csv = (...rows: string[]) => Buffer.from([HEADER, ...rows].join('\r\n') + '\r\n');
 
+/** The planner's upload of `bytes` to `path`, as the form field `file`. */
+const upload = (path: string, bytes: Buffer, filename: string, contentType = 'text/csv') =>
+  request(app).post(path).set('Authorization', planner.auth).attach('file', bytes, { filename, contentType });
+
 describe('GET /api/cabinets/import/template', () => {
   it('when a planner downloads it, then a CSV with every column that the preview accepts', async () => {
     const res = await request(app).get('/api/cabinets/import/template').set('Authorization', planner.auth);
@@ -38,18 +42,15 @@ describe('GET /api/cabinets/import/template', () => {
 describe('POST /api/cabinets/import/preview', () => {
   it('when one row is bad, then the preview names its row, column and reason, and stores nothing', async () => {
     const before = await countRows('cabinets');
-    const res = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach(
-        'file',
-        csv(
-          'IMP,Line 1,IMP-L1-VFD-001,Bay 1,Tarnwick Drives,TW-55,400,540,55,5,high,,2019-04-01,in-service',
-          'IMP,Line 1,IMP-L1-VFD-002,Bay 2,Tarnwick Drives,TW-55,four hundred,,,,,,,',
-          'IMP,Line 9,IMP-L9-VFD-001,Bay 3,Quellbrook Motion,QM-200,"690",,,,,,,',
-        ),
-        { filename: 'register.csv', contentType: 'text/csv' },
-      );
+    const res = await upload(
+      '/api/cabinets/import/preview',
+      csv(
+        'IMP,Line 1,IMP-L1-VFD-001,Bay 1,Tarnwick Drives,TW-55,400,540,55,5,high,,2019-04-01,in-service',
+        'IMP,Line 1,IMP-L1-VFD-002,Bay 2,Tarnwick Drives,TW-55,four hundred,,,,,,,',
+        'IMP,Line 9,IMP-L9-VFD-001,Bay 3,Quellbrook Motion,QM-200,"690",,,,,,,',
+      ),
+      'register.csv',
+    );
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ rowCount: 3, validCount: 2, problemCount: 1, committed: false, newAreas: ['IMP / Line 9'] });
     expect(res.body.problems).toEqual([{ row: 3, column: 'supply_volts', reason: 'supply voltage is missing or not a number' }]);
@@ -58,19 +59,16 @@ describe('POST /api/cabinets/import/preview', () => {
   });
 
   it('when tags clash with the register or each other and the site is unknown, then each is named', async () => {
-    const res = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach(
-        'file',
-        csv(
-          'IMP,Line 1,imp-l1-vfd-900,,,,400,,,,,,,',
-          'IMP,Line 1,IMP-L1-VFD-010,,,,400,,,,,,,',
-          'IMP,Line 1,IMP-L1-VFD-010,,,,400,,,,,,,',
-          'NOPE,Line 1,NOPE-1,,,,400,,,,urgent,,2020-13-01,',
-        ),
-        { filename: 'clash.csv', contentType: 'text/csv' },
-      );
+    const res = await upload(
+      '/api/cabinets/import/preview',
+      csv(
+        'IMP,Line 1,imp-l1-vfd-900,,,,400,,,,,,,',
+        'IMP,Line 1,IMP-L1-VFD-010,,,,400,,,,,,,',
+        'IMP,Line 1,IMP-L1-VFD-010,,,,400,,,,,,,',
+        'NOPE,Line 1,NOPE-1,,,,400,,,,urgent,,2020-13-01,',
+      ),
+      'clash.csv',
+    );
     expect(res.body.problems).toEqual([
       { row: 2, column: 'tag', reason: 'IMP-L1-VFD-900 is already in the register' },
       { row: 4, column: 'tag', reason: 'IMP-L1-VFD-010 is also on row 3' },
@@ -80,39 +78,24 @@ describe('POST /api/cabinets/import/preview', () => {
   });
 
   it('when a required column is missing, then row 1 names it', async () => {
-    const res = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach('file', Buffer.from('site_code,area,tag\nIMP,Line 1,X-1\n'), { filename: 'short.csv', contentType: 'text/csv' });
+    const res = await upload('/api/cabinets/import/preview', Buffer.from('site_code,area,tag\nIMP,Line 1,X-1\n'), 'short.csv');
     expect(res.body.problems).toContainEqual({ row: 1, column: 'supply_volts', reason: 'this column is missing from the header' });
   });
 
   it('when the file comes from a European spreadsheet (semicolons, decimal commas, BOM, Windows-1252), then it reads', async () => {
     const text = ['\uFEFFSite code;Area;Tag;Supply volts;Rated power kW;Location', 'IMP;Line 1;IMP-L1-VFD-050;400;7,5;Bay 5'].join('\r\n');
-    const res = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach('file', Buffer.from(text, 'utf8'), { filename: 'excel.csv', contentType: 'application/vnd.ms-excel' });
+    const res = await upload('/api/cabinets/import/preview', Buffer.from(text, 'utf8'), 'excel.csv', 'application/vnd.ms-excel');
     expect(res.body).toMatchObject({ rowCount: 1, validCount: 1, problemCount: 0 });
     const latin = Buffer.concat([Buffer.from('site_code,area,tag,supply_volts,location\nIMP,Line 1,IMP-L1-VFD-051,400,Gr'), Buffer.from([0xfc]), Buffer.from('n hall\n')]);
-    const read = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach('file', latin, { filename: 'latin.csv', contentType: 'text/csv' });
+    const read = await upload('/api/cabinets/import/preview', latin, 'latin.csv');
     expect(read.body.rows[0].values.location).toBe('Grün hall');
   });
 
   it('when the file is not CSV, then 415; too large, then 413; no file, then 400 naming file', async () => {
-    const pdf = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach('file', Buffer.from('%PDF-1.4'), { filename: 'register.pdf', contentType: 'application/pdf' });
+    const pdf = await upload('/api/cabinets/import/preview', Buffer.from('%PDF-1.4'), 'register.pdf', 'application/pdf');
     expect(pdf.status).toBe(415);
     expect(pdf.body.error.code).toBe('unsupported-file');
-    const big = await request(app)
-      .post('/api/cabinets/import/preview')
-      .set('Authorization', planner.auth)
-      .attach('file', Buffer.alloc(IMPORT_MAX_BYTES + 10, 'a'), { filename: 'big.csv', contentType: 'text/csv' });
+    const big = await upload('/api/cabinets/import/preview', Buffer.alloc(IMPORT_MAX_BYTES + 10, 'a'), 'big.csv');
     expect(big.status).toBe(413);
     expect(big.body.error.code).toBe('file-too-large');
     const none = await request(app).post('/api/cabinets/import/preview').set('Authorization', planner.auth).field('note', 'x');
@@ -130,18 +113,15 @@ describe('POST /api/cabinets/import/preview', () => {
 describe('POST /api/cabinets/import', () => {
   it('when one row of the file is bad, then 400 naming it and nothing at all is stored', async () => {
     const [cabinets, areas, audit] = [await countRows('cabinets'), await countRows('areas'), await countRows('audit_entries')];
-    const res = await request(app)
-      .post('/api/cabinets/import')
-      .set('Authorization', planner.auth)
-      .attach(
-        'file',
-        csv(
-          'IMP,Line 1,IMP-L1-VFD-101,,,,400,,,,,,,',
-          'IMP,Line 7,IMP-L7-VFD-101,,,,400,,,,,,,',
-          'IMP,Line 1,IMP-L1-VFD-102,,,,400,,,999,,,,',
-        ),
-        { filename: 'one-bad.csv', contentType: 'text/csv' },
-      );
+    const res = await upload(
+      '/api/cabinets/import',
+      csv(
+        'IMP,Line 1,IMP-L1-VFD-101,,,,400,,,,,,,',
+        'IMP,Line 7,IMP-L7-VFD-101,,,,400,,,,,,,',
+        'IMP,Line 1,IMP-L1-VFD-102,,,,400,,,999,,,,',
+      ),
+      'one-bad.csv',
+    );
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('import-rejected');
     expect(res.body.error.message).toMatch(/nothing was imported/);
@@ -150,17 +130,14 @@ describe('POST /api/cabinets/import', () => {
   });
 
   it('when every row is good, then all are stored in one go, new areas too, each with an audit entry', async () => {
-    const res = await request(app)
-      .post('/api/cabinets/import')
-      .set('Authorization', planner.auth)
-      .attach(
-        'file',
-        csv(
-          'IMP,Line 1,IMP-L1-VFD-201,Bay 1,Tarnwick Drives,TW-55,400,540,55,5,high,dusty,2019-04-01,in-service',
-          'IMP,Line 8,IMP-L8-VFD-201,,,,480,,,,,,,out-of-service',
-        ),
-        { filename: 'good.csv', contentType: 'text/csv' },
-      );
+    const res = await upload(
+      '/api/cabinets/import',
+      csv(
+        'IMP,Line 1,IMP-L1-VFD-201,Bay 1,Tarnwick Drives,TW-55,400,540,55,5,high,dusty,2019-04-01,in-service',
+        'IMP,Line 8,IMP-L8-VFD-201,,,,480,,,,,,,out-of-service',
+      ),
+      'good.csv',
+    );
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ committed: true, createdCount: 2, newAreas: ['IMP / Line 8'] });
     const list = await request(app).get('/api/cabinets?q=VFD-201&sort=tag').set('Authorization', technician.auth);
