@@ -6,6 +6,7 @@
 import { z } from 'zod';
 import type { CapacitorTechnology, HealthName } from '../constants/health';
 import { BANK_STATUSES, type BankStatus, type BaselineSource } from '../constants/register';
+import type { BankDesignRevisionFields } from './bank-design';
 import {
   listQuerySchema,
   optionalCalendarDate,
@@ -105,6 +106,21 @@ export interface BankLatestVerdict {
   judgedAt: string;
 }
 
+/**
+ * The figures of the design's current revision that a decay run on the bank is judged with:
+ * construction (C = p × C_unit / s), bleeder, temperature coefficient and health limits.
+ */
+export type BankDesignFigures = Pick<
+  BankDesignRevisionFields,
+  | 'unitCapacitanceMicrofarads'
+  | 'seriesCount'
+  | 'parallelCount'
+  | 'bleederOhms'
+  | 'tempCoefficientPercentPerKelvin'
+  | 'watchRatio'
+  | 'endOfLifeRatio'
+>;
+
 /** A bank as the API returns it. */
 export interface Bank extends RecordMeta {
   cabinetId: string;
@@ -119,6 +135,12 @@ export interface Bank extends RecordMeta {
   /** Current revision of the design. */
   designRevision: number;
   nominalCapacitanceMicrofarads: number;
+  /** The current revision's figures; null only when the design has no revision. */
+  designFigures: BankDesignFigures | null;
+  /** The cabinet's nominal DC-bus voltage, volts; null when not known. */
+  cabinetDcBusVolts: number | null;
+  /** The drive maker's marked wait time of the cabinet, minutes; null when not known. */
+  cabinetMarkedWaitMinutes: number | null;
   position: string;
   serialNumber: string;
   installedOn: string | null;

@@ -103,6 +103,26 @@ describe('GET /api/banks/:bankId', () => {
     expect((await request(app).get('/api/banks/00000000-0000-4000-8000-000000000000').set('Authorization', technician.auth)).status).toBe(404);
     expect((await request(app).get(`/api/banks/${bank.id}`)).status).toBe(401);
   });
+
+  it('when a bank is read, then it carries what a decay check needs: its design revision figures and its cabinet bus voltage and wait', async () => {
+    const bank = await makeBank(planner.actor, cabinetId, designId);
+    const res = await request(app).get(`/api/banks/${bank.id}`).set('Authorization', technician.auth);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({
+      technology: 'electrolytic',
+      designFigures: {
+        unitCapacitanceMicrofarads: 4700,
+        seriesCount: 2,
+        parallelCount: 3,
+        bleederOhms: 47_000,
+        tempCoefficientPercentPerKelvin: 0.25,
+        watchRatio: 0.9,
+        endOfLifeRatio: 0.8,
+      },
+      cabinetDcBusVolts: 540,
+      cabinetMarkedWaitMinutes: 5,
+    });
+  });
 });
 
 describe('PATCH /api/banks/:bankId', () => {

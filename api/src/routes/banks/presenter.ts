@@ -19,6 +19,19 @@ export function presentBank(bank: Bank): BankJson {
     technology: current?.technology ?? 'electrolytic',
     designRevision: current?.revision ?? 0,
     nominalCapacitanceMicrofarads: current ? bankCapacitanceMicrofarads(current) : 0,
+    designFigures: current
+      ? {
+          unitCapacitanceMicrofarads: current.unitCapacitanceMicrofarads,
+          seriesCount: current.seriesCount,
+          parallelCount: current.parallelCount,
+          bleederOhms: current.bleederOhms,
+          tempCoefficientPercentPerKelvin: current.tempCoefficientPercentPerKelvin,
+          watchRatio: current.watchRatio,
+          endOfLifeRatio: current.endOfLifeRatio,
+        }
+      : null,
+    cabinetDcBusVolts: bank.cabinet?.dcBusVolts ?? null,
+    cabinetMarkedWaitMinutes: bank.cabinet?.markedWaitMinutes ?? null,
     position: bank.position,
     serialNumber: bank.serialNumber,
     installedOn: bank.installedOn,

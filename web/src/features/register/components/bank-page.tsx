@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router';
 import type { z } from 'zod';
@@ -122,8 +122,12 @@ function ReplaceForm({ bank, onDone }: { bank: BankDetail; onDone: () => void })
   );
 }
 
-/** A bank: what it is, its baseline (who set it, when), its replacement chain and its history. */
-export function BankPage({ bankId }: { bankId: string }) {
+/**
+ * A bank: what it is, its baseline (who set it, when), its replacement chain and its history.
+ * `decayCheck` renders the decay check of a bank in service (composed by the app, so features
+ * stay apart).
+ */
+export function BankPage({ bankId, decayCheck }: { bankId: string; decayCheck?: (bank: BankDetail) => ReactNode }) {
   const can = useRegisterPermissions();
   const bank = banksApi.useDetail(bankId);
   const audit = banksApi.useAudit(bankId);
@@ -230,6 +234,7 @@ export function BankPage({ bankId }: { bankId: string }) {
           ) : null}
         </Card>
       </div>
+      {decayCheck && inService ? decayCheck(b) : null}
       <Card title="Replacement history">
         {b.lineage.length <= 1 ? (
           <p className="text-sm text-tide-600">The first bank at this position.</p>

@@ -1,0 +1,55 @@
+import { useDeferredValue, useMemo, useState } from 'react';
+import type { Bank } from '../../../../../shared/schemas/bank';
+import { bankDecayFacts } from '../utils/bank-facts';
+import { readConditions, readReadingRows, type ConditionInputs, type ReadingRow } from '../utils/readings';
+import { runDecayCheck } from '../utils/run-check';
+
+const EMPTY_ROW: ReadingRow = { time: '', volts: '' };
+const FIRST_ROWS = 4;
+
+/**
+ * The state of one decay check on one bank: the readings and conditions as typed, and the
+ * engine's answer for them, recomputed as they change. Nothing is stored.
+ */
+export function useDecayCheck(bank: Bank) {
+  const [rows, setRows] = useState<ReadingRow[]>(() => Array.from({ length: FIRST_ROWS }, () => EMPTY_ROW));
+  const [inputs, setInputs] = useState<ConditionInputs>({ bankTempC: '', meterInputMegohms: '', measuredBleederKilohms: '' });
+  const facts = useMemo(() => bankDecayFacts(bank), [bank]);
+  // a fast typist is never held up by the fit
+  const typedRows = useDeferredValue(rows);
+  const typedInputs = useDeferredValue(inputs);
+  const readings = useMemo(() => readReadingRows(typedRows), [typedRows]);
+  const conditions = useMemo(() => readConditions(typedInputs), [typedInputs]);
+  const outcome = useMemo(
+    () => (facts ? runDecayCheck(facts, readings, conditions.conditions) : null),
+    [facts, readings, conditions],
+  );
+
+  /** Changes one cell; typing into the last row opens a new one below it. */
+  function setCell(index: number, field: keyof ReadingRow, value: string) {
+    setRows((current) => {
+      const next = current.map((row, i) => (i === index ? { ...row, [field]: value } : row));
+      if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
+      return next;
+    });
+  }
+
+  function removeRow(index: number) {
+    setRows((current) => (current.length <= 1 ? [EMPTY_ROW] : current.filter((_, i) => i !== index)));
+  }
+
+  /** Puts pasted rows in place of the table, with an empty row to go on typing. */
+  function replaceRows(next: ReadingRow[]) {
+    setRows([...next, EMPTY_ROW]);
+  }
+
+  function clearRows() {
+    setRows(Array.from({ length: FIRST_ROWS }, () => EMPTY_ROW));
+  }
+
+  function setInput(field: keyof ConditionInputs, value: string) {
+    setInputs((current) => ({ ...current, [field]: value }));
+  }
+
+  return { facts, rows, inputs, readings, conditionIssues: conditions.issues, outcome, setCell, removeRow, replaceRows, clearRows, setInput };
+}
