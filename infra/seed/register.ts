@@ -15,6 +15,7 @@ import type { CapacitorTechnology } from '../../shared/constants/health';
 import type { Criticality } from '../../shared/constants/register';
 import { defaultDesignLimits } from '../../shared/schemas/bank-design';
 import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../shared/domain/capacitance';
+import { timeToVoltsSeconds } from '../../shared/domain/discharge-safety';
 import { reformingDueOn } from '../../shared/schemas/spare';
 import { sequelize } from '../../api/src/db/sequelize';
 import { User } from '../../api/src/models/user';
@@ -86,17 +87,17 @@ const AREAS: Record<string, Array<{ n: number; name: string; description: string
   ],
 };
 
-/** Invented drive makers and their models: supply volts, rated kW, marked wait minutes. */
+/** Invented drive makers and their models: supply volts and rated kW (marked waits: markedWaitMinutesOf). */
 const DRIVES = [
-  { make: 'Tarnwick Drives', model: 'TW-22', volts: 400, kw: 22, wait: 5, kind: 'VFD' },
-  { make: 'Tarnwick Drives', model: 'TW-55', volts: 400, kw: 55, wait: 10, kind: 'VFD' },
-  { make: 'Tarnwick Drives', model: 'TW-160', volts: 400, kw: 160, wait: 15, kind: 'VFD' },
-  { make: 'Quellbrook Motion', model: 'QM-75', volts: 480, kw: 75, wait: 10, kind: 'VFD' },
-  { make: 'Quellbrook Motion', model: 'QM-200', volts: 480, kw: 200, wait: 15, kind: 'VFD' },
-  { make: 'Orrin & Vale', model: 'OV-Flux 7', volts: 230, kw: 7.5, wait: 5, kind: 'INV' },
-  { make: 'Orrin & Vale', model: 'OV-Flux 30', volts: 400, kw: 30, wait: 5, kind: 'VFD' },
-  { make: 'Sablecrest Power', model: 'SC-690 M', volts: 690, kw: 315, wait: 15, kind: 'VFD' },
-  { make: 'Hexley Controls', model: 'HX-Servo 8', volts: 400, kw: 8, wait: 5, kind: 'SRV' },
+  { make: 'Tarnwick Drives', model: 'TW-22', volts: 400, kw: 22, kind: 'VFD' },
+  { make: 'Tarnwick Drives', model: 'TW-55', volts: 400, kw: 55, kind: 'VFD' },
+  { make: 'Tarnwick Drives', model: 'TW-160', volts: 400, kw: 160, kind: 'VFD' },
+  { make: 'Quellbrook Motion', model: 'QM-75', volts: 480, kw: 75, kind: 'VFD' },
+  { make: 'Quellbrook Motion', model: 'QM-200', volts: 480, kw: 200, kind: 'VFD' },
+  { make: 'Orrin & Vale', model: 'OV-Flux 7', volts: 230, kw: 7.5, kind: 'INV' },
+  { make: 'Orrin & Vale', model: 'OV-Flux 30', volts: 400, kw: 30, kind: 'VFD' },
+  { make: 'Sablecrest Power', model: 'SC-690 M', volts: 690, kw: 315, kind: 'VFD' },
+  { make: 'Hexley Controls', model: 'HX-Servo 8', volts: 400, kw: 8, kind: 'SRV' },
 ] as const;
 
 interface DesignSeed {
@@ -117,7 +118,7 @@ interface DesignSeed {
 
 const DESIGNS: DesignSeed[] = [
   { code: 'EL-1S1P-1500', name: 'Single can, 1500 µF / 450 V', technology: 'electrolytic', unitCapacitanceMicrofarads: 1500, unitRatedVolts: 450, seriesCount: 1, parallelCount: 1, bleederOhms: 150_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.3, ratedLifeHours: 5000, ratedLifeCelsius: 105, notes: 'Small 230 V inverters; snap-in can' },
-  { code: 'EL-1S2P-3300', name: 'Two single cans in parallel, 3300 µF / 450 V', technology: 'electrolytic', unitCapacitanceMicrofarads: 3300, unitRatedVolts: 450, seriesCount: 1, parallelCount: 2, bleederOhms: 100_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.3, ratedLifeHours: 5000, ratedLifeCelsius: 105, notes: '' },
+  { code: 'EL-1S2P-3300', name: 'Two single cans in parallel, 3300 µF / 450 V', technology: 'electrolytic', unitCapacitanceMicrofarads: 3300, unitRatedVolts: 450, seriesCount: 1, parallelCount: 2, bleederOhms: 47_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.3, ratedLifeHours: 5000, ratedLifeCelsius: 105, notes: '' },
   { code: 'EL-2S1P-2200', name: 'Series pair, 2200 µF / 450 V cans', technology: 'electrolytic', unitCapacitanceMicrofarads: 2200, unitRatedVolts: 450, seriesCount: 2, parallelCount: 1, bleederOhms: 94_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.25, ratedLifeHours: 8000, ratedLifeCelsius: 105, notes: 'Balancing resistors 2 × 47 kΩ, which are also the bleeder' },
   { code: 'EL-2S2P-3300', name: 'Series pairs, 2 strings of 3300 µF / 450 V', technology: 'electrolytic', unitCapacitanceMicrofarads: 3300, unitRatedVolts: 450, seriesCount: 2, parallelCount: 2, bleederOhms: 66_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.25, ratedLifeHours: 8000, ratedLifeCelsius: 105, notes: 'Balancing resistors 2 × 33 kΩ' },
   { code: 'EL-2S3P-4700', name: 'Series pairs, 3 strings of 4700 µF / 450 V', technology: 'electrolytic', unitCapacitanceMicrofarads: 4700, unitRatedVolts: 450, seriesCount: 2, parallelCount: 3, bleederOhms: 44_000, capacitanceTolerancePercent: 20, tempCoefficientPercentPerKelvin: 0.25, ratedLifeHours: 10_000, ratedLifeCelsius: 105, notes: 'Screw-terminal cans on a laminated busbar' },
@@ -134,6 +135,30 @@ function designsFor(volts: number, kw: number, kind: string): string[] {
   if (kw <= 30) return ['EL-2S1P-2200', 'EL-2S2P-3300'];
   if (kw <= 90) return ['EL-2S2P-3300', 'EL-2S3P-4700'];
   return ['EL-2S3P-4700', 'EL-2S4P-6800'];
+}
+
+/** The wait markings makers choose from, minutes. */
+const WAIT_MARKINGS_MINUTES = [5, 10, 15, 20, 30, 45, 60];
+
+/**
+ * The wait a maker marks on a model: the next standard marking above the slowest nameplate
+ * discharge of the model's banks from the nominal bus to 50 V, with the capacitance tolerance
+ * as margin (a bank at the top of its tolerance discharges slower).
+ */
+function markedWaitMinutesOf(drive: (typeof DRIVES)[number]): number {
+  const slowestSeconds = Math.max(
+    ...designsFor(drive.volts, drive.kw, drive.kind).map((code) => {
+      const design = DESIGNS.find((d) => d.code === code)!;
+      const tauSeconds = tauSecondsOf(design.bleederOhms, bankCapacitanceMicrofarads(design));
+      return timeToVoltsSeconds(tauSeconds * (1 + design.capacitanceTolerancePercent / 100), dcBusVoltsOf(drive), 50);
+    }),
+  );
+  return WAIT_MARKINGS_MINUTES.find((m) => m * 60 >= slowestSeconds) ?? Math.ceil(slowestSeconds / 600) * 10;
+}
+
+/** Nominal DC-bus voltage of a drive: about 1.35 × the AC line (DOMAIN.md). */
+function dcBusVoltsOf(drive: (typeof DRIVES)[number]): number {
+  return Math.round(drive.volts * 1.35);
 }
 
 const CRITICALITY_WEIGHTS: Array<[Criticality, number]> = [
@@ -363,9 +388,9 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
         driveMake: drive.make,
         driveModel: drive.model,
         supplyVolts: drive.volts,
-        dcBusVolts: Math.round(drive.volts * 1.35),
+        dcBusVolts: dcBusVoltsOf(drive),
         ratedPowerKilowatts: drive.kw * bankCount,
-        markedWaitMinutes: drive.wait,
+        markedWaitMinutes: markedWaitMinutesOf(drive),
         criticality,
         environmentNotes: area.description.split(';')[1]?.trim() ?? '',
         commissionedOn,
