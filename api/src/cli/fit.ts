@@ -16,11 +16,9 @@
  * Bad input or unusable data: exit status 2, one message on stderr, nothing on stdout.
  */
 
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
+import { readInputFile, runCli, UsageError } from './cli-shell';
 import {
-  EngineInputError,
   judgeDecayRun,
   parseDecaySamplesCsv,
   type DecayRunFacts,
@@ -30,8 +28,6 @@ import { DISCHARGE_CAUTION_TEXT } from '../../../shared/constants/safety';
 
 const USAGE =
   'usage: npm run -s fit -- FILE.csv --bleeder-ohms R [--meter-ohms M] [--temp-c T] [--temp-coeff-per-k A] [--baseline-uf C] [--nominal-volts V] [--marked-wait-s S] [--measured-bleeder-ohms R] [--technology electrolytic|film]';
-
-class UsageError extends Error {}
 
 const VALUE_OPTIONS = [
   'bleeder-ohms',
@@ -91,15 +87,7 @@ function main(argv: string[]): void {
   if (!CAPACITOR_TECHNOLOGIES.includes(technology))
     throw new UsageError(`--technology must be electrolytic or film, got "${values.technology}"`);
 
-  let text: string;
-  try {
-    // `npm run` starts scripts in the project folder; INIT_CWD is where the engineer typed the command.
-    text = readFileSync(resolve(process.env.INIT_CWD ?? process.cwd(), file), 'utf8');
-  } catch (error) {
-    throw new UsageError(
-      `cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`,
-    );
-  }
+  const text = readInputFile(file);
   const csv = parseDecaySamplesCsv(text);
   const facts: DecayRunFacts = {
     samples: csv.samples,
@@ -234,20 +222,4 @@ function ohms(raw: string, flag: string, allowZero: boolean): number {
   return value;
 }
 
-try {
-  main(process.argv.slice(2));
-} catch (error) {
-  if (error instanceof UsageError || error instanceof EngineInputError) {
-    process.stderr.write(`fit: ${error.message}\n`);
-    process.exit(2);
-  }
-  const code = (error as { code?: unknown }).code;
-  if (typeof code === 'string' && code.startsWith('ERR_PARSE_ARGS')) {
-    process.stderr.write(`fit: ${(error as Error).message.split('\n')[0]} (see --help)\n`);
-    process.exit(2);
-  }
-  process.stderr.write(
-    `fit: unexpected error: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
-  );
-  process.exit(1);
-}
+runCli('fit', main);

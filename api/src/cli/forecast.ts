@@ -12,11 +12,9 @@
  * Bad input or not enough history: exit status 2, one message on stderr, nothing on stdout.
  */
 
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
+import { readInputFile, runCli, UsageError } from './cli-shell';
 import {
-  EngineInputError,
   dayNumberFromIsoDate,
   forecastEndOfLife,
   parseRatioHistoryCsv,
@@ -25,8 +23,6 @@ import { DEFAULT_HEALTH_LIMITS } from '../../../shared/constants/health';
 
 const USAGE =
   'usage: npm run -s forecast -- HISTORY.csv [--limit 0.8] [--watch 0.9] [--as-of YYYY-MM-DD] [--interval-days 365]';
-
-class UsageError extends Error {}
 
 function main(argv: string[]): void {
   const { values, positionals } = parseArgs({
@@ -65,15 +61,7 @@ function main(argv: string[]): void {
   const asOfOn = values['as-of'] ?? new Date().toISOString().slice(0, 10);
   dayNumberFromIsoDate(asOfOn, '--as-of');
 
-  let text: string;
-  try {
-    // `npm run` starts scripts in the project folder; INIT_CWD is where the engineer typed the command.
-    text = readFileSync(resolve(process.env.INIT_CWD ?? process.cwd(), file), 'utf8');
-  } catch (error) {
-    throw new UsageError(
-      `cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`,
-    );
-  }
+  const text = readInputFile(file);
   const { history } = parseRatioHistoryCsv(text);
   const forecast = forecastEndOfLife({
     history,
@@ -112,20 +100,4 @@ function ratio(raw: string | undefined, flag: string): number | undefined {
   return value;
 }
 
-try {
-  main(process.argv.slice(2));
-} catch (error) {
-  if (error instanceof UsageError || error instanceof EngineInputError) {
-    process.stderr.write(`forecast: ${error.message}\n`);
-    process.exit(2);
-  }
-  const code = (error as { code?: unknown }).code;
-  if (typeof code === 'string' && code.startsWith('ERR_PARSE_ARGS')) {
-    process.stderr.write(`forecast: ${(error as Error).message.split('\n')[0]} (see --help)\n`);
-    process.exit(2);
-  }
-  process.stderr.write(
-    `forecast: unexpected error: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
-  );
-  process.exit(1);
-}
+runCli('forecast', main);
