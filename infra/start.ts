@@ -58,7 +58,8 @@ try {
 
   const { seedDemo } = await import('./seed/index');
   const seeded = await seedDemo();
-  step(`demo scenario ready (${Object.entries(seeded).map(([k, v]) => `${v} ${k}`).join(', ')})`);
+  const words = (key: string) => key.replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`);
+  step(`demo scenario ready (${Object.entries(seeded).map(([k, v]) => `${v} ${words(k)}`).join(', ')})`);
 
   if (localProvider) {
     const { startIdentityProvider } = await import('./identity/index');

@@ -12,6 +12,7 @@ import { DEMO_PEOPLE } from './people';
 import { seedRegister, type RegisterSeedOptions, type RegisterSeedSummary } from './register';
 
 export interface SeedSummary extends Partial<RegisterSeedSummary> {
+  /** People registered ahead of their first sign-in. */
   people: number;
 }
 
@@ -21,7 +22,8 @@ export type SeedOptions = RegisterSeedOptions;
 export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> {
   return sequelize.transaction(async (transaction) => {
     // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
-    for (const person of DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn)) {
+    const registered = DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn);
+    for (const person of registered) {
       await User.findOrCreate({
         where: { email: person.email },
         defaults: { email: person.email, name: person.name, roles: person.roles, subject: person.login, lastSignInAt: null },
@@ -29,7 +31,7 @@ export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> 
       });
     }
     const register = await seedRegister(transaction, options);
-    return { people: DEMO_PEOPLE.length, ...register };
+    return { people: registered.length, ...register };
   });
 }
 
