@@ -57,36 +57,22 @@ function ReadingsTable({
             <li key={i}>
               <div className="grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2">
                 <span className="text-right font-mono text-sm text-tide-600">{n}</span>
-                <div>
-                  <label htmlFor={`reading-${n}-time`} className="sr-only">
-                    Row {n}: time since isolation, seconds
-                  </label>
-                  <input
-                    id={`reading-${n}-time`}
-                    className={inputClass}
-                    inputMode="decimal"
-                    autoComplete="off"
-                    value={row.time}
-                    aria-invalid={bad('time') || undefined}
-                    aria-describedby={rowIssues.length ? errorId : undefined}
-                    onChange={(e) => onCell(i, 'time', e.target.value)}
-                  />
-                </div>
-                <div>
-                  <label htmlFor={`reading-${n}-volts`} className="sr-only">
-                    Row {n}: DC-bus voltage, volts
-                  </label>
-                  <input
-                    id={`reading-${n}-volts`}
-                    className={inputClass}
-                    inputMode="decimal"
-                    autoComplete="off"
-                    value={row.volts}
-                    aria-invalid={bad('volts') || undefined}
-                    aria-describedby={rowIssues.length ? errorId : undefined}
-                    onChange={(e) => onCell(i, 'volts', e.target.value)}
-                  />
-                </div>
+                <ReadingCell
+                  id={`reading-${n}-time`}
+                  label={`Row ${n}: time since isolation, seconds`}
+                  value={row.time}
+                  invalid={bad('time')}
+                  describedBy={rowIssues.length ? errorId : undefined}
+                  onChange={(value) => onCell(i, 'time', value)}
+                />
+                <ReadingCell
+                  id={`reading-${n}-volts`}
+                  label={`Row ${n}: DC-bus voltage, volts`}
+                  value={row.volts}
+                  invalid={bad('volts')}
+                  describedBy={rowIssues.length ? errorId : undefined}
+                  onChange={(value) => onCell(i, 'volts', value)}
+                />
                 <Button variant="ghost" size="sm" className="px-0" aria-label={`Remove row ${n}`} onClick={() => onRemove(i)}>
                   ✕
                 </Button>
@@ -252,5 +238,33 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
         )}
       </div>
     </Card>
+  );
+}
+
+/** One cell of a reading: a decimal input with its own (screen-reader) label. */
+function ReadingCell(props: {
+  id: string;
+  label: string;
+  value: string;
+  invalid: boolean;
+  describedBy: string | undefined;
+  onChange: (value: string) => void;
+}) {
+  return (
+    <div>
+      <label htmlFor={props.id} className="sr-only">
+        {props.label}
+      </label>
+      <input
+        id={props.id}
+        className={inputClass}
+        inputMode="decimal"
+        autoComplete="off"
+        value={props.value}
+        aria-invalid={props.invalid || undefined}
+        aria-describedby={props.describedBy}
+        onChange={(e) => props.onChange(e.target.value)}
+      />
+    </div>
   );
 }
