@@ -4,6 +4,7 @@
  * fetcher throws ApiError on a non-2xx answer.
  */
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import type { AuditEntry } from '../../../../../shared/schemas/audit';
 import type { ListPage } from '../../../../../shared/schemas/common';
 import { apiFetch } from '../../../lib/api-client';
@@ -63,6 +64,48 @@ export function createResourceApi<T extends { id: string; version: number }, TDe
       ]);
   }
 
+  function useCreate() {
+    const invalidate = useInvalidate();
+    return useMutation({ mutationFn: create, onSuccess: () => invalidate() });
+  }
+
+  function useUpdate(id: string) {
+    const invalidate = useInvalidate();
+    return useMutation({ mutationFn: (change: TUpdate) => update(id, change), onSuccess: () => invalidate(id) });
+  }
+
+  /**
+   * The save of a record's form: adds the record, or sends the change with the version it was
+   * read at (a stale version is refused by the server); after such a conflict `reload` fetches
+   * their version, takes its version number and hands it to `onReloaded` to refill the form.
+   */
+  function useVersionedSave(
+    record: T | undefined,
+    handlers: { onSaved: (saved: TDetail) => void; onError: (error: unknown) => void; onReloaded: (fresh: TDetail) => void },
+  ) {
+    const client = useQueryClient();
+    const [version, setVersion] = useState(record?.version ?? 0);
+    const creating = useCreate();
+    const updating = useUpdate(record?.id ?? '');
+    const mutation = record ? updating : creating;
+    const callbacks = { onSuccess: handlers.onSaved, onError: handlers.onError };
+    return {
+      mutation,
+      save(input: TInput, change: Omit<TUpdate, 'version'>) {
+        // TUpdate is the change plus the version it was read at
+        if (record) updating.mutate({ ...change, version } as TUpdate, callbacks);
+        else creating.mutate(input, callbacks);
+      },
+      async reload() {
+        if (!record) return;
+        const fresh = await client.fetchQuery({ ...detailOptions(record.id), staleTime: 0 });
+        setVersion(fresh.version);
+        handlers.onReloaded(fresh);
+        mutation.reset();
+      },
+    };
+  }
+
   return {
     keys,
     list,
@@ -77,14 +120,9 @@ export function createResourceApi<T extends { id: string; version: number }, TDe
     useList: (params: ListParams, enabled = true) => useQuery({ ...listOptions(params), enabled }),
     useDetail: (id: string, enabled = true) => useQuery({ ...detailOptions(id), enabled: enabled && id !== '' }),
     useAudit: (id: string) => useQuery(auditOptions(id)),
-    useCreate() {
-      const invalidate = useInvalidate();
-      return useMutation({ mutationFn: create, onSuccess: () => invalidate() });
-    },
-    useUpdate(id: string) {
-      const invalidate = useInvalidate();
-      return useMutation({ mutationFn: (change: TUpdate) => update(id, change), onSuccess: () => invalidate(id) });
-    },
+    useCreate,
+    useUpdate,
+    useVersionedSave,
     useRetire(id: string) {
       const invalidate = useInvalidate();
       return useMutation({ mutationFn: (version: number) => retire(id, version), onSuccess: () => invalidate(id) });

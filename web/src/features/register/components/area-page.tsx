@@ -1,6 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router';
 import type { z } from 'zod';
@@ -28,24 +26,15 @@ export function AreaForm({ area, siteId, onSaved, onCancel }: { area?: Area; sit
     resolver: zodResolver(areaInputSchema),
     defaultValues: valuesOf(area),
   });
-  const [version, setVersion] = useState(area?.version ?? 0);
-  const client = useQueryClient();
   const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
-  const create = areasApi.useCreate();
-  const update = areasApi.useUpdate(area?.id ?? '');
-  const mutation = area ? update : create;
-  const submit = handleSubmit((data) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (area) update.mutate({ name: data.name, description: data.description, version }, { onSuccess: onSaved, onError });
-    else create.mutate(data, { onSuccess: onSaved, onError });
+  const { mutation, save, reload } = areasApi.useVersionedSave(area, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      reset(valuesOf(fresh));
+    },
   });
-  const reload = async () => {
-    if (!area) return;
-    const fresh = await client.fetchQuery({ ...areasApi.detailOptions(area.id), staleTime: 0 });
-    setVersion(fresh.version);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
+  const submit = handleSubmit((data) => save(data, { name: data.name, description: data.description }));
   const e = formState.errors;
   return (
     <form onSubmit={submit} noValidate className="max-w-2xl space-y-4" aria-label={area ? `Edit ${area.name}` : 'New area'}>

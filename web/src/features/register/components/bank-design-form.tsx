@@ -1,6 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { CAPACITOR_TECHNOLOGIES, type CapacitorTechnology } from '../../../../../shared/constants/health';
@@ -71,23 +69,14 @@ export function BankDesignForm({ design, onSaved, onCancel }: { design?: BankDes
     resolver: zodResolver(bankDesignFormSchema),
     defaultValues: valuesOf(design),
   });
-  const [version, setVersion] = useState(design?.version ?? 0);
-  const client = useQueryClient();
-  const create = bankDesignsApi.useCreate();
-  const update = bankDesignsApi.useUpdate(design?.id ?? '');
-  const mutation = design ? update : create;
-  const submit = handleSubmit(({ changeNote, ...data }) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (design) update.mutate({ ...data, changeNote, version }, { onSuccess: onSaved, onError });
-    else create.mutate(data, { onSuccess: onSaved, onError });
+  const { mutation, save, reload } = bankDesignsApi.useVersionedSave(design, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      reset(valuesOf(fresh));
+    },
   });
-  const reload = async () => {
-    if (!design) return;
-    const fresh = await client.fetchQuery({ ...bankDesignsApi.detailOptions(design.id), staleTime: 0 });
-    setVersion(fresh.version);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
+  const submit = handleSubmit(({ changeNote, ...data }) => save(data, { ...data, changeNote }));
   const [c, s, p, r, v] = useWatch({ control, name: ['unitCapacitanceMicrofarads', 'seriesCount', 'parallelCount', 'bleederOhms', 'unitRatedVolts'] });
   // the preview waits for whole counts: the engine refuses half a can
   const nominal =

@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
@@ -81,30 +80,22 @@ export function BankForm({ bank, cabinetId, onSaved, onCancel }: { bank?: BankDe
     resolver: zodResolver(bankInputSchema),
     defaultValues: valuesOf(bank, cabinetId),
   });
-  const [version, setVersion] = useState(bank?.version ?? 0);
-  const client = useQueryClient();
   const designs = bankDesignsApi.useList({ page: 1, pageSize: 100, sort: 'code' });
-  const create = banksApi.useCreate();
-  const update = banksApi.useUpdate(bank?.id ?? '');
-  const mutation = bank ? update : create;
+  const { mutation, save, reload } = banksApi.useVersionedSave(bank, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      reset(valuesOf(fresh));
+    },
+  });
   const designId = useWatch({ control, name: 'bankDesignId' });
   const design = designs.data?.items.find((d) => d.id === designId);
   const chosenCabinet = useWatch({ control, name: 'cabinetId' });
 
   const submit = handleSubmit((data) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (bank) {
-      const { cabinetId: _cabinet, ...change } = data;
-      update.mutate({ ...change, version }, { onSuccess: onSaved, onError });
-    } else create.mutate(data, { onSuccess: onSaved, onError });
+    const { cabinetId: _cabinet, ...change } = data;
+    save(data, change);
   });
-  const reload = async () => {
-    if (!bank) return;
-    const fresh = await client.fetchQuery({ ...banksApi.detailOptions(bank.id), staleTime: 0 });
-    setVersion(fresh.version);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
   const e = formState.errors;
   return (
     <form onSubmit={submit} noValidate className="max-w-2xl space-y-4" aria-label={bank ? `Edit bank ${bank.position}` : 'New bank'}>

@@ -62,14 +62,18 @@ export function CabinetForm({
     resolver: zodResolver(cabinetInputSchema),
     defaultValues: valuesOf(cabinet, areaId),
   });
-  const [version, setVersion] = useState(cabinet?.version ?? 0);
   const client = useQueryClient();
   const [siteId, setSiteId] = useState(cabinet?.siteId ?? '');
   const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
   const areas = areasApi.useList({ page: 1, pageSize: 100, sort: 'name', siteId }, siteId !== '');
-  const create = cabinetsApi.useCreate();
-  const update = cabinetsApi.useUpdate(cabinet?.id ?? '');
-  const mutation = cabinet ? update : create;
+  const { mutation, save, reload } = cabinetsApi.useVersionedSave(cabinet, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      setSiteId(fresh.siteId);
+      reset(valuesOf(fresh));
+    },
+  });
 
   // a new cabinet for a given area starts in that area's site
   useEffect(() => {
@@ -78,19 +82,7 @@ export function CabinetForm({
   }, [areaId, cabinet, client, siteId]);
 
   const supply = useWatch({ control, name: 'supplyVolts' });
-  const submit = handleSubmit((data) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (cabinet) update.mutate({ ...data, version }, { onSuccess: onSaved, onError });
-    else create.mutate(data, { onSuccess: onSaved, onError });
-  });
-  const reload = async () => {
-    if (!cabinet) return;
-    const fresh = await client.fetchQuery({ ...cabinetsApi.detailOptions(cabinet.id), staleTime: 0 });
-    setVersion(fresh.version);
-    setSiteId(fresh.siteId);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
+  const submit = handleSubmit((data) => save(data, data));
   const e = formState.errors;
   const num = { setValueAs: asNumber };
   return (

@@ -1,6 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { siteInputSchema, type Site } from '../../../../../shared/schemas/site';
@@ -26,24 +24,15 @@ export function SiteForm({ site, onSaved, onCancel }: { site?: Site; onSaved: (s
     resolver: zodResolver(siteInputSchema),
     defaultValues: valuesOf(site),
   });
-  const [version, setVersion] = useState(site?.version ?? 0);
-  const client = useQueryClient();
-  const create = sitesApi.useCreate();
-  const update = sitesApi.useUpdate(site?.id ?? '');
-  const mutation = site ? update : create;
-
-  const submit = handleSubmit((data) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (site) update.mutate({ ...data, version }, { onSuccess: onSaved, onError });
-    else create.mutate(data, { onSuccess: onSaved, onError });
+  const { mutation, save, reload } = sitesApi.useVersionedSave(site, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      reset(valuesOf(fresh));
+    },
   });
-  const reload = async () => {
-    if (!site) return;
-    const fresh = await client.fetchQuery({ ...sitesApi.detailOptions(site.id), staleTime: 0 });
-    setVersion(fresh.version);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
+
+  const submit = handleSubmit((data) => save(data, data));
   const e = formState.errors;
   return (
     <form onSubmit={submit} noValidate className="max-w-2xl space-y-4" aria-label={site ? `Edit ${site.name}` : 'New site'}>

@@ -1,6 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router';
 import type { z } from 'zod';
@@ -113,25 +111,16 @@ export function SpareForm({ spare, onSaved, onCancel }: { spare?: Spare; onSaved
     resolver: zodResolver(spareInputSchema),
     defaultValues: valuesOf(spare),
   });
-  const [version, setVersion] = useState(spare?.version ?? 0);
-  const client = useQueryClient();
   const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
   const designs = bankDesignsApi.useList({ page: 1, pageSize: 100, sort: 'code' });
-  const create = sparesApi.useCreate();
-  const update = sparesApi.useUpdate(spare?.id ?? '');
-  const mutation = spare ? update : create;
-  const submit = handleSubmit((data) => {
-    const onError = (error: unknown) => showServerIssues(error, setError, FIELDS);
-    if (spare) update.mutate({ ...data, version }, { onSuccess: onSaved, onError });
-    else create.mutate(data, { onSuccess: onSaved, onError });
+  const { mutation, save, reload } = sparesApi.useVersionedSave(spare, {
+    onSaved,
+    onError: (error) => showServerIssues(error, setError, FIELDS),
+    onReloaded: (fresh) => {
+      reset(valuesOf(fresh));
+    },
   });
-  const reload = async () => {
-    if (!spare) return;
-    const fresh = await client.fetchQuery({ ...sparesApi.detailOptions(spare.id), staleTime: 0 });
-    setVersion(fresh.version);
-    reset(valuesOf(fresh));
-    mutation.reset();
-  };
+  const submit = handleSubmit((data) => save(data, data));
   const e = formState.errors;
   return (
     <form onSubmit={submit} noValidate className="max-w-3xl space-y-4" aria-label={spare ? `Edit ${spare.code}` : 'New spare'}>
