@@ -16,6 +16,7 @@ import type { Criticality } from '../../shared/constants/register';
 import { defaultDesignLimits } from '../../shared/schemas/bank-design';
 import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../shared/domain/capacitance';
 import { timeToVoltsSeconds } from '../../shared/domain/discharge-safety';
+import { seededRandom } from './seeded-random';
 import { reformingDueOn } from '../../shared/schemas/spare';
 import { sequelize } from '../../api/src/db/sequelize';
 import { User } from '../../api/src/models/user';
@@ -44,18 +45,6 @@ export interface RegisterSeedSummary {
 
 /** Number of cabinets in the demo's own areas. */
 export const DEMO_CABINET_COUNT = 150;
-
-/** mulberry32: a small deterministic generator, so every seed run builds the same scenario. */
-function generator(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 // ---------------------------------------------------------------------------------------------
 // The scenario
@@ -235,7 +224,7 @@ const addDays = (date: string, days: number) => {
  */
 export async function seedRegister(transaction: Transaction, options: RegisterSeedOptions = {}): Promise<RegisterSeedSummary> {
   // each cabinet draws from a generator of its own, so adding to the fleet never shifts the demo
-  let random = generator(20_260_401);
+  let random = seededRandom(20_260_401);
   const chance = (p: number) => random() < p;
   const choose = <T>(items: readonly T[]): T => items[Math.floor(random() * items.length)]!;
   const added: RegisterSeedSummary = { sites: 0, areas: 0, cabinets: 0, bankDesigns: 0, banks: 0, spares: 0 };
@@ -361,7 +350,7 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
     const areaId = areaIdByKey.get(`${siteId}|${area.name.toLowerCase()}`)!;
     const counters: Record<string, number> = {};
     for (let i = 0; i < area.cabinets; i += 1) {
-      random = generator(20_260_401 + demoIndex);
+      random = seededRandom(20_260_401 + demoIndex);
       const drive = choose(DRIVES);
       const isDemo = demoIndex < DEMO_CABINET_COUNT;
       demoIndex += 1;
@@ -528,7 +517,7 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
   // about a third of its spares overdue for reforming, whenever it is started.
   const today = iso(now);
   const takenSpares = await existingKeys('SELECT lower(code) AS key FROM spares', transaction);
-  const spareRandom = generator(7_331);
+  const spareRandom = seededRandom(7_331);
   const newSpares: Row[] = [];
   const sparePlan = [
     ...DESIGNS.filter((d) => d.technology === 'electrolytic').flatMap((d) => [d.code, d.code]),

@@ -14,18 +14,9 @@ import { forecastEndOfLife, type RatioHistoryPoint } from '../../shared/domain/t
 import { controlSupplyDecayVolts } from '../../shared/domain/control-supply';
 import { fitLogLinear } from '../../shared/domain/exponential-least-squares';
 import { addDays } from '../../shared/domain/calendar-dates';
+import { seededRandom } from '../../infra/seed/seeded-random';
 
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-const random = seeded(2024);
+const random = seededRandom(2024);
 const gaussian = (): number =>
   Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
 

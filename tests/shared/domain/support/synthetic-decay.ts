@@ -3,18 +3,9 @@
  */
 
 import type { DecaySample } from '../../../../shared/domain/decay-fit';
+import { seededRandom } from '../../../../infra/seed/seeded-random';
 
-/** Mulberry32: small, seeded, reproducible. Returns numbers in [0, 1). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** Standard normal deviate by Box–Muller. */
 export function gaussian(random: () => number): number {
