@@ -1,6 +1,6 @@
 /**
  * `npm run -s fit -- FILE.csv --bleeder-ohms R [options]`: judges one decay run from a logger or
- * handheld CSV file and prints one JSON object on stdout.
+ * handheld CSV file (`-` reads standard input) and prints one JSON object on stdout.
  *
  * Options (resistances accept a k or M suffix, e.g. 94k, 10M):
  *   --bleeder-ohms R            bleeder resistance across the bus (required)
@@ -17,12 +17,8 @@
  */
 
 import { parseArgs } from 'node:util';
-import { readInputFile, runCli, UsageError } from './cli-shell';
-import {
-  judgeDecayRun,
-  parseDecaySamplesCsv,
-  type DecayRunFacts,
-} from '../../../shared/domain';
+import { defineCli, readInputFile, runIfEntryPoint, UsageError, type CliIo } from './cli-shell';
+import { judgeDecayRun, parseDecaySamplesCsv, type DecayRunFacts } from '../../../shared/domain';
 import { CAPACITOR_TECHNOLOGIES, type CapacitorTechnology } from '../../../shared/constants/health';
 import { DISCHARGE_CAUTION_TEXT } from '../../../shared/constants/safety';
 
@@ -41,7 +37,7 @@ const VALUE_OPTIONS = [
   'technology',
 ] as const;
 
-function main(argv: string[]): void {
+function fitCommand(argv: string[], io: CliIo): void {
   const { values, positionals } = parseArgs({
     args: joinNegativeValues(argv),
     options: {
@@ -55,7 +51,7 @@ function main(argv: string[]): void {
     positionals: string[];
   };
   if (values.help) {
-    process.stdout.write(`${USAGE}\n`);
+    io.stdout.write(`${USAGE}\n`);
     return;
   }
   if (positionals.length !== 1)
@@ -87,7 +83,7 @@ function main(argv: string[]): void {
   if (!CAPACITOR_TECHNOLOGIES.includes(technology))
     throw new UsageError(`--technology must be electrolytic or film, got "${values.technology}"`);
 
-  const text = readInputFile(file);
+  const text = readInputFile(file, io);
   const csv = parseDecaySamplesCsv(text);
   const facts: DecayRunFacts = {
     samples: csv.samples,
@@ -170,7 +166,7 @@ function main(argv: string[]): void {
   output.findings = verdict.findings;
   output.warnings = warnings;
   output.caution = DISCHARGE_CAUTION_TEXT;
-  process.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
+  io.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
 }
 
 /** parseArgs reads "--temp-c -5" as a missing value; pass it as "--temp-c=-5". */
@@ -222,4 +218,12 @@ function ohms(raw: string, flag: string, allowZero: boolean): number {
   return value;
 }
 
-runCli('fit', main);
+/**
+ * The `fit` tool: `argv` without `node` and the script, `io` the streams (default the
+ * process's own). Returns the exit status: 0 done, 2 bad input or unusable data, 1 a fault.
+ *
+ * @example main(['run.csv', '--bleeder-ohms', '94k'], { stdout, stderr }) // → 0
+ */
+export const main = defineCli('fit', fitCommand);
+
+runIfEntryPoint(import.meta.url, main);

@@ -1,7 +1,8 @@
 /**
  * `npm run -s forecast -- HISTORY.csv [--limit 0.8] [options]`: forecasts a bank's end of life
- * from its history of capacitance ratios (rows `date,ratio[,stdError]`) and prints
- * `{ model, endOfLifeOn, interval90: [low, high], rulDays, nextVisitBy, ... }` as JSON on stdout.
+ * from its history of capacitance ratios (rows `date,ratio[,stdError]`; `-` reads standard input)
+ * and prints `{ model, endOfLifeOn, interval90: [low, high], rulDays, nextVisitBy, ... }` as JSON
+ * on stdout.
  *
  * Options:
  *   --limit R           end-of-life ratio (default 0.8, the electrolytic default)
@@ -13,7 +14,7 @@
  */
 
 import { parseArgs } from 'node:util';
-import { readInputFile, runCli, UsageError } from './cli-shell';
+import { defineCli, readInputFile, runIfEntryPoint, UsageError, type CliIo } from './cli-shell';
 import {
   dayNumberFromIsoDate,
   forecastEndOfLife,
@@ -24,7 +25,7 @@ import { DEFAULT_HEALTH_LIMITS } from '../../../shared/constants/health';
 const USAGE =
   'usage: npm run -s forecast -- HISTORY.csv [--limit 0.8] [--watch 0.9] [--as-of YYYY-MM-DD] [--interval-days 365]';
 
-function main(argv: string[]): void {
+function forecastCommand(argv: string[], io: CliIo): void {
   const { values, positionals } = parseArgs({
     args: argv,
     options: {
@@ -38,7 +39,7 @@ function main(argv: string[]): void {
     strict: true,
   });
   if (values.help) {
-    process.stdout.write(`${USAGE}\n`);
+    io.stdout.write(`${USAGE}\n`);
     return;
   }
   if (positionals.length !== 1)
@@ -61,7 +62,7 @@ function main(argv: string[]): void {
   const asOfOn = values['as-of'] ?? new Date().toISOString().slice(0, 10);
   dayNumberFromIsoDate(asOfOn, '--as-of');
 
-  const text = readInputFile(file);
+  const text = readInputFile(file, io);
   const { history } = parseRatioHistoryCsv(text);
   const forecast = forecastEndOfLife({
     history,
@@ -89,7 +90,7 @@ function main(argv: string[]): void {
     models: forecast.models,
     notes: forecast.notes,
   };
-  process.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
+  io.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
 }
 
 function ratio(raw: string | undefined, flag: string): number | undefined {
@@ -100,4 +101,12 @@ function ratio(raw: string | undefined, flag: string): number | undefined {
   return value;
 }
 
-runCli('forecast', main);
+/**
+ * The `forecast` tool: `argv` without `node` and the script, `io` the streams (default the
+ * process's own). Returns the exit status: 0 done, 2 bad input or unusable data, 1 a fault.
+ *
+ * @example main(['history.csv', '--as-of', '2024-06-01'], { stdout, stderr }) // → 0
+ */
+export const main = defineCli('forecast', forecastCommand);
+
+runIfEntryPoint(import.meta.url, main);

@@ -1,23 +1,20 @@
 /**
- * The fit command line tool, run as engineers run it (tsx on the real file) on the invented
- * fixtures in tests/fixtures/decay. Expectations come from the fixtures' generating facts.
+ * The fit command line tool on the invented fixtures in tests/fixtures/decay: its `main` run
+ * in-process, and once as engineers run it (`npm run -s fit`). Expectations come from the
+ * fixtures' generating facts.
  */
 
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { main } from '../../../api/src/cli/fit';
+import { PROJECT_ROOT, runAsUser, runInProcess, type CliResult } from '../../support/cli';
 import { FIXTURES } from '../../fixtures/decay/fixture-facts';
 
-const root = join(import.meta.dirname, '..', '..', '..');
-const fixture = (name: string): string => join(root, 'tests', 'fixtures', 'decay', name);
+const fixture = (name: string): string => join(PROJECT_ROOT, 'tests', 'fixtures', 'decay', name);
 
-function fit(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const result = spawnSync('npx', ['tsx', 'api/src/cli/fit.ts', ...args], {
-    cwd: root,
-    encoding: 'utf8',
-    timeout: 60_000,
-  });
-  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
+function fit(...args: string[]): CliResult {
+  return runInProcess(main, args);
 }
 
 function json(args: string[]): Record<string, unknown> {
@@ -29,7 +26,7 @@ function json(args: string[]): Record<string, unknown> {
 
 const handheld = FIXTURES.handheld;
 
-describe('npm run fit', { timeout: 60_000 }, () => {
+describe('fit main', () => {
   it('when a handheld file is fitted with its bleeder and baseline, then τ, C, ratio and health match the bank it came from', () => {
     const out = json([
       fixture('handheld-20.csv'),
@@ -171,6 +168,31 @@ describe('npm run fit', { timeout: 60_000 }, () => {
     expect(out.safetyFinding).toBe(true);
   });
 
+  it('when the file is -, then the readings come from standard input', () => {
+    const fromFile = json([fixture('handheld-20.csv'), '--bleeder-ohms', '94k']);
+    const result = runInProcess(main, ['-', '--bleeder-ohms', '94k'], {
+      stdin: readFileSync(fixture('handheld-20.csv'), 'utf8'),
+    });
+    expect(result.status).toBe(0);
+    const fromStdin = JSON.parse(result.stdout) as Record<string, unknown>;
+    expect(fromStdin.tauSeconds).toBe(fromFile.tauSeconds);
+    expect(fromStdin.file).toBe('-');
+  });
+
+  it('when a relative file is given, then it is read from the folder the command was typed in', () => {
+    const result = runInProcess(main, ['handheld-20.csv', '--bleeder-ohms', '94k'], {
+      cwd: join(PROJECT_ROOT, 'tests', 'fixtures', 'decay'),
+    });
+    expect(result.stderr).toBe('');
+    expect(result.status).toBe(0);
+  });
+
+  it('when --help is given, then the usage goes to stdout and the status is 0', () => {
+    const result = fit('--help');
+    expect(result.status).toBe(0);
+    expect(result.stdout).toMatch(/^usage: npm run -s fit -- FILE\.csv --bleeder-ohms R/);
+  });
+
   const badCases: [string, string[], RegExp][] = [
     [
       'a negative voltage',
@@ -233,4 +255,18 @@ describe('npm run fit', { timeout: 60_000 }, () => {
       expect(result.stderr.trim().split('\n')).toHaveLength(1);
     });
   }
+});
+
+describe('npm run -s fit', () => {
+  it(
+    'when an engineer runs it on a handheld file, then the process exits 0 with the same JSON as main',
+    { timeout: 120_000 },
+    () => {
+      const args = [fixture('handheld-20.csv'), '--bleeder-ohms', '94k', '--nominal-volts', '560'];
+      const spawned = runAsUser('fit', args);
+      expect(spawned.stderr).toBe('');
+      expect(spawned.status).toBe(0);
+      expect(JSON.parse(spawned.stdout)).toEqual(json(args));
+    },
+  );
 });

@@ -1,29 +1,25 @@
 /**
- * The forecast command line tool on invented histories in tests/fixtures/decay.
+ * The forecast command line tool on invented histories in tests/fixtures/decay: its `main` run
+ * in-process, and once as engineers run it (`npm run -s forecast`).
  */
 
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { linearRegression } from 'simple-statistics';
+import { main } from '../../../api/src/cli/forecast';
+import { PROJECT_ROOT, runAsUser, runInProcess, type CliResult } from '../../support/cli';
 import { FIXTURES } from '../../fixtures/decay/fixture-facts';
 
-const root = join(import.meta.dirname, '..', '..', '..');
-const fixture = (name: string): string => join(root, 'tests', 'fixtures', 'decay', name);
+const fixture = (name: string): string => join(PROJECT_ROOT, 'tests', 'fixtures', 'decay', name);
 
-function forecast(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const result = spawnSync('npx', ['tsx', 'api/src/cli/forecast.ts', ...args], {
-    cwd: root,
-    encoding: 'utf8',
-    timeout: 60_000,
-  });
-  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
+function forecast(...args: string[]): CliResult {
+  return runInProcess(main, args);
 }
 
 const dayOf = (iso: string): number => Date.parse(`${iso}T00:00:00Z`) / 86_400_000;
 
-describe('npm run forecast', { timeout: 60_000 }, () => {
+describe('forecast main', () => {
   it('when a linear ten-year history is given, then the forecast matches an independent straight-line fit (simple-statistics)', () => {
     const result = forecast(fixture('history-linear.csv'), '--as-of', '2024-06-01');
     expect(result.stderr).toBe('');
@@ -68,6 +64,17 @@ describe('npm run forecast', { timeout: 60_000 }, () => {
     expect(dayOf(at85.endOfLifeOn)).toBeLessThan(dayOf(at80.endOfLifeOn));
   });
 
+  it('when the file is -, then the history comes from standard input', () => {
+    const result = runInProcess(main, ['-', '--as-of', '2024-06-01'], {
+      stdin: readFileSync(fixture('history-linear.csv'), 'utf8'),
+    });
+    expect(result.stderr).toBe('');
+    expect(result.status).toBe(0);
+    expect(JSON.parse(result.stdout)).toEqual(
+      JSON.parse(forecast(fixture('history-linear.csv'), '--as-of', '2024-06-01').stdout),
+    );
+  });
+
   const badCases: [string, string[], RegExp][] = [
     ['only two runs', [fixture('history-two-runs.csv')], /not enough history: Only 2 decay runs/],
     [
@@ -96,4 +103,20 @@ describe('npm run forecast', { timeout: 60_000 }, () => {
       expect(result.stderr.trim().split('\n')).toHaveLength(1);
     });
   }
+});
+
+describe('npm run -s forecast', () => {
+  it(
+    'when an engineer runs it on a history, then the process exits 0 with the same JSON as main',
+    { timeout: 120_000 },
+    () => {
+      const args = [fixture('history-linear.csv'), '--as-of', '2024-06-01'];
+      const spawned = runAsUser('forecast', args);
+      expect(spawned.stderr).toBe('');
+      expect(spawned.status).toBe(0);
+      const inProcess = forecast(...args);
+      expect(inProcess.status).toBe(0);
+      expect(JSON.parse(spawned.stdout)).toEqual(JSON.parse(inProcess.stdout));
+    },
+  );
 });
