@@ -6,34 +6,80 @@ export interface FieldIssue {
 }
 
 /**
- * The one error type of the API. The error middleware turns it into
- * `{ "error": { "code", "message", "issues"? } }` with its status.
+ * The stable codes an `AppError` carries. Services and middleware pick a code, never an HTTP
+ * status: the error middleware (middleware/error-handler.ts) maps each code to its status, so
+ * a job or a script calling the same service gets the same code and no HTTP.
+ */
+export const ERROR_CODES = [
+  'validation-failed',
+  'bad-request',
+  'import-rejected',
+  'unauthenticated',
+  'invalid-token',
+  'forbidden',
+  'csrf-failed',
+  'session-required',
+  'not-found',
+  'conflict',
+  'stale-version',
+  'duplicate',
+  'retired',
+  'in-use',
+  'replaced',
+  'payload-too-large',
+  'file-too-large',
+  'unsupported-file',
+  'unsupported-media-type',
+  'identity-provider-unreachable',
+] as const;
+
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
+/**
+ * The one error type of the API: a stable kebab-case code, a message a person can act on, and
+ * optionally the fields at fault. The error middleware turns it into
+ * `{ "error": { "code", "message", "issues"? } }` with the status of its code.
  */
 export class AppError extends Error {
   override name = 'AppError';
-  constructor(
-    /** Stable kebab-case code, e.g. "not-found". */
-    readonly code: string,
-    readonly status: number,
-    message: string,
-    readonly issues?: FieldIssue[],
-  ) {
-    super(message);
+  /** Stable kebab-case code, e.g. "not-found". */
+  readonly code: string;
+  readonly issues?: FieldIssue[];
+  /** Only for the deprecated form that names a status (a code without a mapping yet). */
+  readonly fallbackStatus?: number;
+
+  constructor(code: ErrorCode, message: string, issues?: FieldIssue[]);
+  /** @deprecated Name a code of `ERROR_CODES` instead: the error middleware maps codes to statuses. */
+  constructor(code: string, status: number, message: string, issues?: FieldIssue[]);
+  constructor(code: string, statusOrMessage: number | string, messageOrIssues?: string | FieldIssue[], issues?: FieldIssue[]) {
+    const legacy = typeof statusOrMessage === 'number';
+    super(legacy ? String(messageOrIssues) : statusOrMessage);
+    this.code = code;
+    this.issues = legacy ? issues : (messageOrIssues as FieldIssue[] | undefined);
+    if (legacy) this.fallbackStatus = statusOrMessage;
   }
 
   static badRequest(message: string, issues?: FieldIssue[]): AppError {
-    return new AppError('validation-failed', 400, message, issues);
+    return new AppError('validation-failed', message, issues);
   }
   static unauthenticated(message = 'Sign in to use Ebbline.'): AppError {
-    return new AppError('unauthenticated', 401, message);
+    return new AppError('unauthenticated', message);
   }
   static forbidden(message = 'Your role does not allow this.'): AppError {
-    return new AppError('forbidden', 403, message);
+    return new AppError('forbidden', message);
   }
   static notFound(what: string): AppError {
-    return new AppError('not-found', 404, `${what} was not found.`);
+    return new AppError('not-found', `${what} was not found.`);
   }
   static conflict(message: string): AppError {
-    return new AppError('conflict', 409, message);
+    return new AppError('conflict', message);
+  }
+  /** Someone else saved the record after `sentVersion` was read. */
+  static staleVersion(message: string): AppError {
+    return new AppError('stale-version', message);
+  }
+  /** Another record already holds the value of `path`. */
+  static duplicate(path: string, message: string): AppError {
+    return new AppError('duplicate', message, [{ path, message }]);
   }
 }

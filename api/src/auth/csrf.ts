@@ -29,7 +29,6 @@ export const requireCsrfToken: RequestHandler = (req, _res, next) => {
   if (!csrfTokenMatches(sent, req.session.csrfToken)) {
     throw new AppError(
       'csrf-failed',
-      403,
       'The request did not carry this session’s security token (X-CSRF-Token). Reload the page and try again.',
     );
   }

@@ -38,7 +38,6 @@ export function providerConfiguration(config: Config = getConfig()): Promise<oid
         logger.error({ err, issuer: config.OIDC_ISSUER }, 'identity provider discovery failed');
         throw new AppError(
           'identity-provider-unreachable',
-          503,
           `Ebbline cannot reach its sign-in provider at ${config.OIDC_ISSUER}. Try again in a minute; if it persists, tell your admin.`,
         );
       });

@@ -142,7 +142,6 @@ authRouter.post(
       if (!csrfTokenMatches(req.get('x-csrf-token') ?? body?._csrf, csrfToken)) {
         throw new AppError(
           'csrf-failed',
-          403,
           'The sign-out did not carry this session’s security token. Reload the page and try again.',
         );
       }

@@ -18,7 +18,7 @@ export const authenticate: RequestHandler = async (req, res, next) => {
     const match = /^Bearer\s+(\S+)$/i.exec(header);
     const user = match?.[1] ? await authenticateApiToken(match[1]) : null;
     if (!user)
-      throw new AppError('invalid-token', 401, 'The API token is unknown, expired or revoked.');
+      throw new AppError('invalid-token', 'The API token is unknown, expired or revoked.');
     req.user = user;
     req.authMethod = 'bearer';
     next();

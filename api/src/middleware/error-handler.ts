@@ -1,11 +1,43 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { AppError } from '../errors';
+import { AppError, type ErrorCode } from '../errors';
 import { logger } from '../logger';
+
+/**
+ * The HTTP status of each error code: the one place where an error becomes a status. Services
+ * throw codes (a job or the seed calling them has no HTTP); adding a code means adding its row.
+ */
+export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
+  'validation-failed': 400,
+  'bad-request': 400,
+  'import-rejected': 400,
+  unauthenticated: 401,
+  'invalid-token': 401,
+  forbidden: 403,
+  'csrf-failed': 403,
+  'session-required': 403,
+  'not-found': 404,
+  conflict: 409,
+  'stale-version': 409,
+  duplicate: 409,
+  retired: 409,
+  'in-use': 409,
+  replaced: 409,
+  'payload-too-large': 413,
+  'file-too-large': 413,
+  'unsupported-file': 415,
+  'unsupported-media-type': 415,
+  'identity-provider-unreachable': 503,
+};
+
+/** The status an AppError answers with: its code's, else (deprecated form) the one it names, else 500. */
+export function httpStatusOf(error: AppError): number {
+  return HTTP_STATUS_OF_CODE[error.code as ErrorCode] ?? error.fallbackStatus ?? 500;
+}
 
 /** Unknown /api paths answer in the standard error shape rather than Express's HTML. */
 export const apiNotFound: RequestHandler = (req, _res, next) => {
-  next(new AppError('not-found', 404, `No API route ${req.method} ${req.path}.`));
+  next(new AppError('not-found', `No API route ${req.method} ${req.path}.`));
 };
 
 function toAppError(err: unknown): AppError | null {
@@ -19,8 +51,13 @@ function toAppError(err: unknown): AppError | null {
   // body-parser's errors carry a status and `expose`
   const e = err as { status?: number; expose?: boolean; type?: string; message?: string };
   if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500 && e.expose) {
-    const code = e.type === 'entity.too.large' ? 'payload-too-large' : 'bad-request';
-    return new AppError(code, e.status, e.message ?? 'Bad request.');
+    const code: ErrorCode =
+      e.type === 'entity.too.large' || e.type === 'parameters.too.many'
+        ? 'payload-too-large'
+        : e.type === 'charset.unsupported' || e.type === 'encoding.unsupported'
+          ? 'unsupported-media-type'
+          : 'bad-request';
+    return new AppError(code, e.message ?? 'Bad request.');
   }
   return null;
 }
@@ -35,8 +72,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     });
     return;
   }
-  if (known.status >= 500) logger.error({ err, requestId: req.id }, known.message);
-  res.status(known.status).json({
+  const status = httpStatusOf(known);
+  if (status >= 500) logger.error({ err, requestId: req.id }, known.message);
+  res.status(status).json({
     error: { code: known.code, message: known.message, ...(known.issues ? { issues: known.issues } : {}) },
   });
 };

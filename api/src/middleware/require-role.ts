@@ -62,7 +62,6 @@ export const requireSessionCaller: RequestHandler = (req, _res, next) => {
   if (req.authMethod !== 'session') {
     throw new AppError(
       'session-required',
-      403,
       'This needs a signed-in browser session; an API token cannot do it.',
     );
   }

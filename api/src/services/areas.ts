@@ -99,7 +99,7 @@ export async function retireArea(id: string, version: number, actor: AuthUser): 
     const area = await lockForChange(Area, id, version, 'area', transaction);
     const inUse = await Cabinet.count({ where: { areaId: id, retiredAt: null }, transaction });
     if (inUse > 0) {
-      throw new AppError('in-use', 409, `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
+      throw new AppError('in-use', `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
     }
     await saveChange(
       AREA_TRAIL,

@@ -199,7 +199,7 @@ export async function retireBankDesign(id: string, version: number, actor: AuthU
     const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
     const inUse = await Bank.count({ where: { bankDesignId: id, status: 'in-service' }, transaction });
     if (inUse > 0) {
-      throw new AppError('in-use', 409, `${inUse} bank(s) in service are of design ${design.code}. Replace them first.`);
+      throw new AppError('in-use', `${inUse} bank(s) in service are of design ${design.code}. Replace them first.`);
     }
     const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
     if (!current) throw new Error(`bank design ${id} has no current revision`);

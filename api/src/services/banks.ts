@@ -167,7 +167,7 @@ async function assertPositionFree(cabinetId: string, position: string, exceptId:
 async function lockBankInService(id: string, version: number, transaction: Transaction): Promise<Bank> {
   const bank = await lockForChange(Bank, id, version, 'bank', transaction);
   if (bank.status !== 'in-service') {
-    throw new AppError('replaced', 409, `This bank was ${bank.status}; its record stays as history and cannot be changed.`);
+    throw new AppError('replaced', `This bank was ${bank.status}; its record stays as history and cannot be changed.`);
   }
   return bank;
 }

@@ -12,26 +12,24 @@ export interface VersionedRecord extends Model {
   retiredAt: Date | null;
 }
 
-/** 409 for a write based on an old version. */
+/** `stale-version`: a write based on an old version. */
 export function staleVersion(what: string, sentVersion: number, currentVersion: number): AppError {
-  return new AppError(
-    'stale-version',
-    409,
+  return AppError.staleVersion(
     `Someone else saved this ${what} after you opened it (you edited version ${sentVersion}, it is now version ${currentVersion}). ` +
       'Reload to see their changes, then make yours again.',
   );
 }
 
-/** 409 for a change to a retired record. */
+/** `retired`: a change to a retired record. */
 export function retiredRecord(what: string): AppError {
-  return new AppError('retired', 409, `This ${what} is retired; retired records stay for history and cannot be changed.`);
+  return new AppError('retired', `This ${what} is retired; retired records stay for history and cannot be changed.`);
 }
 
 /**
  * Loads a record for change: locks its row for the transaction, then checks that it exists,
  * is not retired, and is still at the version the editor read.
  *
- * @throws AppError 404 when missing, 409 `stale-version` or `retired`
+ * @throws AppError `not-found` when missing, `stale-version` or `retired`
  */
 export async function lockForChange<M extends VersionedRecord>(
   model: ModelStatic<M>,
@@ -77,14 +75,14 @@ export function pageWindow(query: { page: number; pageSize: number }): { limit: 
   return { limit: query.pageSize, offset: (query.page - 1) * query.pageSize };
 }
 
-/** A 400 naming one field, for references that do not resolve (e.g. an unknown area). */
+/** `validation-failed` naming one field, for references that do not resolve (e.g. an unknown area). */
 export function fieldProblem(path: string, message: string): AppError {
   return AppError.badRequest(`${path}: ${message}`, [{ path, message }]);
 }
 
-/** A 409 naming the field whose value another record already holds. */
+/** `duplicate` naming the field whose value another record already holds. */
 export function duplicateValue(path: string, message: string): AppError {
-  return new AppError('duplicate', 409, message, [{ path, message }]);
+  return AppError.duplicate(path, message);
 }
 
 function capitalise(text: string): string {

@@ -105,7 +105,7 @@ export async function retireSite(id: string, version: number, actor: AuthUser): 
     const site = await lockForChange(Site, id, version, 'site', transaction);
     const areasInUse = await Area.count({ where: { siteId: id, retiredAt: null }, transaction });
     if (areasInUse > 0) {
-      throw new AppError('in-use', 409, `${site.name} still has ${areasInUse} area(s) in use. Retire its areas first.`);
+      throw new AppError('in-use', `${site.name} still has ${areasInUse} area(s) in use. Retire its areas first.`);
     }
     await saveChange(
       SITE_TRAIL,

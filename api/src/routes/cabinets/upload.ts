@@ -12,7 +12,7 @@ const upload = multer({
   fileFilter: (_req, file, accept) => {
     const isCsvName = /\.csv$/i.test(file.originalname);
     if (isCsvName && CSV_TYPES.has(file.mimetype)) accept(null, true);
-    else accept(new AppError('unsupported-file', 415, `${file.originalname} is not a CSV file. Save the sheet as CSV (.csv) and upload that.`));
+    else accept(new AppError('unsupported-file', `${file.originalname} is not a CSV file. Save the sheet as CSV (.csv) and upload that.`));
   },
 }).single('file');
 
@@ -29,7 +29,7 @@ export const csvUpload: RequestHandler = (req, res, next) => {
     }
     if (err instanceof multer.MulterError) {
       if (err.code === 'LIMIT_FILE_SIZE') {
-        next(new AppError('file-too-large', 413, `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it and import the parts.`));
+        next(new AppError('file-too-large', `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it and import the parts.`));
       } else next(AppError.badRequest(`file: ${err.message}.`, [{ path: 'file', message: err.message }]));
       return;
     }
