@@ -1,13 +1,13 @@
 /** API tokens: named bearer secrets for scripts and logger gateways, made on the profile page. */
 import { z } from 'zod';
 import { ROLES, type Role } from '../constants/roles';
+import { storableString } from './common';
 
 /** The expiries the profile page offers, in days; the API accepts any from 1 to 365. */
 export const API_TOKEN_EXPIRY_DAYS = [7, 30, 90, 365] as const;
 
 export const apiTokenInputSchema = z.object({
-  name: z
-    .string({ error: 'Enter a name for the token.' })
+  name: storableString('token name', 'Enter a name for the token.')
     .trim()
     .min(1, 'Enter a name for the token.')
     .max(80, 'Keep the name under 80 characters.'),

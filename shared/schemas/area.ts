@@ -1,18 +1,18 @@
 /** An area of a site: a line, hall or plant room holding cabinets. */
 import { z } from 'zod';
-import { listQuerySchema, optionalText, recordId, requiredText, versionField, type RecordMeta } from './common';
+import { changeShape, listQuerySchema, optionalText, recordId, requiredText, versionField, type RecordMeta } from './common';
 
 /** Fields a person enters for an area. */
-export const areaInputSchema = z.object({
-  siteId: recordId('site'),
+const areaFields = {
   name: requiredText(120, 'area name'),
   description: optionalText(1000, 'description'),
-});
+};
+export const areaInputSchema = z.object({ siteId: recordId('site'), ...areaFields });
 export type AreaInput = z.input<typeof areaInputSchema>;
 export type AreaData = z.output<typeof areaInputSchema>;
 
 /** A change to an area. Moving an area to another site is not a change: retire it instead. */
-export const areaUpdateSchema = areaInputSchema.omit({ siteId: true }).partial().extend({ version: versionField });
+export const areaUpdateSchema = z.object({ ...changeShape(areaFields), version: versionField });
 export type AreaUpdate = z.output<typeof areaUpdateSchema>;
 
 export const AREA_SORT_FIELDS = ['name', 'site', 'updatedAt'] as const;

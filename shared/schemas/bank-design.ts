@@ -11,7 +11,18 @@ import {
   DEFAULT_INSPECTION_INTERVAL_DAYS,
   type CapacitorTechnology,
 } from '../constants/health';
-import { listQuerySchema, optionalText, positiveNumber, requiredText, versionField, wholeNumber, type PersonRef, type RecordMeta } from './common';
+import {
+  changeShape,
+  listQuerySchema,
+  optionalText,
+  positiveNumber,
+  requiredText,
+  storableString,
+  versionField,
+  wholeNumber,
+  type PersonRef,
+  type RecordMeta,
+} from './common';
 
 const ratio = (what: string) =>
   z
@@ -67,8 +78,7 @@ const limitsInOrder = (v: { watchRatio?: number; endOfLifeRatio?: number }) =>
 const limitsMessage = { message: 'The end-of-life limit must be below the watch limit.', path: ['endOfLifeRatio'] };
 
 const identityFields = {
-  code: z
-    .string({ error: 'Enter a design code.' })
+  code: storableString('design code', 'Enter a design code.')
     .trim()
     .toUpperCase()
     .min(1, 'Enter a design code.')
@@ -97,11 +107,10 @@ export type BankDesignData = z.output<typeof bankDesignInputSchema>;
 /** A change to a design, with the version the editor read and why (kept with the revision). */
 export const bankDesignUpdateSchema = z
   .object({
-    ...identityFields,
-    ...bankDesignRevisionFieldsSchema.shape,
+    ...changeShape({ ...identityFields, ...bankDesignRevisionFieldsSchema.shape }),
+    version: versionField,
+    changeNote: optionalText(500, 'change note'),
   })
-  .partial()
-  .extend({ version: versionField, changeNote: optionalText(500, 'change note') })
   .refine(limitsInOrder, limitsMessage);
 export type BankDesignUpdate = z.output<typeof bankDesignUpdateSchema>;
 

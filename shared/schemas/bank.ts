@@ -8,6 +8,9 @@ import type { CapacitorTechnology, HealthName } from '../constants/health';
 import { BANK_STATUSES, type BankStatus, type BaselineSource } from '../constants/register';
 import type { BankDesignRevisionFields } from './bank-design';
 import {
+  calendarDate,
+  changeShape,
+  confirmationField,
   listQuerySchema,
   optionalCalendarDate,
   optionalText,
@@ -20,15 +23,15 @@ import {
 } from './common';
 
 /** Fields a person enters for a bank (its cabinet comes from the path or the body). */
-export const bankInputSchema = z.object({
-  cabinetId: recordId('cabinet'),
+const bankFields = {
   bankDesignId: recordId('bank design'),
   /** Which DC link of the cabinet, e.g. "Drive 1 DC link" or "DC1". */
   position: requiredText(60, 'position'),
   serialNumber: optionalText(80, 'serial number'),
   installedOn: optionalCalendarDate('install date'),
   notes: optionalText(2000, 'notes'),
-});
+};
+export const bankInputSchema = z.object({ cabinetId: recordId('cabinet'), ...bankFields, confirmed: confirmationField });
 export type BankInput = z.input<typeof bankInputSchema>;
 export type BankData = z.output<typeof bankInputSchema>;
 
@@ -39,7 +42,7 @@ export const cabinetBankInputSchema = bankInputSchema.omit({ cabinetId: true });
  * A change to a bank. Changing the design corrects a wrong record (a nameplate baseline
  * follows it); a new bank in the same place is a replacement instead.
  */
-export const bankUpdateSchema = bankInputSchema.omit({ cabinetId: true }).partial().extend({ version: versionField });
+export const bankUpdateSchema = z.object({ ...changeShape(bankFields), version: versionField, confirmed: confirmationField });
 export type BankUpdate = z.output<typeof bankUpdateSchema>;
 
 /**
@@ -53,6 +56,7 @@ export const bankBaselineInputSchema = z
     tauSeconds: positiveNumber('baseline τ').max(100_000).nullable().default(null),
     capacitanceMicrofarads: positiveNumber('baseline capacitance').max(100_000_000).nullable().default(null),
     note: optionalText(500, 'note'),
+    confirmed: confirmationField,
   })
   .superRefine((v, ctx) => {
     if (v.source !== 'manual') return;
@@ -69,8 +73,9 @@ export const bankReplacementInputSchema = z.object({
   /** Design of the new bank; the old bank's design when left out. */
   bankDesignId: recordId('bank design').optional(),
   serialNumber: optionalText(80, 'serial number'),
-  installedOn: z.iso.date({ error: 'Enter the date the new bank went in (YYYY-MM-DD).' }),
+  installedOn: calendarDate('date the new bank went in'),
   note: optionalText(500, 'note'),
+  confirmed: confirmationField,
 });
 export type BankReplacementInput = z.input<typeof bankReplacementInputSchema>;
 export type BankReplacementData = z.output<typeof bankReplacementInputSchema>;

@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { CRITICALITIES, EDITABLE_CABINET_STATUSES } from '../constants/register';
 import { cabinetTagSchema } from './cabinet';
+import { DATE_YEARS, isInDateYears, isStorableText } from './common';
 
 /** Columns of the template, in order, with what each holds. */
 export const CABINET_IMPORT_COLUMNS = [
@@ -44,18 +45,22 @@ function numberCell(what: string, max: number, unit: string, optional = false): 
   }, optional ? n.optional() : n);
 }
 
+/** A cell's text as PostgreSQL can store it (a NUL byte in the file cannot be). */
+const storableCell = (what: string) =>
+  z.string({ error: `${what} is missing` }).refine(isStorableText, `${what} holds a character that cannot be stored (a NUL)`);
+
 const textCell = (max: number) =>
-  z.preprocess((v) => (typeof v === 'string' ? v.trim() : ''), z.string().max(max, `longer than ${max} characters`));
+  z.preprocess((v) => (typeof v === 'string' ? v.trim() : ''), storableCell('the cell').max(max, `longer than ${max} characters`));
 
 /** One data row of the CSV, cells as strings, validated and converted. */
 export const cabinetImportRowSchema = z.object({
   site_code: z.preprocess(
     (v) => (typeof v === 'string' ? v.trim().toUpperCase() : v),
-    z.string({ error: 'site code is missing' }).min(1, 'site code is missing'),
+    storableCell('site code').min(1, 'site code is missing'),
   ),
   area: z.preprocess(
     (v) => (typeof v === 'string' ? v.trim() : v),
-    z.string({ error: 'area is missing' }).min(1, 'area is missing').max(120, 'longer than 120 characters'),
+    storableCell('area').min(1, 'area is missing').max(120, 'longer than 120 characters'),
   ),
   tag: z.preprocess((v) => (v === undefined ? '' : v), cabinetTagSchema),
   location: textCell(200),
@@ -69,7 +74,12 @@ export const cabinetImportRowSchema = z.object({
       const s = blankToUndefined(v);
       return typeof s === 'string' && /^\s*\d+\s*$/.test(s) ? Number(s) : s;
     },
-    z.number({ error: 'marked wait time must be whole minutes' }).int().min(0).max(240, 'marked wait time above 240 min').optional(),
+    z
+      .number({ error: 'marked wait time must be whole minutes' })
+      .int()
+      .min(1, 'marked wait time must be at least 1 min (leave it blank when not marked)')
+      .max(240, 'marked wait time above 240 min')
+      .optional(),
   ),
   criticality: z.preprocess(
     (v) => (typeof blankToUndefined(v) === 'string' ? (v as string).trim().toLowerCase() : undefined),
@@ -78,7 +88,10 @@ export const cabinetImportRowSchema = z.object({
   environment_notes: textCell(1000),
   commissioned_on: z.preprocess(
     (v) => (typeof blankToUndefined(v) === 'string' ? (v as string).trim() : undefined),
-    z.iso.date({ error: 'commissioning date must be YYYY-MM-DD' }).optional(),
+    z.iso
+      .date({ error: 'commissioning date must be YYYY-MM-DD' })
+      .refine(isInDateYears, `commissioning date must be between ${DATE_YEARS.min} and ${DATE_YEARS.max}`)
+      .optional(),
   ),
   status: z.preprocess(
     (v) =>
@@ -110,11 +123,16 @@ export interface ImportPreviewRow {
 /** What the import found in a file; `committed` is true once it stored the rows. */
 export interface ImportPreview {
   fileName: string;
+  /** Data rows in the file. */
   rowCount: number;
   validCount: number;
+  /** Problems found in the whole file. */
   problemCount: number;
-  /** Every problem of every row, in row order. */
+  /** The first problems in row order (at most IMPORT_PROBLEMS_LISTED). */
   problems: ImportProblem[];
+  /** Problems found but not listed in `problems`: problemCount − problems.length. */
+  problemsNotListed: number;
+  /** The first rows of the file (at most IMPORT_ROWS_LISTED), each with its own problems. */
   rows: ImportPreviewRow[];
   /** New areas the import would create, as "site code / area". */
   newAreas: string[];

@@ -10,19 +10,21 @@ import {
   type CabinetStatus,
 } from '../constants/register';
 import {
+  changeShape,
+  confirmationField,
   listQuerySchema,
   optionalCalendarDate,
   optionalText,
   positiveNumber,
   recordId,
+  storableString,
   versionField,
   wholeNumber,
   type RecordMeta,
 } from './common';
 
 /** A cabinet tag: letters, digits and . _ / - ; stored in capitals. */
-export const cabinetTagSchema = z
-  .string({ error: 'Enter the cabinet tag.' })
+export const cabinetTagSchema = storableString('cabinet tag', 'Enter the cabinet tag.')
   .trim()
   .toUpperCase()
   .min(1, 'Enter the cabinet tag.')
@@ -30,7 +32,7 @@ export const cabinetTagSchema = z
   .regex(/^[A-Z0-9][A-Z0-9._/-]*$/, 'Use letters, digits and . _ / - only, e.g. BRK-M2-VFD-014.');
 
 /** Fields a person enters for a cabinet. */
-export const cabinetInputSchema = z.object({
+const cabinetFields = {
   areaId: recordId('area'),
   tag: cabinetTagSchema,
   location: optionalText(200, 'location'),
@@ -41,18 +43,22 @@ export const cabinetInputSchema = z.object({
   /** Nominal DC-bus voltage, volts (about 1.35 × the line voltage); null when not known. */
   dcBusVolts: positiveNumber('DC-bus voltage').max(20_000, 'The DC-bus voltage must be at most 20 000 V.').nullable().default(null),
   ratedPowerKilowatts: positiveNumber('rated power').max(100_000).nullable().default(null),
-  /** The drive maker's marked wait time before opening after isolation, minutes. */
-  markedWaitMinutes: wholeNumber('marked wait time', 0, 240).nullable().default(null),
+  /**
+   * The drive maker's marked wait time before opening after isolation, minutes; at least 1
+   * (a wait of 0 would print "wait at least 0 min" on the label), or null when not marked.
+   */
+  markedWaitMinutes: wholeNumber('marked wait time', 1, 240).nullable().default(null),
   criticality: z.enum(CRITICALITIES, { error: 'Choose low, medium, high or critical.' }).default('medium'),
   environmentNotes: optionalText(1000, 'environment notes'),
   commissionedOn: optionalCalendarDate('commissioning date'),
   status: z.enum(EDITABLE_CABINET_STATUSES, { error: 'Choose in service or out of service.' }).default('in-service'),
-});
+};
+export const cabinetInputSchema = z.object({ ...cabinetFields, confirmed: confirmationField });
 export type CabinetInput = z.input<typeof cabinetInputSchema>;
 export type CabinetData = z.output<typeof cabinetInputSchema>;
 
 /** A change to a cabinet, with the version the editor read. */
-export const cabinetUpdateSchema = cabinetInputSchema.partial().extend({ version: versionField });
+export const cabinetUpdateSchema = z.object({ ...changeShape(cabinetFields), version: versionField, confirmed: confirmationField });
 export type CabinetUpdate = z.output<typeof cabinetUpdateSchema>;
 
 export const CABINET_SORT_FIELDS = ['tag', 'site', 'area', 'status', 'criticality', 'commissionedOn', 'updatedAt'] as const;
@@ -67,7 +73,7 @@ export const cabinetListQuerySchema = listQuerySchema(CABINET_SORT_FIELDS, 'tag'
 export type CabinetListQuery = z.output<typeof cabinetListQuerySchema>;
 
 /** A cabinet as the API returns it. */
-export interface Cabinet extends RecordMeta, Omit<CabinetData, 'status'> {
+export interface Cabinet extends RecordMeta, Omit<CabinetData, 'status' | 'confirmed'> {
   status: CabinetStatus;
   siteId: string;
   siteName: string;

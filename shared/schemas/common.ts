@@ -10,21 +10,78 @@ export const versionField = z
   .int()
   .min(0);
 
-/** A calendar date `YYYY-MM-DD` (no time, no zone). */
+/**
+ * Text PostgreSQL cannot store: a NUL character (text columns refuse it) or half of a UTF-16
+ * surrogate pair (not a character at all; JSON's `\ud800` escape decodes to one).
+ */
+const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** True when PostgreSQL can store `text` as it is. */
+export function isStorableText(text: string): boolean {
+  return !UNSTORABLE.test(text);
+}
+
+/**
+ * A string that PostgreSQL can store; every text field of the schemas starts from it.
+ * @example storableString('notes').safeParse('a\u0000b').success // false
+ */
+export const storableString = (what: string, error = `Enter the ${what} as text.`) =>
+  z.string({ error }).refine(isStorableText, `The ${what} holds a character that cannot be stored (a NUL or a broken character); retype it.`);
+
+/** The years a register date may fall in: older or later dates are typing slips. */
+export const DATE_YEARS = { min: 1900, max: 2200 } as const;
+
+/**
+ * A calendar date `YYYY-MM-DD` (no time, no zone) in the years 1900–2200.
+ * @example calendarDate('install date').safeParse('0000-01-01').success // false
+ */
 export const calendarDate = (what = 'date') =>
-  z.iso.date({ error: `Enter the ${what} as a date (YYYY-MM-DD).` });
+  z.iso
+    .date({ error: `Enter the ${what} as a date (YYYY-MM-DD).` })
+    .refine(isInDateYears, `The ${what} must fall between ${DATE_YEARS.min} and ${DATE_YEARS.max}.`);
+
+/** True when the `YYYY-MM-DD` date falls in the years a register date may have. */
+export function isInDateYears(date: string): boolean {
+  const year = Number(date.slice(0, 4));
+  return year >= DATE_YEARS.min && year <= DATE_YEARS.max;
+}
+
+/** A field as a change takes it: optional, with no default. */
+export type ChangeField<T> = z.ZodOptional<T extends z.ZodDefault<infer Inner> ? Inner : T extends z.ZodType ? T : never>;
+
+/**
+ * The shape of a change (a PATCH body): every field optional, and none filled in when left
+ * out, so a change writes only the fields it names. zod's `.partial()` keeps `.default()`s: an
+ * update schema built from a create schema with it would overwrite every field the change
+ * does not name with its default.
+ *
+ * @example z.object(changeShape({ notes: optionalText(10) })).parse({}) // {} (not { notes: '' })
+ */
+export function changeShape<S extends z.ZodRawShape>(shape: S): { [K in keyof S]: ChangeField<S[K]> } {
+  const out: Record<string, z.ZodType> = {};
+  for (const [key, field] of Object.entries(shape)) {
+    const inner = field instanceof z.ZodDefault ? (field.unwrap() as z.ZodType) : (field as z.ZodType);
+    out[key] = inner.optional();
+  }
+  return out as { [K in keyof S]: ChangeField<S[K]> };
+}
+
+/**
+ * Sent as true to save a value the register finds unlikely (a `confirmation-needed` answer
+ * asked "are you sure?"); values that cannot be true are refused whatever it says.
+ */
+export const confirmationField = z.boolean({ error: 'confirmed is true or false.' }).optional();
 
 /** A calendar date that may be left empty (null). */
 export const optionalCalendarDate = (what = 'date') => calendarDate(what).nullable().default(null);
 
 /** Free text that may be empty; trimmed. */
 export const optionalText = (max: number, what = 'text') =>
-  z.string().trim().max(max, `Keep the ${what} under ${max} characters.`).default('');
+  storableString(what).trim().max(max, `Keep the ${what} under ${max} characters.`).default('');
 
 /** A required short text; trimmed. */
 export const requiredText = (max: number, what: string) =>
-  z
-    .string({ error: `Enter the ${what}.` })
+  storableString(what, `Enter the ${what}.`)
     .trim()
     .min(1, `Enter the ${what}.`)
     .max(max, `Keep the ${what} under ${max} characters.`);
@@ -71,7 +128,7 @@ export function listQuerySchema<const F extends readonly [string, ...string[]], 
       .enum(sortValues, { error: `sort must be one of: ${sortValues.join(', ')}` })
       .default(defaultSort)
       .transform((s) => parseSort<F[number]>(s)),
-    q: z.string().trim().max(100).optional(),
+    q: storableString('search').trim().max(100).optional(),
     includeRetired: queryFlag.default(false),
     ...extra,
   });

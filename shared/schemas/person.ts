@@ -1,6 +1,7 @@
 /** People: the users of Ebbline and their roles, as an admin manages them. */
 import { z } from 'zod';
 import { ROLES, type Role } from '../constants/roles';
+import { storableString } from './common';
 
 const roleList = z
   .array(z.enum(ROLES, { error: `A role is one of: ${ROLES.join(', ')}.` }), {
@@ -23,7 +24,7 @@ export type PersonUpdate = z.output<typeof personUpdateSchema>;
 
 /** GET /api/people?q=…&includeDeactivated=… */
 export const peopleQuerySchema = z.object({
-  q: z.string().trim().max(100, 'Keep the search under 100 characters.').optional(),
+  q: storableString('search').trim().max(100, 'Keep the search under 100 characters.').optional(),
   includeDeactivated: z
     .enum(['true', 'false'], { error: 'includeDeactivated is true or false' })
     .transform((v) => v === 'true')

@@ -6,19 +6,21 @@ import { z } from 'zod';
 import { DEFAULT_REFORMING_INTERVAL_DAYS, SPARE_KINDS, SPARE_STATUSES, type SpareKind, type SpareStatus } from '../constants/register';
 import {
   calendarDate,
+  changeShape,
+  confirmationField,
   listQuerySchema,
   optionalCalendarDate,
   optionalText,
   recordId,
   requiredText,
+  storableString,
   versionField,
   wholeNumber,
   type RecordMeta,
 } from './common';
 
 const spareFields = {
-  code: z
-    .string({ error: 'Enter the spare code.' })
+  code: storableString('spare code', 'Enter the spare code.')
     .trim()
     .toUpperCase()
     .min(1, 'Enter the spare code.')
@@ -42,15 +44,13 @@ const reformedAfterStore = (v: { storageStartedOn?: string; lastReformedOn?: str
 const reformedMessage = { message: 'The last reforming cannot be before the spare went into store.', path: ['lastReformedOn'] };
 
 /** Fields a person enters for a spare. */
-export const spareInputSchema = z.object(spareFields).refine(reformedAfterStore, reformedMessage);
+export const spareInputSchema = z.object({ ...spareFields, confirmed: confirmationField }).refine(reformedAfterStore, reformedMessage);
 export type SpareInput = z.input<typeof spareInputSchema>;
 export type SpareData = z.output<typeof spareInputSchema>;
 
 /** A change to a spare, with the version the editor read. */
 export const spareUpdateSchema = z
-  .object(spareFields)
-  .partial()
-  .extend({ version: versionField })
+  .object({ ...changeShape(spareFields), version: versionField, confirmed: confirmationField })
   .refine(reformedAfterStore, reformedMessage);
 export type SpareUpdate = z.output<typeof spareUpdateSchema>;
 
