@@ -2,6 +2,7 @@ import { describe, expect, inject, it } from 'vitest';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
+import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 
@@ -22,7 +23,7 @@ describe('People (admin)', () => {
     // the editor closes when the server has saved; the row then shows the new role
     await page.getByRole('button', { name: 'Edit Priya Halden' }).waitFor();
     const row = page.getByTestId('person-row').filter({ hasText: 'Priya Halden' });
-    expect(await row.textContent()).toContain('Reliability engineer');
+    await eventually(() => row.textContent()).toContain('Reliability engineer');
     await screenshot(page, 'people-desktop');
 
     await page.getByRole('tab', { name: 'Sign-in log' }).click();
@@ -30,12 +31,12 @@ describe('People (admin)', () => {
     await log.waitFor();
     const change = log.locator('li[data-kind="roles-changed"]').first();
     await change.waitFor();
-    expect(await change.textContent()).toContain('Priya Halden');
-    expect(await change.textContent()).toContain('by Maren Oyelaran');
-    expect(await change.textContent()).toContain(
+    await eventually(() => change.textContent()).toContain('Priya Halden');
+    await eventually(() => change.textContent()).toContain('by Maren Oyelaran');
+    await eventually(() => change.textContent()).toContain(
       'Maintenance planner → Maintenance planner, Reliability engineer',
     );
-    expect(await log.locator('li[data-kind="sign-in"]').first().textContent()).toMatch(
+    await eventually(() => log.locator('li[data-kind="sign-in"]').first().textContent()).toMatch(
       /Chrome on Linux/,
     );
     await screenshot(page, 'sign-in-log-desktop');
@@ -94,7 +95,7 @@ describe('People (admin)', () => {
     await rurik.page.getByLabel('Password').fill('tidewater-rel');
     await rurik.page.getByRole('button', { name: 'Sign in' }).click();
     await rurik.page.getByTestId('sign-in-problem').waitFor();
-    expect(await rurik.page.getByRole('heading').first().textContent()).toBe(
+    await eventually(() => rurik.page.getByRole('heading').first().textContent()).toBe(
       'Your Ebbline account is deactivated',
     );
 

@@ -2,6 +2,7 @@ import { afterEach, describe, expect, inject, it } from 'vitest';
 import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
+import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 
@@ -27,7 +28,9 @@ describe('the profile page’s API tokens', () => {
     await page.getByLabel('Name').fill('Logger gateway, Mill 2');
     await page.getByLabel('Expires after').selectOption('30');
     await page.getByRole('button', { name: 'Create token' }).click();
-    const secret = (await page.getByTestId('token-secret').textContent()) ?? '';
+    const shownSecret = page.getByTestId('token-secret').filter({ hasText: /^ebl_/ });
+    await shownSecret.waitFor();
+    const secret = (await shownSecret.textContent()) ?? '';
     expect(secret).toMatch(/^ebl_/);
     await screenshot(page, 'profile-token-issued');
 
@@ -36,7 +39,7 @@ describe('the profile page’s API tokens', () => {
     expect(((await me.json()) as { name: string }).name).toBe('Ines Carvell');
 
     await page.getByRole('button', { name: 'Done' }).click();
-    expect(await page.getByTestId('issued-token').count()).toBe(0);
+    await eventually(() => page.getByTestId('issued-token').count()).toBe(0);
     // the secret is nowhere on the page any more, not even after a reload; the use shows
     expect(await page.content()).not.toContain(secret);
     await page.reload();

@@ -2,6 +2,7 @@ import { describe, expect, inject, it } from 'vitest';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
+import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 
@@ -27,7 +28,7 @@ describe('the register (planner)', () => {
     await page.getByLabel('Name').fill('Quarrymoor Depot');
     await page.getByRole('button', { name: 'Add site' }).click();
     await page.getByTestId('error-code').waitFor();
-    expect(await page.getByTestId('error-code').textContent()).toMatch(/letters or digits/);
+    await eventually(() => page.getByTestId('error-code').textContent()).toMatch(/letters or digits/);
     await page.getByLabel('Code').fill('q');
     await page.getByLabel('Time zone').fill('Europe/London');
     await page.getByRole('button', { name: 'Add site' }).click();
@@ -46,7 +47,7 @@ describe('the register (planner)', () => {
     await expect.poll(() => page.getByLabel('Area').inputValue()).not.toBe('');
     await page.getByRole('button', { name: 'Add cabinet' }).click();
     await page.getByTestId('error-supplyVolts').waitFor();
-    expect(await page.getByTestId('error-supplyVolts').textContent()).toBe('Enter the supply voltage as a number.');
+    await eventually(() => page.getByTestId('error-supplyVolts').textContent()).toBe('Enter the supply voltage as a number.');
     await screenshot(page, 'register-cabinet-form-errors');
     await page.getByLabel('Supply voltage (AC line)').fill('400');
     await page.getByLabel('Nominal DC-bus voltage').fill('540');
@@ -68,16 +69,16 @@ describe('the register (planner)', () => {
     await page.getByLabel('Installed on').fill('2024-05-02');
     await page.getByRole('button', { name: 'Add bank' }).click();
     await page.getByRole('heading', { name: 'Drive 1 DC link' }).waitFor();
-    const baseline = await page.getByTestId('baseline').textContent();
-    expect(baseline).toContain('7,050 µF');
-    expect(baseline).toContain('from nameplate');
-    expect(baseline).toContain('Tomas Keelan');
+    const baseline = () => page.getByTestId('baseline').textContent();
+    await eventually(baseline).toContain('7,050 µF');
+    await eventually(baseline).toContain('from nameplate');
+    await eventually(baseline).toContain('Tomas Keelan');
     await screenshot(page, 'register-bank-desktop');
 
     await page.goto(cabinetUrl);
     const row = page.getByTestId('table-row').filter({ hasText: 'Drive 1 DC link' });
     await row.waitFor();
-    expect(await row.textContent()).toContain('—');
+    await eventually(() => row.textContent()).toContain('—');
     await page.getByTestId('audit-entry').first().waitFor();
     await screenshot(page, 'register-cabinet-desktop');
     expect(console.problems).toEqual([]);
@@ -99,7 +100,7 @@ describe('the register (planner)', () => {
     await first.page.getByRole('button', { name: 'Save changes' }).click();
     const problem = first.page.getByTestId('save-problem');
     await problem.waitFor();
-    expect(await problem.textContent()).toContain('Someone else changed this cabinet first');
+    await eventually(() => problem.textContent()).toContain('Someone else changed this cabinet first');
     await screenshot(first.page, 'register-conflict');
     await first.page.getByRole('button', { name: /Load their version/ }).click();
     await expect.poll(() => first.page.getByLabel('Location').inputValue()).toBe('Line 1, bay 9');
@@ -120,11 +121,11 @@ describe('the register (planner)', () => {
     );
     const problem = page.getByTestId('import-problem');
     await problem.first().waitFor();
-    expect(await problem.count()).toBe(1);
-    expect(await problem.first().getAttribute('data-row')).toBe('3');
-    expect(await problem.first().getAttribute('data-column')).toBe('supply_volts');
-    expect(await problem.first().textContent()).toContain('supply voltage is missing or not a number');
-    expect(await page.getByRole('button', { name: 'Import 3 cabinets' }).isDisabled()).toBe(true);
+    await eventually(() => problem.count()).toBe(1);
+    await eventually(() => problem.first().getAttribute('data-row')).toBe('3');
+    await eventually(() => problem.first().getAttribute('data-column')).toBe('supply_volts');
+    await eventually(() => problem.first().textContent()).toContain('supply voltage is missing or not a number');
+    await eventually(() => page.getByRole('button', { name: 'Import 3 cabinets' }).isDisabled()).toBe(true);
     await screenshot(page, 'register-import-problems');
 
     await page.getByTestId('import-file').setInputFiles(
@@ -137,7 +138,7 @@ describe('the register (planner)', () => {
     await page.getByTestId('import-summary').filter({ hasText: '3 ready' }).waitFor();
     await page.getByRole('button', { name: 'Import 3 cabinets' }).click();
     await page.getByTestId('import-done').waitFor();
-    expect(await page.getByTestId('import-done').textContent()).toContain('3 cabinets from marrowgate-line-5.csv');
+    await eventually(() => page.getByTestId('import-done').textContent()).toContain('3 cabinets from marrowgate-line-5.csv');
     await screenshot(page, 'register-import-done');
 
     await page.goto(`${baseUrl}/register/cabinets?q=BRK-M5-VFD`);
@@ -150,14 +151,14 @@ describe('the register (planner)', () => {
     await page.getByRole('link', { name: 'BRK-H2-VFD-001' }).first().click();
     await page.getByRole('heading', { name: 'BRK-H2-VFD-001' }).waitFor();
     // the cabinet page speaks of the marked wait time, so it carries the discharge caution
-    expect(await page.getByTestId('discharge-caution').textContent()).toContain('Only qualified persons');
+    await eventually(() => page.getByTestId('discharge-caution').textContent()).toContain('Only qualified persons');
     const cabinetPath = new URL(page.url()).pathname;
     await page.getByRole('link', { name: 'Print label' }).click();
     const label = page.getByTestId('cabinet-label').first();
     await label.waitFor();
-    expect(await label.textContent()).toContain('BRK-H2-VFD-001');
-    expect(await label.textContent()).toMatch(/Qualified persons only.*rated meter/);
-    expect(await page.getByTestId('label-url').textContent()).toBe(`${baseUrl}${cabinetPath}`);
+    await eventually(() => label.textContent()).toContain('BRK-H2-VFD-001');
+    await eventually(() => label.textContent()).toMatch(/Qualified persons only.*rated meter/);
+    await eventually(() => page.getByTestId('label-url').textContent()).toBe(`${baseUrl}${cabinetPath}`);
     const qrWidth = await page.getByTestId('label-qr').first().evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth);
     expect(qrWidth).toBeGreaterThan(0);
     await screenshot(page, 'register-label-screen');
@@ -169,10 +170,10 @@ describe('the register (planner)', () => {
       };
     });
     await page.getByRole('button', { name: 'Print label' }).click();
-    expect(await page.evaluate(() => (window as unknown as { printed: boolean }).printed)).toBe(true);
+    await eventually(() => page.evaluate(() => (window as unknown as { printed: boolean }).printed)).toBe(true);
     // what the printer gets: the label alone
     await page.emulateMedia({ media: 'print' });
-    expect(await page.locator('.ebbline-label-print [data-testid="cabinet-label"]').isVisible()).toBe(true);
+    await eventually(() => page.locator('.ebbline-label-print [data-testid="cabinet-label"]').isVisible()).toBe(true);
     expect(await page.getByRole('heading', { name: 'Register' }).isVisible()).toBe(false);
     await page.screenshot({ path: '.data/screenshots/register-label-print.png' });
   });
@@ -185,8 +186,8 @@ describe('the register (technician)', () => {
     await signIn(page, 'dario', 'tidewater-tech', { returnTo: '/register/cabinets' });
     await page.getByRole('heading', { name: 'Register' }).waitFor();
     await page.getByTestId('read-only-note').waitFor();
-    expect(await page.getByRole('link', { name: 'Add cabinet' }).count()).toBe(0);
-    expect(await page.getByRole('link', { name: 'Import CSV' }).count()).toBe(0);
+    await eventually(() => page.getByRole('link', { name: 'Add cabinet' }).count()).toBe(0);
+    await eventually(() => page.getByRole('link', { name: 'Import CSV' }).count()).toBe(0);
     await page.getByPlaceholder('Tag, e.g. M2-VFD-014').fill('S2-VFD');
     await page.getByTestId('list-total').filter({ hasText: /^1–\d+ of \d+$/ }).waitFor();
     await expect.poll(async () => (await page.getByRole('list', { name: 'Cabinets' }).getByRole('link').allTextContents()).every((t) => t.includes('S2-VFD'))).toBe(true);
@@ -195,15 +196,15 @@ describe('the register (technician)', () => {
     await page.getByRole('list', { name: 'Cabinets' }).getByRole('link').first().click();
     await page.getByRole('link', { name: 'Print label' }).waitFor();
     await page.getByRole('list', { name: 'Banks' }).getByText('Drive 1 DC link').first().waitFor();
-    expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
-    expect(await page.getByRole('button', { name: 'Retire' }).count()).toBe(0);
-    expect(await page.getByRole('link', { name: 'Add bank' }).count()).toBe(0);
-    expect(await page.getByRole('link', { name: 'Print label' }).count()).toBe(1);
+    await eventually(() => page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
+    await eventually(() => page.getByRole('button', { name: 'Retire' }).count()).toBe(0);
+    await eventually(() => page.getByRole('link', { name: 'Add bank' }).count()).toBe(0);
+    await eventually(() => page.getByRole('link', { name: 'Print label' }).count()).toBe(1);
     await screenshot(page, 'register-cabinet-phone');
 
     await page.goto(`${baseUrl}/register/cabinets/new`);
     await page.getByTestId('read-only-note').waitFor();
-    expect(await page.getByRole('button', { name: 'Add cabinet' }).count()).toBe(0);
+    await eventually(() => page.getByRole('button', { name: 'Add cabinet' }).count()).toBe(0);
 
     await page.goto(`${baseUrl}/register/spares?overdue=true`);
     await page.getByRole('list', { name: 'Spares' }).waitFor();
@@ -233,7 +234,7 @@ describe('the register on a phone (planner)', () => {
       csvFile('hollin-additions.csv', ['H,Silo top,BRK-H2-VFD-101,,,,four hundred,,,,,,,', 'X,Silo top,BRK-H2-VFD-102,,,,400,,,,,,,']),
     );
     await page.getByTestId('import-problems').waitFor();
-    expect(await page.getByTestId('import-problem').count()).toBe(2);
+    await eventually(() => page.getByTestId('import-problem').count()).toBe(2);
     await screenshot(page, 'register-import-phone');
     expect(console.problems).toEqual([]);
   });
@@ -250,8 +251,8 @@ describe('the register (reliability engineer)', () => {
     await page.getByRole('button', { name: 'Save changes' }).click();
     const revisions = page.getByTestId('revisions');
     await revisions.filter({ hasText: 'Revision 2' }).waitFor();
-    expect(await revisions.textContent()).toContain('Revision 1');
-    expect(await revisions.textContent()).toContain('Tighter watch after the fleet review');
+    await eventually(() => revisions.textContent()).toContain('Revision 1');
+    await eventually(() => revisions.textContent()).toContain('Tighter watch after the fleet review');
     await screenshot(page, 'register-design-desktop');
 
     // what the engineer reads elsewhere in the register

@@ -1,6 +1,7 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, inject, it } from 'vitest';
 import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
 import { signIn } from '../support/sign-in';
+import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 
@@ -17,8 +18,8 @@ describe('the application shell', () => {
     const { page } = session;
     await page.goto(`${baseUrl}/fleet`);
     await page.getByTestId('health-status').waitFor();
-    expect(await page.getByTestId('health-status').textContent()).toBe('ok');
-    expect(await page.getByTestId('health-version').textContent()).toBe(api.version);
+    await eventually(() => page.getByTestId('health-status').textContent()).toBe('ok');
+    await eventually(() => page.getByTestId('health-version').textContent()).toBe(api.version);
     await screenshot(page, 'shell-desktop');
   });
 

@@ -3,6 +3,7 @@ import { describe, expect, inject, it } from 'vitest';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn, signOut } from '../support/sign-in';
+import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 const issuer = inject('issuer');
@@ -16,11 +17,11 @@ describe('signing in through the local provider', () => {
     await page.goto(`${baseUrl}/planner`);
     await page.waitForURL((url) => url.origin === new URL(issuer).origin);
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
-    expect(await page.locator('link[rel=stylesheet]').getAttribute('href')).toBe(
+    await eventually(() => page.locator('link[rel=stylesheet]').getAttribute('href')).toBe(
       '/assets/sign-in.css',
     );
     // our own font, from our own server
-    expect(await page.evaluate(() => document.fonts.check('16px "Noto Sans"'))).toBe(true);
+    await eventually(() => page.evaluate(() => document.fonts.check('16px "Noto Sans"'))).toBe(true);
     await screenshot(page, 'sign-in-desktop');
     expect(console.problems).toEqual([]);
   });
@@ -38,7 +39,7 @@ describe('signing in through the local provider', () => {
       await signIn(page, login, password);
       expect(new URL(page.url()).pathname).toBe(start);
       await page.getByRole('heading', { name: heading, exact: true }).waitFor();
-      expect(await page.getByTestId('account-name').first().textContent()).toBe(name);
+      await eventually(() => page.getByTestId('account-name').first().textContent()).toBe(name);
       await screenshot(page, `start-${login}`);
 
       await signOut(page);
@@ -88,9 +89,9 @@ describe('signing in through the local provider', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     const message = page.getByTestId('sign-in-error');
     await message.waitFor();
-    expect(await message.textContent()).toContain('The login or the password is wrong.');
-    expect(await page.getByLabel('Login').inputValue()).toBe('priya');
-    expect(await page.getByLabel('Password').inputValue()).toBe('');
+    await eventually(() => message.textContent()).toContain('The login or the password is wrong.');
+    await eventually(() => page.getByLabel('Login').inputValue()).toBe('priya');
+    await eventually(() => page.getByLabel('Password').inputValue()).toBe('');
     await screenshot(page, 'sign-in-wrong-password');
   });
 
@@ -121,7 +122,7 @@ describe('signing in through the local provider', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByTestId('sign-in-problem').waitFor();
     expect(new URL(page.url()).pathname).toBe('/sign-in-problem');
-    expect(await page.getByRole('heading').first().textContent()).toBe(
+    await eventually(() => page.getByRole('heading').first().textContent()).toBe(
       'This sign-in could not be matched',
     );
     const me = await page.evaluate(async () => (await fetch('/api/me')).status);
@@ -152,7 +153,7 @@ describe('signing in through the local provider', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByTestId('sign-in-problem').waitFor();
     expect(new URL(page.url()).search).toBe('?reason=expired');
-    expect(await page.getByRole('heading').first().textContent()).toBe('The sign-in took too long');
+    await eventually(() => page.getByRole('heading').first().textContent()).toBe('The sign-in took too long');
   });
 
   it('when an old callback address is opened again (its state spent), then it is refused', async () => {
@@ -174,7 +175,7 @@ describe('roles in the browser', () => {
     await signIn(page, 'lucia', 'tidewater-tech', { returnTo: '/people' });
     const panel = page.getByTestId('not-allowed');
     await panel.waitFor();
-    expect(await panel.textContent()).toContain('People is not open to your role');
+    await eventually(() => panel.textContent()).toContain('People is not open to your role');
     await screenshot(page, 'not-allowed');
   });
 
@@ -183,7 +184,7 @@ describe('roles in the browser', () => {
     await signIn(noor.page, 'noor', 'tidewater-new');
     await noor.page.getByTestId('waiting-for-access').waitFor();
     await noor.page.getByTestId('admin-list').waitFor();
-    expect(await noor.page.getByTestId('admin-list').textContent()).toContain('Maren Oyelaran');
+    await eventually(() => noor.page.getByTestId('admin-list').textContent()).toContain('Maren Oyelaran');
     await screenshot(noor.page, 'waiting-for-access');
 
     const admin = await browser();

@@ -13,34 +13,45 @@ const cluster: ClusterOptions = {
   durable: false,
 };
 
-describe('the project-run PostgreSQL cluster', () => {
+// initdb and pg_ctl take seconds on a quiet machine and much longer on a busy one; pg_ctl waits
+// on the server's state itself (-w, up to 60 s), so these are ceilings, never measures.
+const SLOW_STEP_MS = 180_000;
+
+/** pg_ctl -w returns once the server answers or has gone; polling confirms it from outside. */
+async function expectRunning(running: boolean): Promise<void> {
+  await expect.poll(() => isRunning(cluster), { timeout: 60_000, interval: 200 }).toBe(running);
+}
+
+describe('the project-run PostgreSQL cluster', { timeout: SLOW_STEP_MS }, () => {
   afterAll(() => {
     stopCluster(cluster);
     fs.rmSync(cluster.dataDir, { recursive: true, force: true });
-  });
+  }, SLOW_STEP_MS);
 
   it('when started the first time, then it creates the cluster and answers on loopback', async () => {
     startCluster(cluster);
-    expect(isRunning(cluster)).toBe(true);
+    await expectRunning(true);
     await ensureDatabase(cluster, 'lifecycle');
     const conf = fs.readFileSync(path.join(cluster.dataDir, 'postmaster.opts'), 'utf8');
     expect(conf).toContain('listen_addresses=127.0.0.1');
   });
 
-  it('when stopped and started again, then it reuses the same cluster', () => {
+  it('when stopped and started again, then it reuses the same cluster', async () => {
     const version = fs.statSync(path.join(cluster.dataDir, 'PG_VERSION')).ino;
     stopCluster(cluster);
-    expect(isRunning(cluster)).toBe(false);
+    await expectRunning(false);
     startCluster(cluster);
-    expect(isRunning(cluster)).toBe(true);
+    await expectRunning(true);
     expect(fs.statSync(path.join(cluster.dataDir, 'PG_VERSION')).ino).toBe(version);
   });
 
-  it('when a crash left a stale pid file, then a start still succeeds', () => {
+  it('when a crash left a stale pid file, then a start still succeeds', async () => {
     stopCluster(cluster);
+    await expectRunning(false);
     // the pid of this test process: alive, but not a postgres server
     fs.writeFileSync(path.join(cluster.dataDir, 'postmaster.pid'), `${process.pid}\n${cluster.dataDir}\n`);
     startCluster(cluster);
-    expect(isRunning(cluster)).toBe(true);
+    await expectRunning(true);
+    await ensureDatabase(cluster, 'lifecycle');
   });
 });

@@ -32,7 +32,7 @@ export async function signIn(
     await page.getByLabel('Login').fill(login);
     await page.getByLabel('Password').fill(password);
     await Promise.all([
-      page.waitForURL((url) => url.origin === appOrigin, { timeout: 15_000 }),
+      page.waitForURL((url) => url.origin === appOrigin, { timeout: 30_000 }),
       page.getByRole('button', { name: 'Sign in' }).click(),
     ]);
   }
@@ -54,7 +54,7 @@ export async function signOut(page: Page): Promise<void> {
   const button = page.getByRole('button', { name: 'Sign out' }).locator('visible=true').first();
   if (!(await button.count())) await page.getByRole('button', { name: 'Menu' }).click();
   await Promise.all([
-    page.waitForURL((url) => url.pathname === '/signed-out', { timeout: 15_000 }),
+    page.waitForURL((url) => url.pathname === '/signed-out', { timeout: 30_000 }),
     page.getByRole('button', { name: 'Sign out' }).locator('visible=true').first().click(),
   ]);
   await page.getByTestId('signed-out').waitFor();
