@@ -96,6 +96,13 @@ export function createResourceApi<T extends { id: string; version: number }, TDe
         if (record) updating.mutate({ ...change, version } as TUpdate, callbacks);
         else creating.mutate(input, callbacks);
       },
+      /** Sends the last save again, confirming the unlikely values the API asked about. */
+      saveAnyway() {
+        const sent = mutation.variables;
+        if (!sent) return;
+        if (record) updating.mutate({ ...(sent as TUpdate), confirmed: true }, callbacks);
+        else creating.mutate({ ...(sent as TInput), confirmed: true }, callbacks);
+      },
       async reload() {
         if (!record) return;
         const fresh = await client.fetchQuery({ ...detailOptions(record.id), staleTime: 0 });

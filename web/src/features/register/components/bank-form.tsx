@@ -8,7 +8,7 @@ import { formatMicrofarads, formatSeconds } from '../../../lib/units';
 import { bankDesignsApi } from '../api/bank-designs';
 import { banksApi } from '../api/banks';
 import { cabinetsApi } from '../api/cabinets';
-import { asDate, FormActions, SaveProblem, showServerIssues } from './form-kit';
+import { asDate, FieldQuestion, FormActions, SaveProblem, showServerIssues, unlikelyQuestions } from './form-kit';
 
 type Values = z.input<typeof bankInputSchema>;
 const FIELDS = ['cabinetId', 'bankDesignId', 'position', 'serialNumber', 'installedOn', 'notes'] as const;
@@ -81,7 +81,7 @@ export function BankForm({ bank, cabinetId, onSaved, onCancel }: { bank?: BankDe
     defaultValues: valuesOf(bank, cabinetId),
   });
   const designs = bankDesignsApi.useList({ page: 1, pageSize: 100, sort: 'code' });
-  const { mutation, save, reload } = banksApi.useVersionedSave(bank, {
+  const { mutation, save, saveAnyway, reload } = banksApi.useVersionedSave(bank, {
     onSaved,
     onError: (error) => showServerIssues(error, setError, FIELDS),
     onReloaded: (fresh) => {
@@ -143,6 +143,7 @@ export function BankForm({ bank, cabinetId, onSaved, onCancel }: { bank?: BankDe
       ) : null}
       <Field id="installedOn" label="Installed on" error={e.installedOn?.message}>
         <TextInput id="installedOn" type="date" invalid={!!e.installedOn} {...register('installedOn', { setValueAs: asDate })} />
+        <FieldQuestion id="installedOn" question={unlikelyQuestions(mutation.error).installedOn} saving={mutation.isPending} onSaveAnyway={saveAnyway} />
       </Field>
       <Field id="notes" label="Notes" error={e.notes?.message}>
         <TextArea id="notes" invalid={!!e.notes} {...register('notes')} />

@@ -18,7 +18,7 @@ import { bankDesignsApi } from '../api/bank-designs';
 import { banksApi, useReplaceBank, useSetBankBaseline } from '../api/banks';
 import { AuditTrail } from './audit-trail';
 import { BankForm } from './bank-form';
-import { asNumber, FormActions, SaveProblem, showServerIssues } from './form-kit';
+import { asNumber, FieldQuestion, FormActions, SaveProblem, showServerIssues, unlikelyQuestions } from './form-kit';
 import { useRegisterPermissions } from './permissions';
 import { RecordHeader, RecordLoading, RetireButton } from './record-parts';
 import { BankStatusBadge, BaselineSourceBadge, LatestVerdict, Tau } from './status-badges';
@@ -41,9 +41,9 @@ function BaselineForm({ bank, onDone }: { bank: BankDetail; onDone: () => void }
   const save = useSetBankBaseline(bank.id);
   const source = useWatch({ control, name: 'source' });
   const e = formState.errors;
-  const submit = handleSubmit((data) =>
-    save.mutate(data, { onSuccess: onDone, onError: (error) => showServerIssues(error, setError, BASELINE_FIELDS) }),
-  );
+  const callbacks = { onSuccess: onDone, onError: (error: unknown) => showServerIssues(error, setError, BASELINE_FIELDS) };
+  const submit = handleSubmit((data) => save.mutate(data, callbacks));
+  const saveAnyway = () => save.variables && save.mutate({ ...save.variables, confirmed: true }, callbacks);
   return (
     <form onSubmit={submit} noValidate className="mt-4 space-y-4 border-t border-tide-100 pt-4" aria-label="Set the baseline">
       <Field id="source" label="From" error={e.source?.message}>
@@ -56,6 +56,7 @@ function BaselineForm({ bank, onDone }: { bank: BankDetail; onDone: () => void }
         <div className="grid gap-4 sm:grid-cols-2">
           <Field id="tauSeconds" label="Baseline τ" required error={e.tauSeconds?.message}>
             <UnitInput id="tauSeconds" unit="s" invalid={!!e.tauSeconds} {...register('tauSeconds', { setValueAs: asNumber })} />
+            <FieldQuestion id="tauSeconds" question={unlikelyQuestions(save.error).tauSeconds} saving={save.isPending} onSaveAnyway={saveAnyway} />
           </Field>
           <Field id="capacitanceMicrofarads" label="Baseline capacitance" required error={e.capacitanceMicrofarads?.message}>
             <UnitInput id="capacitanceMicrofarads" unit="µF" invalid={!!e.capacitanceMicrofarads} {...register('capacitanceMicrofarads', { setValueAs: asNumber })} />
@@ -84,12 +85,12 @@ function ReplaceForm({ bank, onDone }: { bank: BankDetail; onDone: () => void })
   });
   const replace = useReplaceBank(bank.id);
   const e = formState.errors;
-  const submit = handleSubmit((data) =>
-    replace.mutate(data, {
-      onSuccess: (next) => navigate(`/register/banks/${next.id}`),
-      onError: (error) => showServerIssues(error, setError, REPLACE_FIELDS),
-    }),
-  );
+  const callbacks = {
+    onSuccess: (next: BankDetail) => navigate(`/register/banks/${next.id}`),
+    onError: (error: unknown) => showServerIssues(error, setError, REPLACE_FIELDS),
+  };
+  const submit = handleSubmit((data) => replace.mutate(data, callbacks));
+  const saveAnyway = () => replace.variables && replace.mutate({ ...replace.variables, confirmed: true }, callbacks);
   return (
     <form onSubmit={submit} noValidate className="space-y-4" aria-label="Replace the bank">
       <p className="text-sm text-tide-800">
@@ -99,6 +100,7 @@ function ReplaceForm({ bank, onDone }: { bank: BankDetail; onDone: () => void })
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id="installedOn" label="New bank installed on" required error={e.installedOn?.message}>
           <TextInput id="installedOn" type="date" invalid={!!e.installedOn} {...register('installedOn')} />
+          <FieldQuestion id="installedOn" question={unlikelyQuestions(replace.error).installedOn} saving={replace.isPending} onSaveAnyway={saveAnyway} />
         </Field>
         <Field id="serialNumber" label="Serial number of the new bank" error={e.serialNumber?.message}>
           <TextInput id="serialNumber" {...register('serialNumber')} />

@@ -9,7 +9,7 @@ import { Field, Select, TextArea, TextInput, UnitInput } from '../../../componen
 import { areasApi } from '../api/areas';
 import { cabinetsApi } from '../api/cabinets';
 import { sitesApi } from '../api/sites';
-import { asDate, asNumber, FormActions, SaveProblem, showServerIssues } from './form-kit';
+import { asDate, asNumber, FieldQuestion, FormActions, SaveProblem, showServerIssues, unlikelyQuestions } from './form-kit';
 
 type Values = z.input<typeof cabinetInputSchema>;
 const FIELDS = [
@@ -66,7 +66,7 @@ export function CabinetForm({
   const [siteId, setSiteId] = useState(cabinet?.siteId ?? '');
   const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
   const areas = areasApi.useList({ page: 1, pageSize: 100, sort: 'name', siteId }, siteId !== '');
-  const { mutation, save, reload } = cabinetsApi.useVersionedSave(cabinet, {
+  const { mutation, save, saveAnyway, reload } = cabinetsApi.useVersionedSave(cabinet, {
     onSaved,
     onError: (error) => showServerIssues(error, setError, FIELDS),
     onReloaded: (fresh) => {
@@ -84,6 +84,10 @@ export function CabinetForm({
   const supply = useWatch({ control, name: 'supplyVolts' });
   const submit = handleSubmit((data) => save(data, data));
   const e = formState.errors;
+  const questions = unlikelyQuestions(mutation.error);
+  const ask = (id: 'dcBusVolts' | 'commissionedOn') => (
+    <FieldQuestion id={id} question={questions[id]} saving={mutation.isPending} onSaveAnyway={saveAnyway} />
+  );
   const num = { setValueAs: asNumber };
   return (
     <form onSubmit={submit} noValidate className="max-w-3xl space-y-6" aria-label={cabinet ? `Edit ${cabinet.tag}` : 'New cabinet'}>
@@ -145,6 +149,7 @@ export function CabinetForm({
             error={e.dcBusVolts?.message}
           >
             <UnitInput id="dcBusVolts" unit="V" invalid={!!e.dcBusVolts} {...register('dcBusVolts', num)} />
+            {ask('dcBusVolts')}
           </Field>
           <Field id="ratedPowerKilowatts" label="Rated power" error={e.ratedPowerKilowatts?.message}>
             <UnitInput id="ratedPowerKilowatts" unit="kW" invalid={!!e.ratedPowerKilowatts} {...register('ratedPowerKilowatts', num)} />
@@ -183,6 +188,7 @@ export function CabinetForm({
           </Field>
           <Field id="commissionedOn" label="Commissioned on" error={e.commissionedOn?.message}>
             <TextInput id="commissionedOn" type="date" invalid={!!e.commissionedOn} {...register('commissionedOn', { setValueAs: asDate })} />
+            {ask('commissionedOn')}
           </Field>
         </div>
         <Field id="environmentNotes" label="Environment" hint="Heat, dust, damp, vibration: what ages the capacitors here" error={e.environmentNotes?.message}>

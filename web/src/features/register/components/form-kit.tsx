@@ -15,6 +15,8 @@ export const asDate = (value: unknown): string | null => (typeof value === 'stri
  */
 export function showServerIssues<T extends FieldValues>(error: unknown, setError: UseFormSetError<T>, fields: readonly string[]): boolean {
   if (!(error instanceof ApiError) || error.issues.length === 0) return false;
+  // questions, not errors: FieldQuestion shows them beside their fields
+  if (error.code === CONFIRMATION_NEEDED) return issuesAllOnFields(error, fields);
   let placed = 0;
   for (const issue of error.issues) {
     if (fields.includes(issue.path)) {
@@ -23,6 +25,45 @@ export function showServerIssues<T extends FieldValues>(error: unknown, setError
     }
   }
   return placed === error.issues.length;
+}
+
+/** The API's answer to a save holding unlikely values the person has not confirmed yet. */
+const CONFIRMATION_NEEDED = 'confirmation-needed';
+
+/**
+ * The questions of a save the API wants confirmed ("are you sure?"), by field; empty for any
+ * other outcome.
+ */
+export function unlikelyQuestions(error: unknown): Partial<Record<string, string>> {
+  if (!(error instanceof ApiError) || error.code !== CONFIRMATION_NEEDED) return {};
+  return Object.fromEntries(error.issues.map((i) => [i.path, i.message]));
+}
+
+/**
+ * "Are you sure?" beside a field whose value is unlikely (a DC bus far from the supply's, a
+ * date years ahead): the person corrects the field, or keeps the value with "Save anyway".
+ */
+export function FieldQuestion({
+  id,
+  question,
+  saving,
+  onSaveAnyway,
+}: {
+  id: string;
+  question: string | undefined;
+  saving: boolean;
+  onSaveAnyway: () => void;
+}) {
+  if (!question) return null;
+  return (
+    <div role="alert" data-testid={`question-${id}`} className="mt-2 rounded-lg border border-watch-600/40 bg-spark-300/15 p-3 text-sm text-tide-900">
+      <p className="font-bold text-watch-600">Are you sure?</p>
+      <p className="mt-1">{question}</p>
+      <Button size="sm" className="mt-2" disabled={saving} onClick={onSaveAnyway}>
+        Save anyway
+      </Button>
+    </div>
+  );
 }
 
 /** True when every issue of the error names one of the form's fields (nothing else to say). */

@@ -16,7 +16,7 @@ import { sitesApi } from '../api/sites';
 import { sparesApi } from '../api/spares';
 import { useListParams } from '../hooks/use-list-params';
 import { AuditTrail } from './audit-trail';
-import { asDate, asNumber, FormActions, SaveProblem, showServerIssues } from './form-kit';
+import { asDate, asNumber, FieldQuestion, FormActions, SaveProblem, showServerIssues, unlikelyQuestions } from './form-kit';
 import { FlagToggle, ListResults, ListSearch, ParamSelect, SiteFilter } from './list-controls';
 import { useRegisterPermissions } from './permissions';
 import { ListToolbar, RecordHeader, RecordLoading, RetireButton } from './record-parts';
@@ -113,7 +113,7 @@ export function SpareForm({ spare, onSaved, onCancel }: { spare?: Spare; onSaved
   });
   const sites = sitesApi.useList({ page: 1, pageSize: 100, sort: 'name' });
   const designs = bankDesignsApi.useList({ page: 1, pageSize: 100, sort: 'code' });
-  const { mutation, save, reload } = sparesApi.useVersionedSave(spare, {
+  const { mutation, save, saveAnyway, reload } = sparesApi.useVersionedSave(spare, {
     onSaved,
     onError: (error) => showServerIssues(error, setError, FIELDS),
     onReloaded: (fresh) => {
@@ -122,6 +122,10 @@ export function SpareForm({ spare, onSaved, onCancel }: { spare?: Spare; onSaved
   });
   const submit = handleSubmit((data) => save(data, data));
   const e = formState.errors;
+  const questions = unlikelyQuestions(mutation.error);
+  const ask = (id: 'storageStartedOn' | 'lastReformedOn') => (
+    <FieldQuestion id={id} question={questions[id]} saving={mutation.isPending} onSaveAnyway={saveAnyway} />
+  );
   return (
     <form onSubmit={submit} noValidate className="max-w-3xl space-y-4" aria-label={spare ? `Edit ${spare.code}` : 'New spare'}>
       <div className="grid gap-4 sm:grid-cols-3">
@@ -172,9 +176,11 @@ export function SpareForm({ spare, onSaved, onCancel }: { spare?: Spare; onSaved
       <div className="grid gap-4 sm:grid-cols-3">
         <Field id="storageStartedOn" label="Went into store" required error={e.storageStartedOn?.message}>
           <TextInput id="storageStartedOn" type="date" invalid={!!e.storageStartedOn} {...register('storageStartedOn')} />
+          {ask('storageStartedOn')}
         </Field>
         <Field id="lastReformedOn" label="Last reformed" hint="Empty if never" error={e.lastReformedOn?.message}>
           <TextInput id="lastReformedOn" type="date" invalid={!!e.lastReformedOn} {...register('lastReformedOn', { setValueAs: asDate })} />
+          {ask('lastReformedOn')}
         </Field>
         <Field id="reformingIntervalDays" label="Reform every" required hint="Days; follow the maker's procedure" error={e.reformingIntervalDays?.message}>
           <TextInput id="reformingIntervalDays" inputMode="numeric" invalid={!!e.reformingIntervalDays} {...register('reformingIntervalDays', { setValueAs: asNumber })} />
