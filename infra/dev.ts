@@ -3,16 +3,21 @@
  * mode and Vite with hot reload (proxying /api and /auth to the API).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
-import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+import { prepareDatabase } from './database-roles';
+import { appClusterOptions, appDatabaseRoles, loadEnvFile, PROJECT_ROOT } from './local-cluster';
+import { startCluster, stopCluster } from './postgres';
 import { localIssuer, usesLocalProvider } from './identity/settings';
 
 loadEnvFile();
 process.chdir(PROJECT_ROOT);
 const cluster = appClusterOptions();
 startCluster(cluster);
-await ensureDatabase(cluster, cluster.database);
-process.env.DATABASE_URL ??= databaseUrl(cluster, cluster.database);
+// two roles, as for npm start (infra/database-roles.ts)
+const urls = await prepareDatabase(cluster, appDatabaseRoles(), cluster.database);
+if (!process.env.DATABASE_URL) {
+  process.env.DATABASE_URL = urls.databaseUrl;
+  process.env.MIGRATION_DATABASE_URL ??= urls.migrationDatabaseUrl;
+}
 process.env.WEB_DIST_DIR ??= '';
 
 const { migrate } = await import('../api/src/db/migrator');

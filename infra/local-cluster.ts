@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import type { DatabaseRoles } from './database-roles';
 import type { ClusterOptions } from './postgres';
 
 /** The project's root folder (where package.json is). */
@@ -34,5 +35,30 @@ export function testClusterOptions(env = process.env): ClusterOptions {
     user: 'ebbline',
     password: 'ebbline-test',
     durable: false,
+  };
+}
+
+/**
+ * The owner and app roles of the `npm start` / `npm run dev` cluster (infra/database-roles.ts).
+ * PG_USER stays the cluster's superuser, which only makes roles and databases.
+ */
+export function appDatabaseRoles(env = process.env): DatabaseRoles {
+  return {
+    owner: {
+      user: env.PG_OWNER_USER || 'ebbline_owner',
+      password: env.PG_OWNER_PASSWORD || 'ebbline-owner-local',
+    },
+    app: {
+      user: env.PG_APP_USER || 'ebbline_app',
+      password: env.PG_APP_PASSWORD || 'ebbline-app-local',
+    },
+  };
+}
+
+/** The owner and app roles of the `npm test` cluster. */
+export function testDatabaseRoles(): DatabaseRoles {
+  return {
+    owner: { user: 'ebbline_owner', password: 'ebbline-owner-test' },
+    app: { user: 'ebbline_app', password: 'ebbline-app-test' },
   };
 }

@@ -180,11 +180,12 @@ export function stopCluster(opts: Pick<ClusterOptions, 'dataDir'>): void {
   log('stopped');
 }
 
-/** Creates the database when it does not exist (optionally as a copy of a template). */
+/** Creates the database when it does not exist (optionally as a copy of a template, owned by `owner`). */
 export async function ensureDatabase(
   opts: ClusterOptions,
   database: string,
   template?: string,
+  owner?: string,
 ): Promise<void> {
   const client = new pg.Client({
     host: '127.0.0.1',
@@ -199,7 +200,7 @@ export async function ensureDatabase(
     if (found.rowCount === 0) {
       const ident = (name: string) => `"${name.replace(/"/g, '""')}"`;
       await client.query(
-        `CREATE DATABASE ${ident(database)}${template ? ` TEMPLATE ${ident(template)}` : ''}`,
+        `CREATE DATABASE ${ident(database)}${template ? ` TEMPLATE ${ident(template)}` : ''}${owner ? ` OWNER ${ident(owner)}` : ''}`,
       );
     }
   } finally {

@@ -5,8 +5,9 @@
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { build } from 'vite';
-import { appClusterOptions, loadEnvFile, PROJECT_ROOT } from './local-cluster';
-import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+import { prepareDatabase } from './database-roles';
+import { appClusterOptions, appDatabaseRoles, loadEnvFile, PROJECT_ROOT } from './local-cluster';
+import { startCluster, stopCluster } from './postgres';
 import { localIssuer, usesLocalProvider } from './identity/settings';
 
 const t0 = performance.now();
@@ -47,8 +48,13 @@ try {
 
   startCluster(cluster);
   stops.push(() => stopCluster(cluster));
-  await ensureDatabase(cluster, cluster.database);
-  process.env.DATABASE_URL ??= databaseUrl(cluster, cluster.database);
+  // two roles: migrations as the owner, the app as a role that cannot rewrite the audit trail
+  // (a cluster of the one-role days is upgraded here, in place)
+  const urls = await prepareDatabase(cluster, appDatabaseRoles(), cluster.database);
+  if (!process.env.DATABASE_URL) {
+    process.env.DATABASE_URL = urls.databaseUrl;
+    process.env.MIGRATION_DATABASE_URL ??= urls.migrationDatabaseUrl;
+  }
   process.env.NODE_ENV ??= 'production';
   step(`PostgreSQL on 127.0.0.1:${cluster.port}`);
 

@@ -8,8 +8,9 @@ import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { build } from 'vite';
-import { PROJECT_ROOT, testClusterOptions } from './local-cluster';
-import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './postgres';
+import { prepareDatabase } from './database-roles';
+import { PROJECT_ROOT, testClusterOptions, testDatabaseRoles } from './local-cluster';
+import { startCluster, stopCluster } from './postgres';
 
 process.chdir(PROJECT_ROOT);
 process.env.TZ = 'UTC';
@@ -46,10 +47,16 @@ try {
   stopCluster(cluster);
   fs.rmSync(cluster.dataDir, { recursive: true, force: true });
   startCluster(cluster);
-  await ensureDatabase(cluster, 'ebbline_template');
+  // owned by the owner role, the app's rights given after migrating; copies keep both
+  const template = await prepareDatabase(cluster, testDatabaseRoles(), 'ebbline_template');
   const migrated = spawnSync('npx', ['tsx', 'api/src/db/migrate-cli.ts'], {
     stdio: 'inherit',
-    env: { ...process.env, DATABASE_URL: databaseUrl(cluster, 'ebbline_template'), LOG_LEVEL: 'warn' },
+    env: {
+      ...process.env,
+      DATABASE_URL: template.databaseUrl,
+      MIGRATION_DATABASE_URL: template.migrationDatabaseUrl,
+      LOG_LEVEL: 'warn',
+    },
   });
   if (migrated.status !== 0) throw new Error('migrating the template database failed');
 

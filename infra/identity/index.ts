@@ -80,6 +80,7 @@ export async function startIdentityProvider({
     signingKeys: keys,
     cookieKeys: cookieKeys.length ? cookieKeys : LOCAL_COOKIE_KEYS,
     adapter: store.adapter,
+    failedAttempts: store.failedAttempts,
     maxFailedAttempts: Number(env.IDP_MAX_FAILED_SIGN_INS || 5),
     lockoutMinutes: Number(env.IDP_LOCKOUT_MINUTES || 15),
     onSignInFailed,

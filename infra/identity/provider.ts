@@ -13,7 +13,7 @@ import helmet from 'helmet';
 import Provider, { errors, type Configuration, type KoaContextWithOIDC } from 'oidc-provider';
 import type { AccountStore } from './accounts';
 import type { SigningJwk } from './keys';
-import { FailedAttemptLimiter } from './rate-limit';
+import { memoryFailedAttempts, type FailedAttemptStore } from './rate-limit';
 import type { AdapterFactory } from './stores';
 import { consentPage, problemPage, signInPage, signOutPage, signedOutPage } from './views';
 
@@ -49,6 +49,8 @@ export interface IdentityProviderOptions {
   /** Keys that sign the provider's cookies; the first signs, all verify (rotation). */
   cookieKeys: string[];
   adapter: AdapterFactory;
+  /** Where failed attempts are counted (the store's, so a restart keeps them); memory by default. */
+  failedAttempts?: FailedAttemptStore;
   /** Failed attempts per login before it is locked, and for how long (window = lockout). */
   maxFailedAttempts?: number;
   lockoutMinutes?: number;
@@ -159,17 +161,19 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
   };
 
   const provider = new Provider(options.issuer, configuration);
-  const limiterByLogin = new FailedAttemptLimiter(
-    options.maxFailedAttempts ?? 5,
-    (options.lockoutMinutes ?? 15) * 60_000,
-    (options.lockoutMinutes ?? 15) * 60_000,
-  );
+  const lockoutMs = (options.lockoutMinutes ?? 15) * 60_000;
+  const attempts = options.failedAttempts ?? memoryFailedAttempts();
+  const limiterByLogin = attempts('login', {
+    maxFailures: options.maxFailedAttempts ?? 5,
+    windowMs: lockoutMs,
+    lockoutMs,
+  });
   // one address may try several logins (a shared workshop PC), but not without end
-  const limiterByAddress = new FailedAttemptLimiter(
-    (options.maxFailedAttempts ?? 5) * 5,
-    (options.lockoutMinutes ?? 15) * 60_000,
-    (options.lockoutMinutes ?? 15) * 60_000,
-  );
+  const limiterByAddress = attempts('address', {
+    maxFailures: (options.maxFailedAttempts ?? 5) * 5,
+    windowMs: lockoutMs,
+    lockoutMs,
+  });
 
   const app = express();
   app.disable('x-powered-by');
@@ -311,8 +315,8 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
       return;
     }
     const lockedMs = Math.max(
-      limiterByLogin.lockedFor(loginKey),
-      limiterByAddress.lockedFor(addressKey),
+      await limiterByLogin.lockedFor(loginKey),
+      await limiterByAddress.lockedFor(addressKey),
     );
     if (lockedMs > 0) {
       await options.onSignInFailed?.({ login, reason: 'locked-out', ...origin });
@@ -333,15 +337,15 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
     const account = await options.accounts.verify(login, password);
     if (!account) {
       const lockMs = Math.max(
-        limiterByLogin.recordFailure(loginKey),
-        limiterByAddress.recordFailure(addressKey),
+        await limiterByLogin.recordFailure(loginKey),
+        await limiterByAddress.recordFailure(addressKey),
       );
       await options.onSignInFailed?.({
         login,
         reason: lockMs ? 'locked-out' : 'wrong-password',
         ...origin,
       });
-      const left = limiterByLogin.remaining(loginKey);
+      const left = await limiterByLogin.remaining(loginKey);
       res
         .status(lockMs ? 429 : 401)
         .type('html')
@@ -363,7 +367,7 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
         );
       return;
     }
-    limiterByLogin.clear(loginKey);
+    await limiterByLogin.clear(loginKey);
     await provider.interactionFinished(
       req,
       res,

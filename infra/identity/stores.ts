@@ -1,11 +1,19 @@
 import type { Adapter, AdapterPayload } from 'oidc-provider';
 import pg from 'pg';
+import {
+  memoryFailedAttempts,
+  postgresFailedAttempts,
+  sweepFailedAttempts,
+  type FailedAttemptStore,
+} from './rate-limit';
 
 /** Makes the provider's adapter for one model (Session, Interaction, Grant, AccessToken…). */
 export type AdapterFactory = (model: string) => Adapter;
 
 export interface ProviderStore {
   adapter: AdapterFactory;
+  /** Failed sign-in attempts, kept where the records are (rate-limit.ts). */
+  failedAttempts: FailedAttemptStore;
   close(): Promise<void>;
 }
 
@@ -19,9 +27,11 @@ const epochSeconds = (date: Date) => Math.floor(date.getTime() / 1000);
 export function postgresStore(databaseUrl: string): ProviderStore {
   const pool = new pg.Pool({ connectionString: databaseUrl, max: 4, idleTimeoutMillis: 10_000 });
   const sweep = () =>
-    pool
-      .query('DELETE FROM identity_provider_records WHERE expires_at < now()')
-      .catch(() => undefined);
+    Promise.all([
+      pool.query('DELETE FROM identity_provider_records WHERE expires_at < now()'),
+      // a day covers any window and lockout the settings allow in practice
+      sweepFailedAttempts(pool, 86_400_000),
+    ]).catch(() => undefined);
   void sweep();
   const timer = setInterval(sweep, 3_600_000);
   timer.unref();
@@ -80,6 +90,7 @@ export function postgresStore(databaseUrl: string): ProviderStore {
 
   return {
     adapter,
+    failedAttempts: postgresFailedAttempts(pool),
     async close() {
       clearInterval(timer);
       await pool.end();
@@ -126,5 +137,5 @@ export function memoryStore(): ProviderStore {
       for (const [k, entry] of records) if (entry.payload.grantId === grantId) records.delete(k);
     },
   });
-  return { adapter, close: async () => records.clear() };
+  return { adapter, failedAttempts: memoryFailedAttempts(), close: async () => records.clear() };
 }

@@ -15,8 +15,10 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
-import { PROJECT_ROOT } from '../../infra/local-cluster';
-import { databaseUrl, ensureDatabase, startCluster, stopCluster, type ClusterOptions } from '../../infra/postgres';
+import pg from 'pg';
+import { prepareDatabase } from '../../infra/database-roles';
+import { PROJECT_ROOT, testDatabaseRoles } from '../../infra/local-cluster';
+import { databaseUrl, startCluster, stopCluster, type ClusterOptions } from '../../infra/postgres';
 
 const CABINETS = Number(process.env.BENCH_CABINETS || 20_000);
 const RUNS = Number(process.env.BENCH_RUNS || 60);
@@ -43,9 +45,11 @@ fs.rmSync(cluster.dataDir, { recursive: true, force: true });
 startCluster(cluster);
 let exitCode = 0;
 try {
-  await ensureDatabase(cluster, 'ebbline_bench');
+  // the two roles of npm start: the app's pool is timed, the owner runs migrations and ANALYZE
+  const urls = await prepareDatabase(cluster, testDatabaseRoles(), 'ebbline_bench');
   Object.assign(process.env, {
-    DATABASE_URL: databaseUrl(cluster, 'ebbline_bench'),
+    DATABASE_URL: urls.databaseUrl,
+    MIGRATION_DATABASE_URL: urls.migrationDatabaseUrl,
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
     WEB_DIST_DIR: '',
@@ -57,7 +61,11 @@ try {
   const seeded = await seedDemo({ cabinets: CABINETS });
   const seedSeconds = (performance.now() - t0) / 1000;
   const { sequelize } = await import('../../api/src/db/sequelize');
-  await sequelize.query('ANALYZE');
+  // only a table's owner may ANALYZE it (the app's role would be skipped with a warning)
+  const owner = new pg.Client({ connectionString: urls.migrationDatabaseUrl });
+  await owner.connect();
+  await owner.query('ANALYZE');
+  await owner.end();
   console.log(`seeded ${seeded.cabinets} cabinets and ${seeded.banks} banks in ${seedSeconds.toFixed(1)} s`);
 
   const { createCaller } = await import('../support/auth');

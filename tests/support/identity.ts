@@ -28,7 +28,7 @@ export interface TestProviderOptions {
   onSignInFailed?: (failure: SignInFailure) => void | Promise<void>;
 }
 
-/** Starts the provider on the reserved port; the issuer is process.env.OIDC_ISSUER. */
+/** Starts (or restarts) the provider on the reserved port; the issuer is process.env.OIDC_ISSUER. */
 export async function startTestIdentityProvider(
   options: TestProviderOptions = {},
 ): Promise<{ issuer: string }> {
@@ -40,6 +40,8 @@ export async function startTestIdentityProvider(
   const { createIdentityProvider } = await import('../../infra/identity/provider');
   const { postgresStore } = await import('../../infra/identity/stores');
   const config = getConfig();
+  // a second start is a restart: the first one's connections end, its records stay
+  await store?.close();
   store = postgresStore(config.DATABASE_URL);
   const { app } = createIdentityProvider({
     issuer: config.OIDC_ISSUER,
@@ -57,6 +59,7 @@ export async function startTestIdentityProvider(
     signingKeys: [generateSigningKey()],
     cookieKeys: ['test-cookie-key'],
     adapter: store.adapter,
+    failedAttempts: store.failedAttempts,
     maxFailedAttempts: options.maxFailedAttempts ?? 5,
     onSignInFailed: options.onSignInFailed,
   });

@@ -157,7 +157,13 @@ describe('session timeouts', () => {
 describe('the session cookie', () => {
   it('when APP_URL is https, then the cookie is Secure', () => {
     expect(
-      sessionCookieOptions(parseConfig({ APP_URL: 'https://ebbline.brackenmoor.example' })).secure,
+      sessionCookieOptions(
+        parseConfig({
+          APP_URL: 'https://ebbline.brackenmoor.example',
+          SESSION_SECRET: 'a-long-random-secret-of-this-plant',
+          OIDC_CLIENT_SECRET: 'the-plant-provider-client-secret',
+        }),
+      ).secure,
     ).toBe(true);
     expect(sessionCookieOptions(parseConfig({ APP_URL: 'http://localhost:3000' })).secure).toBe(
       false,
