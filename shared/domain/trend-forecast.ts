@@ -9,12 +9,22 @@
  * The choice is by AICc (Akaike's criterion with the small-sample correction, the residual
  * variance counted as a parameter): the accelerating model is taken only when its AICc is lower
  * than the linear model's by more than 2, the usual margin for "clearly better" (otherwise the
- * simpler model stands). AICc needs 6 runs for the accelerating model; with fewer, linear only.
+ * simpler model stands). AICc needs 6 runs for the accelerating model; with fewer, linear is
+ * chosen, though the quadratic is still fitted from 4 runs on 3 dates to bound the interval.
  *
- * The 90 % interval of the end-of-life date inverts the 90 % confidence band of the fitted curve:
- * the early bound is the first day the band's lower edge reaches the limit, the late bound the
- * first day its upper edge does (Student's t, n − p degrees of freedom). A bound that is not
+ * The 90 % interval of a model's end-of-life date inverts the 90 % confidence band of its
+ * curve: the early bound is the first day the band's lower edge reaches the limit, the late bound
+ * the first day its upper edge does (Student's t, n − p degrees of freedom). A bound that is not
  * reached within the horizon is null.
+ *
+ * Model uncertainty: yearly runs with a percent or two of scatter can seldom tell a straight
+ * decline from one that speeds up until late in life, and picking the line alone made the
+ * interval miss accelerating losses most of the time. So unless the quadratic's own 90 %
+ * interval puts its bend firmly upwards (acceleration ruled out), the forecast's interval is the
+ * union of the plausible models on the early side: its early bound, reported as
+ * `earliestEndOfLifeOn`, is the earlier of the two models' early bounds, and a note says that
+ * acceleration cannot be ruled out. The late bound stays the chosen model's (a decline that
+ * slows down is not an ageing to plan for). The next visit is planned before that earliest date.
  */
 
 import { notEnoughData, EngineInputError, type NotEnoughData } from './errors';
@@ -50,6 +60,10 @@ export interface TrendModelFit {
   rmse: number;
   /** False when the model was set aside (e.g. a quadratic that bends upwards). */
   usable: boolean;
+  /** This model's own crossing of the limit; null when not within the horizon. */
+  endOfLifeOn: string | null;
+  /** This model's own 90 % interval of the crossing, [early, late]. */
+  interval90: [string | null, string | null];
 }
 
 /** Inputs of {@link forecastEndOfLife}. */
@@ -85,8 +99,19 @@ export interface EndOfLifeForecast {
   ratioPerYearNow: number;
   /** Forecast date of the end-of-life crossing; null when not within the horizon. */
   endOfLifeOn: string | null;
-  /** 90 % interval of the crossing date, [early, late]; a bound beyond the horizon is null. */
+  /**
+   * 90 % interval of the crossing date, [early, late]; a bound beyond the horizon is null. It
+   * includes model uncertainty: unless acceleration is ruled out, its early bound is the earlier
+   * of the linear and the accelerating fit's.
+   */
   interval90: [string | null, string | null];
+  /**
+   * The earliest plausible end-of-life date (the interval's early bound, acceleration included),
+   * always given beside the forecast date; null only when not even that falls within the horizon.
+   */
+  earliestEndOfLifeOn: string | null;
+  /** True when the runs cannot rule out a decline that speeds up (a note then says so). */
+  accelerationPlausible: boolean;
   /** Remaining useful life from `asOfOn`, days (0 once reached); null when no crossing is forecast. */
   rulDays: number | null;
   /** True when the forecast crossing is on or before `asOfOn`. */
@@ -198,36 +223,53 @@ export function forecastEndOfLife(
   const y = points.map((p) => p.ratio);
   const w = points.map((p) => (weighted ? 1 / (p.se! * p.se!) : 1));
 
+  const horizonDay = Math.max(asOfDay, lastDay) + Math.round(horizonYears * DAYS_PER_YEAR);
+  const crossingOf = (fit: WeightedFit): Crossing =>
+    crossing(fit, limit, firstDay, horizonDay, tQuantile(0.95, fit.degreesOfFreedom));
+
   const models: TrendModelFit[] = [];
   const linear = weightedPolynomialFit(x, y, w, 2, weighted);
   const linearAicc = aicc(linear.rssWeighted, n, 2);
+  const linearCrossing = crossingOf(linear);
   models.push({
     model: 'linear',
     coefficients: linear.coefficients,
     aicc: linearAicc,
     rmse: linear.rmse,
     usable: true,
+    ...crossingDates(linearCrossing),
   });
   let chosen: WeightedFit = linear;
+  let chosenCrossing = linearCrossing;
   let model: TrendModelName = 'linear';
   let criterion: string;
+  // The quadratic needs one degree of freedom left (4 runs on 3 dates) to say how uncertain its
+  // bend is; AICc needs 6 runs to compare it with the line fairly.
+  let accelerating: { fit: WeightedFit; crossing: Crossing } | null = null;
   const distinctDays = new Set(points.map((point) => point.day)).size;
-  if (n >= 6 && distinctDays >= 3) {
-    const accelerating = weightedPolynomialFit(x, y, w, 3, weighted);
-    const acceleratingAicc = aicc(accelerating.rssWeighted, n, 3);
-    const bendsDown = accelerating.coefficients[2]! < 0;
+  if (n >= 4 && distinctDays >= 3) {
+    const fit = weightedPolynomialFit(x, y, w, 3, weighted);
+    accelerating = { fit, crossing: crossingOf(fit) };
+  }
+  const acceleratingAicc = accelerating ? aicc(accelerating.fit.rssWeighted, n, 3) : null;
+  const bendsDown = accelerating !== null && accelerating.fit.coefficients[2]! < 0;
+  if (accelerating) {
     models.push({
       model: 'accelerating',
-      coefficients: accelerating.coefficients,
+      coefficients: accelerating.fit.coefficients,
       aicc: acceleratingAicc,
-      rmse: accelerating.rmse,
+      rmse: accelerating.fit.rmse,
       usable: bendsDown,
+      ...crossingDates(accelerating.crossing),
     });
-    const figures = `AICc linear ${formatNumber(linearAicc!, 4)}, accelerating ${formatNumber(acceleratingAicc!, 4)}`;
+  }
+  if (accelerating && linearAicc !== null && acceleratingAicc !== null) {
+    const figures = `AICc linear ${formatNumber(linearAicc, 4)}, accelerating ${formatNumber(acceleratingAicc, 4)}`;
     if (!bendsDown) {
       criterion = `Linear: the quadratic fit bends upwards, which is not an accelerating decline (${figures}).`;
-    } else if (acceleratingAicc! < linearAicc! - 2) {
-      chosen = accelerating;
+    } else if (acceleratingAicc < linearAicc - 2) {
+      chosen = accelerating.fit;
+      chosenCrossing = accelerating.crossing;
       model = 'accelerating';
       criterion = `Accelerating: its AICc is lower by more than 2 (${figures}).`;
     } else {
@@ -239,35 +281,39 @@ export function forecastEndOfLife(
     criterion = `Linear: with ${n} runs only the linear model can be compared fairly (AICc needs 6 runs for the accelerating model).`;
   }
 
-  const curve = (xx: number): number => evaluate(chosen.coefficients, xx);
-  const band = (xx: number): number => {
-    const g = chosen.coefficients.map((_, k) => xx ** k);
-    let s = 0;
-    for (let i = 0; i < g.length; i++)
-      for (let j = 0; j < g.length; j++) s += g[i]! * chosen.covariance[i]![j]! * g[j]!;
-    return Math.sqrt(Math.max(s, 0));
-  };
-  const q = tQuantile(0.95, chosen.degreesOfFreedom);
-  const endDay = Math.max(asOfDay, lastDay) + Math.round(horizonYears * DAYS_PER_YEAR);
-  let meanDay: number | null = null;
-  let earlyDay: number | null = null;
-  let lateDay: number | null = null;
-  for (
-    let day = firstDay;
-    day <= endDay && (meanDay === null || earlyDay === null || lateDay === null);
-    day++
-  ) {
-    const xx = (day - firstDay) / DAYS_PER_YEAR;
-    const m = curve(xx);
-    const half = q * band(xx);
-    if (earlyDay === null && m - half <= limit) earlyDay = day;
-    if (meanDay === null && m <= limit) meanDay = day;
-    if (lateDay === null && m + half <= limit) lateDay = day;
+  // Model uncertainty: unless the runs rule an acceleration out (a bend upwards that its own
+  // 90 % interval keeps above zero), the accelerating fit's early bound joins the interval, so
+  // the earliest plausible date is the earlier of the two models'. The late side stays the
+  // chosen model's: a decline that slows down is not an ageing to plan for.
+  const accelerationPlausible =
+    accelerating !== null &&
+    accelerating.fit.coefficients[2]! -
+      tQuantile(0.95, accelerating.fit.degreesOfFreedom) *
+        Math.sqrt(accelerating.fit.covariance[2]![2]!) <
+      0;
+  const meanDay = chosenCrossing.meanDay;
+  const lateDay = chosenCrossing.lateDay;
+  let earlyDay = chosenCrossing.earlyDay;
+  if (accelerationPlausible && model === 'linear') {
+    earlyDay = earlierDay(earlyDay, accelerating!.crossing.earlyDay);
+    const acceleratedEarly = accelerating!.crossing.earlyDay;
+    if (acceleratedEarly !== null && acceleratedEarly < (linearCrossing.earlyDay ?? Infinity)) {
+      notes.push(
+        `Acceleration cannot be ruled out: the runs also fit a decline that speeds up, which could reach ${formatNumber(limit, 3)} as early as ${isoDateFromDayNumber(acceleratedEarly)}${acceleratedEarly <= asOfDay ? ' (already past: the bank may be at its limit now)' : ''}; the 90 % interval includes it.`,
+      );
+    } else {
+      notes.push(
+        'Acceleration cannot be ruled out: the runs also fit a decline that speeds up; it does not bring the earliest date forward.',
+      );
+    }
   }
+  if (earlyDay !== null && meanDay !== null && earlyDay > meanDay) earlyDay = meanDay;
+
   if (meanDay === null)
     notes.push(
       `The fitted trend does not reach ${formatNumber(limit, 3)} within ${formatNumber(horizonYears, 3)} years.`,
     );
+  const curve = (xx: number): number => evaluate(chosen.coefficients, xx);
   const xNow = (asOfDay - firstDay) / DAYS_PER_YEAR;
   const ratioNow = curve(xNow);
   const ratioPerYearNow = derivative(chosen.coefficients, xNow);
@@ -304,7 +350,7 @@ export function forecastEndOfLife(
       nextVisitReason =
         earlyDay <= asOfDay
           ? 'The 90 % interval of the end-of-life date has already begun: check the bank now.'
-          : `Halfway to ${isoDateFromDayNumber(earlyDay)}, the earliest end-of-life date the 90 % interval allows, so that one more visit comes before it.`;
+          : `Halfway to ${isoDateFromDayNumber(earlyDay)}, the earliest end-of-life date the 90 % interval allows${accelerationPlausible ? ' (a decline that speeds up included)' : ''}, so that one more visit comes before it.`;
     }
   }
 
@@ -320,6 +366,8 @@ export function forecastEndOfLife(
       earlyDay === null ? null : isoDateFromDayNumber(earlyDay),
       lateDay === null ? null : isoDateFromDayNumber(lateDay),
     ],
+    earliestEndOfLifeOn: earlyDay === null ? null : isoDateFromDayNumber(earlyDay),
+    accelerationPlausible,
     rulDays,
     endOfLifeReached,
     nextVisitBy: isoDateFromDayNumber(nextDay),
@@ -327,6 +375,63 @@ export function forecastEndOfLife(
     nextVisitOverdue: nextDay < asOfDay,
     notes,
   };
+}
+
+interface Crossing {
+  /** First day the fitted curve is at or below the limit. */
+  meanDay: number | null;
+  /** First day the lower edge of its 90 % band is (the earliest date the fit allows). */
+  earlyDay: number | null;
+  /** First day the upper edge is (the latest). */
+  lateDay: number | null;
+}
+
+/**
+ * Inverts a fit's 90 % confidence band at the limit, day by day from the first run to the
+ * horizon: the crossing of the curve and of both edges of the band (null: not within it).
+ */
+function crossing(
+  fit: WeightedFit,
+  limit: number,
+  firstDay: number,
+  horizonDay: number,
+  q: number,
+): Crossing {
+  let meanDay: number | null = null;
+  let earlyDay: number | null = null;
+  let lateDay: number | null = null;
+  const p = fit.coefficients.length;
+  const g = new Array<number>(p);
+  for (
+    let day = firstDay;
+    day <= horizonDay && (meanDay === null || earlyDay === null || lateDay === null);
+    day++
+  ) {
+    const xx = (day - firstDay) / DAYS_PER_YEAR;
+    for (let k = 0; k < p; k++) g[k] = xx ** k;
+    let variance = 0;
+    for (let i = 0; i < p; i++)
+      for (let j = 0; j < p; j++) variance += g[i]! * fit.covariance[i]![j]! * g[j]!;
+    const m = evaluate(fit.coefficients, xx);
+    const half = q * Math.sqrt(Math.max(variance, 0));
+    if (earlyDay === null && m - half <= limit) earlyDay = day;
+    if (meanDay === null && m <= limit) meanDay = day;
+    if (lateDay === null && m + half <= limit) lateDay = day;
+  }
+  return { meanDay, earlyDay, lateDay };
+}
+
+function crossingDates(c: Crossing): Pick<TrendModelFit, 'endOfLifeOn' | 'interval90'> {
+  const on = (day: number | null): string | null =>
+    day === null ? null : isoDateFromDayNumber(day);
+  return { endOfLifeOn: on(c.meanDay), interval90: [on(c.earlyDay), on(c.lateDay)] };
+}
+
+/** The earlier of two days, null standing for "not within the horizon". */
+function earlierDay(a: number | null, b: number | null): number | null {
+  if (a === null) return b;
+  if (b === null) return a;
+  return Math.min(a, b);
 }
 
 function positiveOption(value: number | undefined, fallback: number, path: string): number {

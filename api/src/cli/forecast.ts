@@ -1,8 +1,8 @@
 /**
  * `npm run -s forecast -- HISTORY.csv [--limit 0.8] [options]`: forecasts a bank's end of life
  * from its history of capacitance ratios (rows `date,ratio[,stdError]`; `-` reads standard input)
- * and prints `{ model, endOfLifeOn, interval90: [low, high], rulDays, nextVisitBy, ... }` as JSON
- * on stdout.
+ * and prints `{ model, endOfLifeOn, interval90: [low, high], earliestEndOfLifeOn, rulDays,
+ * nextVisitBy, ... }` as JSON on stdout.
  *
  * Options:
  *   --limit R           end-of-life ratio (default 0.8, the electrolytic default)
@@ -76,6 +76,8 @@ function forecastCommand(argv: string[], io: CliIo): void {
     model: forecast.model,
     endOfLifeOn: forecast.endOfLifeOn,
     interval90: forecast.interval90,
+    earliestEndOfLifeOn: forecast.earliestEndOfLifeOn,
+    accelerationPlausible: forecast.accelerationPlausible,
     rulDays: forecast.rulDays,
     nextVisitBy: forecast.nextVisitBy,
     nextVisitReason: forecast.nextVisitReason,

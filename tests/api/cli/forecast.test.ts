@@ -28,8 +28,11 @@ describe('forecast main', () => {
       model: string;
       endOfLifeOn: string;
       interval90: [string, string];
+      earliestEndOfLifeOn: string;
+      accelerationPlausible: boolean;
       rulDays: number;
       nextVisitBy: string;
+      notes: string[];
     };
     expect(out.model).toBe('linear');
     // Independent reference: ordinary least squares of ratio on day number by simple-statistics.
@@ -44,6 +47,11 @@ describe('forecast main', () => {
     expect(dayOf(out.interval90[0])).toBeLessThan(dayOf(out.endOfLifeOn));
     expect(dayOf(out.interval90[1])).toBeGreaterThan(dayOf(out.endOfLifeOn));
     expect(out.rulDays).toBe(dayOf(out.endOfLifeOn) - dayOf('2024-06-01'));
+    // the earliest plausible date is always given; when a speed-up cannot be ruled out, it says so
+    expect(out.earliestEndOfLifeOn).toBe(out.interval90[0]);
+    expect(out.notes.some((note) => /Acceleration cannot be ruled out/.test(note))).toBe(
+      out.accelerationPlausible,
+    );
     const lastRun = rows.at(-1)![0]!;
     expect(dayOf(out.nextVisitBy)).toBeLessThanOrEqual(dayOf(lastRun) + 365);
     // The generating slope puts the crossing within the interval.

@@ -12,6 +12,7 @@ import {
 } from '../../../shared/domain/calendar-dates';
 import { EngineInputError, type NotEnoughData } from '../../../shared/domain/errors';
 import { gaussian, seededRandom } from './support/synthetic-decay';
+import { LOSS_SHAPES, simulateHistory, type LossShape } from './support/ratio-history-simulation';
 
 function ok(result: EndOfLifeForecast | NotEnoughData): EndOfLifeForecast {
   if (result.status !== 'ok') throw new Error(`expected a forecast, got: ${result.reason}`);
@@ -110,16 +111,32 @@ describe('forecastEndOfLife: models and dates', () => {
     expect(forecast.criterion).toMatch(/bends upwards/);
   });
 
-  it('when there are fewer than 6 runs, then only the linear model is fitted and the criterion says why', () => {
+  it('when there are fewer than 6 runs, then the linear model is chosen, the criterion says why, and the accelerating fit has no AICc', () => {
     const forecast = ok(
       forecastEndOfLife({
-        history: history(4, (y) => 1 - 0.02 * y),
+        history: history(4, (y) => 1 - 0.02 * y, 0.003, 7),
         endOfLifeRatio: 0.8,
         asOfOn: '2018-06-01',
       }),
     );
-    expect(forecast.models).toHaveLength(1);
+    expect(forecast.model).toBe('linear');
     expect(forecast.criterion).toMatch(/AICc needs 6 runs/);
+    expect(forecast.models.map((m) => m.model)).toEqual(['linear', 'accelerating']);
+    expect(Number.isFinite(forecast.models[0]!.aicc)).toBe(true);
+    expect(forecast.models[1]!.aicc).toBeNull();
+  });
+
+  it('when there are only 3 runs, then the quadratic cannot be fitted with any freedom left and the line alone gives the interval', () => {
+    const forecast = ok(
+      forecastEndOfLife({
+        history: history(2, (y) => 1 - 0.03 * y, 0.002, 3),
+        endOfLifeRatio: 0.8,
+        asOfOn: '2016-04-01',
+      }),
+    );
+    expect(forecast.models).toHaveLength(1);
+    expect(forecast.accelerationPlausible).toBe(false);
+    expect(forecast.earliestEndOfLifeOn).toBe(forecast.models[0]!.interval90[0]);
   });
 
   it('when the trend is flat, then no end of life is forecast within the horizon', () => {
@@ -245,6 +262,103 @@ describe('forecastEndOfLife: next visit', () => {
       );
       expect(daysBetween(points.at(-1)!.measuredOn, forecast.nextVisitBy)).toBeLessThanOrEqual(300);
     }
+  });
+});
+
+describe('forecastEndOfLife: honest about acceleration', () => {
+  it('when a few yearly runs look straight but could be speeding up, then the interval reaches back to the accelerating fit, the earliest date is given and a sentence says so', () => {
+    const forecast = ok(
+      forecastEndOfLife({
+        history: history(5, (y) => 1 - 0.012 * y - 0.002 * y * y, 0.01, 11),
+        endOfLifeRatio: 0.8,
+        asOfOn: '2019-03-01',
+      }),
+    );
+    const [linear, accelerating] = forecast.models;
+    expect(forecast.model).toBe('linear');
+    expect(forecast.accelerationPlausible).toBe(true);
+    expect(forecast.notes.join(' ')).toMatch(
+      /Acceleration cannot be ruled out: the runs also fit a decline that speeds up, which could reach 0\.8 as early as \d{4}-\d{2}-\d{2}/,
+    );
+    expect(forecast.earliestEndOfLifeOn).toBe(forecast.interval90[0]);
+    expect(forecast.earliestEndOfLifeOn).toBe(accelerating!.interval90[0]);
+    expect(daysBetween(forecast.earliestEndOfLifeOn!, linear!.interval90[0]!)).toBeGreaterThan(0);
+    // the date and the late side stay the chosen line's
+    expect(forecast.endOfLifeOn).toBe(linear!.endOfLifeOn);
+    expect(forecast.interval90[1]).toBe(linear!.interval90[1]);
+  });
+
+  it('when the decline clearly slows down, then acceleration is ruled out: no sentence, and the line’s own interval', () => {
+    const forecast = ok(
+      forecastEndOfLife({
+        history: history(10, (y) => 1 - 0.04 * y + 0.0015 * y * y, 0.001, 5),
+        endOfLifeRatio: 0.8,
+        asOfOn: '2024-03-15',
+      }),
+    );
+    expect(forecast.accelerationPlausible).toBe(false);
+    expect(forecast.notes.join(' ')).not.toMatch(/Acceleration/);
+    expect(forecast.interval90).toEqual(forecast.models[0]!.interval90);
+    expect(forecast.earliestEndOfLifeOn).toBe(forecast.models[0]!.interval90[0]);
+  });
+
+  it('when the simulated histories are built, then each true curve starts at 1 and reaches the limit on its true end-of-life date', () => {
+    const random = seededRandom(3);
+    for (const shape of LOSS_SHAPES) {
+      for (let i = 0; i < 20; i++) {
+        const sim = simulateHistory(shape, random);
+        expect(sim.trueRatioAt(0)).toBeCloseTo(1, 12);
+        expect(sim.trueRatioAt(sim.lifeYears)).toBeCloseTo(sim.endOfLifeRatio, 12);
+        expect(sim.trueRatioAt(sim.lifeYears / 2)).toBeGreaterThan(sim.endOfLifeRatio);
+        expect(sim.history.length).toBe(sim.historyYears + 1);
+        expect(daysBetween(sim.history[0]!.measuredOn, sim.trueEndOfLifeOn)).toBe(
+          Math.round(sim.lifeYears * DAYS_PER_YEAR),
+        );
+        expect(daysBetween(sim.asOfOn, sim.trueEndOfLifeOn)).toBeGreaterThan(0);
+      }
+    }
+  });
+
+  // Invented 3–10 year histories whose true loss is linear, quadratic or exponential in time,
+  // yearly runs with 0.5–2 % scatter (tests/shared/domain/support/ratio-history-simulation.ts).
+  // The bands: the 90 % interval contains the true date in at least 80 % of each kind (a
+  // straight-line interval alone managed about 15–35 % on the accelerating kinds), and the
+  // latest next visit comes before the true end of life in at least 99 %.
+  const HISTORIES_PER_SHAPE = 300;
+  const outcomes = new Map<LossShape, { covered: number; visitBefore: number }>();
+  const random = seededRandom(20_261_202);
+  for (const shape of LOSS_SHAPES) {
+    it(`when ${HISTORIES_PER_SHAPE} histories lose capacitance ${shape === 'linear' ? 'linearly' : shape === 'quadratic' ? 'quadratically' : 'exponentially'}, then the 90 % interval contains the true date in at least 80 % and the next visit comes before it in at least 99 %`, () => {
+      const outcome = { covered: 0, visitBefore: 0 };
+      for (let i = 0; i < HISTORIES_PER_SHAPE; i++) {
+        const sim = simulateHistory(shape, random);
+        const forecast = ok(
+          forecastEndOfLife({
+            history: sim.history,
+            endOfLifeRatio: sim.endOfLifeRatio,
+            asOfOn: sim.asOfOn,
+          }),
+        );
+        const truth = dayNumberFromIsoDate(sim.trueEndOfLifeOn);
+        const [early, late] = forecast.interval90;
+        const earlyDay = early === null ? Infinity : dayNumberFromIsoDate(early);
+        const lateDay = late === null ? Infinity : dayNumberFromIsoDate(late);
+        if (earlyDay <= truth && truth <= lateDay) outcome.covered++;
+        if (dayNumberFromIsoDate(forecast.nextVisitBy) < truth) outcome.visitBefore++;
+        expect(forecast.earliestEndOfLifeOn).toBe(early);
+        if (forecast.accelerationPlausible && forecast.model === 'linear')
+          expect(forecast.notes.join(' ')).toMatch(/Acceleration cannot be ruled out/);
+      }
+      outcomes.set(shape, outcome);
+      expect(outcome.covered / HISTORIES_PER_SHAPE).toBeGreaterThanOrEqual(0.8);
+      expect(outcome.visitBefore / HISTORIES_PER_SHAPE).toBeGreaterThanOrEqual(0.99);
+    });
+  }
+
+  it('when the three kinds are taken together, then the next visit comes before the true end of life in at least 99 %', () => {
+    expect([...outcomes.keys()]).toEqual(LOSS_SHAPES);
+    const before = [...outcomes.values()].reduce((sum, o) => sum + o.visitBefore, 0);
+    expect(before / (HISTORIES_PER_SHAPE * LOSS_SHAPES.length)).toBeGreaterThanOrEqual(0.99);
   });
 });
 
