@@ -69,3 +69,26 @@ export function classifyHealth(ratio: number, limits: HealthLimits): HealthName 
 export function worseHealth(a: HealthName, b: HealthName): HealthName {
   return HEALTH_NAMES.indexOf(a) >= HEALTH_NAMES.indexOf(b) ? a : b;
 }
+
+/**
+ * Capacitance ratios a bank can physically reach by ageing. Electrolytics lose capacitance as
+ * they age (end of life is commonly 80 %, some manuals 85 %; DOMAIN.md) and never gain much;
+ * a ratio above 130 % or below 30 % of the baseline points at a wrong bleeder value, a wrong
+ * baseline or mistyped readings rather than at the bank (bounds well outside every design's
+ * limits; common practice).
+ */
+export const PLAUSIBLE_RATIO = { low: 0.3, high: 1.3 } as const;
+
+/**
+ * True when a capacitance ratio lies within what ageing can explain ({@link PLAUSIBLE_RATIO});
+ * outside it a verdict must not call the bank healthy, nor anything else, before the bleeder
+ * value and the readings are checked.
+ *
+ * @param ratio - capacitance at 20 °C / baseline capacitance
+ * @example
+ * isPlausibleRatio(0.85) // true
+ * isPlausibleRatio(3.355) // false
+ */
+export function isPlausibleRatio(ratio: number): boolean {
+  return Number.isFinite(ratio) && ratio >= PLAUSIBLE_RATIO.low && ratio <= PLAUSIBLE_RATIO.high;
+}

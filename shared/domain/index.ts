@@ -49,7 +49,16 @@ export type {
   CapacitanceTemperatureModel,
   NormalisedCapacitance,
 } from './capacitance';
-export { classifyHealth, resolveHealthLimits, worseHealth } from './health-rules';
+export {
+  classifyHealth,
+  isPlausibleRatio,
+  PLAUSIBLE_RATIO,
+  resolveHealthLimits,
+  worseHealth,
+} from './health-rules';
+export { nextStepAfterVerdict } from './next-step';
+export type { NextStep, NextStepFacts, NextStepKind } from './next-step';
+export { formatFigure, formatInterval, formatPercentFigure, formatDateOn } from './format';
 export { judgeDecayRun } from './verdict';
 export type {
   BankDesignFacts,

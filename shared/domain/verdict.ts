@@ -26,13 +26,25 @@ import {
   type BankConstruction,
   type CapacitanceTemperatureModel,
 } from './capacitance';
-import { classifyHealth, resolveHealthLimits, worseHealth } from './health-rules';
+import {
+  classifyHealth,
+  isPlausibleRatio,
+  PLAUSIBLE_RATIO,
+  resolveHealthLimits,
+  worseHealth,
+} from './health-rules';
 import {
   estimateDischargeSafety,
   iec60204Sentence,
   type DischargeSafetyEstimate,
 } from './discharge-safety';
-import { formatNumber, formatOhms, formatPercent, formatVolts } from './format';
+import {
+  formatNumber,
+  formatOhms,
+  formatPercent,
+  formatPercentFigure,
+  formatVolts,
+} from './format';
 
 /** The bank design's facts (from the register). */
 export interface BankDesignFacts {
@@ -100,6 +112,7 @@ export type VerdictFindingCode =
   | 'no-baseline'
   | 'not-normalised'
   | 'ratio-near-limit'
+  | 'implausible-ratio'
   | 'control-supply-phase'
   | 'readings-left-out';
 
@@ -153,10 +166,15 @@ export interface DecayVerdict {
     /** Fitted τ / expected τ. */
     tauRatio: number;
   } | null;
-  /** Health; null without a baseline. */
+  /** Health; null when not judged (see {@link notJudgedBecause}). */
   health: HealthName | null;
-  /** Display label of the health ("end of life"); null without a baseline. */
+  /** Display label of the health ("end of life"); null when not judged. */
   healthLabel: string | null;
+  /**
+   * Why health is null: no baseline and no nameplate construction, or a ratio outside what
+   * ageing can explain (the bleeder value or the readings are in doubt); null when judged.
+   */
+  notJudgedBecause: 'no-baseline' | 'implausible-ratio' | null;
   /** The limits applied. */
   limits: HealthLimits;
   /** Findings, safety first. */
@@ -281,6 +299,7 @@ export function judgeDecayRun(facts: DecayRunFacts): DecayVerdictResult {
   }
   let baseline: DecayVerdict['baseline'] = null;
   let health: HealthName | null = null;
+  let notJudgedBecause: DecayVerdict['notJudgedBecause'] = 'no-baseline';
   if (baselineFacts) {
     const expectedTauSeconds =
       baselineFacts.tauSeconds ??
@@ -304,7 +323,17 @@ export function judgeDecayRun(facts: DecayRunFacts): DecayVerdictResult {
     const straddled = [limits.watchRatio, limits.endOfLifeRatio].find(
       (limit) => low < limit && high >= limit,
     );
-    if (straddled !== undefined) {
+    notJudgedBecause = null;
+    if (!isPlausibleRatio(ratio)) {
+      // far outside any ageing: the inputs are in doubt, so no health at all (never "healthy")
+      health = null;
+      notJudgedBecause = 'implausible-ratio';
+      findings.push({
+        code: 'implausible-ratio',
+        severity: 'attention',
+        message: `The capacitance is ${formatPercentFigure(ratio)} of the baseline, far outside any physical ageing (${formatPercentFigure(PLAUSIBLE_RATIO.low)} to ${formatPercentFigure(PLAUSIBLE_RATIO.high)}): check the bleeder value and the readings. The bank's health is not judged from this run.`,
+      });
+    } else if (straddled !== undefined) {
       findings.push({
         code: 'ratio-near-limit',
         severity: 'info',
@@ -418,6 +447,7 @@ export function judgeDecayRun(facts: DecayRunFacts): DecayVerdictResult {
     baseline,
     health,
     healthLabel: health ? HEALTH_LABELS[health] : null,
+    notJudgedBecause,
     limits,
     findings,
     safetyFinding: findings.some((finding) => finding.severity === 'safety'),

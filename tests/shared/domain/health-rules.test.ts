@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
+  isPlausibleRatio,
+  PLAUSIBLE_RATIO,
   classifyHealth,
   resolveHealthLimits,
   worseHealth,
@@ -56,5 +58,18 @@ describe('worseHealth', () => {
     expect(worseHealth('healthy', 'watch')).toBe('watch');
     expect(worseHealth('end-of-life', 'watch')).toBe('end-of-life');
     expect(worseHealth('healthy', 'healthy')).toBe('healthy');
+  });
+});
+
+describe('isPlausibleRatio', () => {
+  it('when the ratio is anywhere ageing can take a bank, then plausible, the bounds included', () => {
+    for (const ratio of [0.3, 0.5, 0.79, 0.9, 1, 1.1, 1.3])
+      expect(isPlausibleRatio(ratio)).toBe(true);
+  });
+
+  it('when the ratio is above 130 % or below 30 % of the baseline, then not plausible', () => {
+    expect(PLAUSIBLE_RATIO).toEqual({ low: 0.3, high: 1.3 });
+    for (const ratio of [1.31, 3.355, 0.29, 0.01, Number.NaN, Number.POSITIVE_INFINITY])
+      expect(isPlausibleRatio(ratio)).toBe(false);
   });
 });

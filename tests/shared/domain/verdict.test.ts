@@ -326,3 +326,59 @@ describe('judgeDecayRun: passing on the fit', () => {
     ).toThrow(EngineInputError);
   });
 });
+
+describe('judgeDecayRun: ratios far outside any ageing', () => {
+  const baseline = { capacitanceMicrofarads: nominalMicrofarads, source: 'decay-run' as const };
+
+  it('when the ratio is 140 % of the baseline, then it is never called healthy and says to check the bleeder value and the readings', () => {
+    const verdict = ok(judgeDecayRun({ samples: run(1.4 * nominalMicrofarads), design, baseline }));
+    expect(verdict.baseline!.ratio).toBeCloseTo(1.4, 4);
+    expect(verdict.health).toBeNull();
+    expect(verdict.healthLabel).toBeNull();
+    expect(verdict.notJudgedBecause).toBe('implausible-ratio');
+    const finding = verdict.findings.find((f) => f.code === 'implausible-ratio');
+    expect(finding?.message).toMatch(
+      /^The capacitance is 140 % of the baseline, far outside any physical ageing \(30 % to 130 %\): check the bleeder value and the readings\./,
+    );
+  });
+
+  it('when the register holds a 1 µF baseline (the report’s 335,539 %), then not healthy and the same advice', () => {
+    const verdict = ok(
+      judgeDecayRun({
+        samples: run(nominalMicrofarads),
+        design,
+        baseline: { capacitanceMicrofarads: 0.7, source: 'nameplate' },
+      }),
+    );
+    expect(verdict.health).toBeNull();
+    expect(verdict.findings.map((f) => f.code)).toContain('implausible-ratio');
+  });
+
+  it('when the ratio is 25 % of the baseline, then not judged end of life either, with the same advice', () => {
+    const verdict = ok(
+      judgeDecayRun({ samples: run(0.25 * nominalMicrofarads), design, baseline }),
+    );
+    expect(verdict.health).toBeNull();
+    expect(verdict.notJudgedBecause).toBe('implausible-ratio');
+    expect(verdict.findings.find((f) => f.code === 'implausible-ratio')?.message).toMatch(
+      /25 % of the baseline.*check the bleeder value and the readings/,
+    );
+  });
+
+  it('when the ratio is just inside the bounds, then health is judged as usual', () => {
+    expect(
+      ok(judgeDecayRun({ samples: run(0.32 * nominalMicrofarads), design, baseline })).health,
+    ).toBe('end-of-life');
+    const high = ok(judgeDecayRun({ samples: run(1.28 * nominalMicrofarads), design, baseline }));
+    expect(high.health).not.toBeNull();
+    expect(high.notJudgedBecause).toBeNull();
+    expect(high.findings.map((f) => f.code)).not.toContain('implausible-ratio');
+  });
+
+  it('when there is no baseline and no construction, then the reason health is not judged is said', () => {
+    const { construction: _none, ...bare } = design;
+    expect(
+      ok(judgeDecayRun({ samples: run(nominalMicrofarads), design: bare })).notJudgedBecause,
+    ).toBe('no-baseline');
+  });
+});
