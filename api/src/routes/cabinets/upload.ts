@@ -33,6 +33,12 @@ export const csvUpload: RequestHandler = (req, res, next) => {
       } else next(AppError.badRequest(`file: ${err.message}.`, [{ path: 'file', message: err.message }]));
       return;
     }
-    next(err);
+    if (err instanceof AppError) {
+      next(err);
+      return;
+    }
+    // busboy's own errors ("Malformed part header", "Unexpected end of form"): the client sent a broken form
+    const message = `The upload could not be read as a form with a file (${err instanceof Error ? err.message : 'malformed'}).`;
+    next(AppError.badRequest(`file: ${message}`, [{ path: 'file', message }]));
   });
 };
