@@ -5,9 +5,11 @@
  * - Comma, semicolon or tab separated; the separator is found from the header row.
  * - Decimal commas are accepted when the separator is a semicolon or a tab.
  * - Blank lines and trailing spaces are ignored; double-quoted cells may contain the separator.
+ * - Windows (CRLF), Unix (LF) and old Mac (CR) line ends.
  * - Row numbers in messages are the file's line numbers (1-based), so an editor finds them.
  */
 
+import Papa from 'papaparse';
 import { EngineInputError } from './errors';
 
 /** The separators a file may use. */
@@ -32,13 +34,13 @@ export function separatorName(separator: CsvSeparator): string {
 
 /**
  * Splits text into non-blank lines with their 1-based line numbers (a UTF-8 byte-order mark and
- * Windows line ends are handled).
+ * Windows and old Mac line ends are handled).
  *
  * @example
  * splitLines('t;v\r\n\r\n0;5\n') // [{ rowNumber: 1, text: 't;v' }, { rowNumber: 3, text: '0;5' }]
  */
 export function splitLines(text: string): { rowNumber: number; text: string }[] {
-  const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const source = normaliseLineEnds(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text).text;
   const lines = source.split('\n');
   const out: { rowNumber: number; text: string }[] = [];
   for (let i = 0; i < lines.length; i++) {
@@ -46,6 +48,38 @@ export function splitLines(text: string): { rowNumber: number; text: string }[] 
     if (line !== '') out.push({ rowNumber: i + 1, text: line });
   }
   return out;
+}
+
+/** The line ends a file used. */
+export type LineEnds = 'LF' | 'CRLF' | 'CR';
+
+/**
+ * Turns Windows (CRLF) and old Mac (CR) line ends into LF, so that line k of the result is line k
+ * of the file whatever wrote it.
+ *
+ * @returns the text with LF line ends, and the line ends the file used (the first one found)
+ * @example
+ * normaliseLineEnds('t,v\r0,5\r') // { text: 't,v\n0,5\n', lineEnds: 'CR' }
+ */
+export function normaliseLineEnds(text: string): { text: string; lineEnds: LineEnds } {
+  const cr = text.indexOf('\r');
+  if (cr < 0) return { text, lineEnds: 'LF' };
+  const lineEnds: LineEnds = text.charCodeAt(cr + 1) === 10 ? 'CRLF' : 'CR';
+  return { text: text.replace(/\r\n?/g, '\n'), lineEnds };
+}
+
+/**
+ * Tokenizes CSV text with papaparse: one array of cells per line (blank lines give `['']`, so
+ * row k of the result is line k of the text as long as no quoted cell holds a line break).
+ * Quotes are honoured ("" inside quotes is a quote); cells are not trimmed.
+ *
+ * @param text - text with LF line ends (see {@link normaliseLineEnds})
+ * @param separator - the cell separator
+ * @example
+ * tokenizeCsv('t;v\n0;"5,5"', ';') // [['t', 'v'], ['0', '5,5']]
+ */
+export function tokenizeCsv(text: string, separator: CsvSeparator): string[][] {
+  return Papa.parse<string[]>(text, { delimiter: separator, newline: '\n', quoteChar: '"' }).data;
 }
 
 /**
@@ -98,12 +132,12 @@ export function isEmptyRow(cells: readonly string[]): boolean {
   return cells.every((cell) => cell === '');
 }
 
-const POINT_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-const COMMA_NUMBER = /^[+-]?(?:\d+,?\d*|,\d+)(?:[eE][+-]?\d+)?$/;
+const POINT_NUMBER = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*$/;
+const COMMA_NUMBER = /^\s*[+-]?(?:\d+,?\d*|,\d+)(?:[eE][+-]?\d+)?\s*$/;
 
 /**
- * Reads a number cell. With `decimalComma`, "12,5" and "12.5" both read 12.5. Thousands
- * separators, units and words are refused.
+ * Reads a number cell (spaces around it allowed). With `decimalComma`, "12,5" and "12.5" both
+ * read 12.5. Thousands separators, units and words are refused.
  *
  * @returns the number, or null when the cell is not a plain number
  * @example
@@ -149,8 +183,11 @@ export function parseHeaderName(cell: string): HeaderName {
   return { original, name: name.replace(/[\s_]+/g, ' ').trim(), unit };
 }
 
+/** How many lines from the top of a file the header may be: loggers write long preambles. */
+export const HEADER_SEARCH_LINES = 100;
+
 /**
- * Finds the header row among the first 20 non-blank lines: the first line that, split on one of
+ * Finds the header row among the first 100 lines: the first line that, split on one of
  * the separators, satisfies `accept`. Lines before it (a logger's preamble) are skipped.
  *
  * @returns the separator, the header's position in `lines` and what `accept` returned
@@ -165,7 +202,7 @@ export function findHeader<T>(
   whatIsMissing: string,
 ): { separator: CsvSeparator; headerAt: number; found: T } {
   const separators: CsvSeparator[] = ['\t', ';', ','];
-  for (let at = 0; at < Math.min(lines.length, 20); at++) {
+  for (let at = 0; at < lines.length && lines[at]!.rowNumber <= HEADER_SEARCH_LINES; at++) {
     const text = lines[at]!.text;
     for (const separator of separators) {
       if (separator !== ',' && !text.includes(separator)) continue;

@@ -105,9 +105,9 @@ describe('parseDecaySamplesCsv: bad files', () => {
     expect(() => parseDecaySamplesCsv('t,v\n0,560,5\n')).toThrow(/Row 2 has 3 cells.*semicolon/);
   });
 
-  it('when there is no header, then the message says what the header needs', () => {
+  it('when there is no header, then the message says the first row already holds readings', () => {
     expect(() => parseDecaySamplesCsv('0,560\n30,490\n')).toThrow(
-      /No header row found: the first row must name a time column/,
+      'No header row found: row 1 ("0,560") already holds readings. Add a header row naming the time and voltage columns, such as "t_s,v" or "Time (s);Voltage (V)".',
     );
   });
 
@@ -121,15 +121,27 @@ describe('parseDecaySamplesCsv: bad files', () => {
     );
   });
 
-  it('when a voltage is negative, then the message names the file row', () => {
+  it('when a voltage drops from high straight to below zero, then the message names the row, the column and the reading before', () => {
     expect(() => parseDecaySamplesCsv('t,v\n0,560\n30,490\n60,-3\n')).toThrow(
-      /^Row 4: the voltage -3 V is not above zero/,
+      'Row 4: the voltage -3 V is not above zero (column "v"), right after 490 V at row 3: a decay does not drop to 0 V in one step. Check the sign, the probe\'s connection or a typing slip.',
     );
   });
 
-  it('when times repeat, then the message names the file row', () => {
+  it('when a voltage below zero is followed by real voltages, then it is refused, not left out', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560\n30,490\n60,-3\n90,380\n')).toThrow(
+      /^Row 4: the voltage -3 V is not above zero \(column "v"\), yet row 5 reads 380 V after it/,
+    );
+  });
+
+  it('when a repeated time has readings that disagree, then the message names the rows and both columns', () => {
     expect(() => parseDecaySamplesCsv('t,v\n0,560\n\n30,490\n30,430\n')).toThrow(
-      /^Row 5: the time 30 s does not come after/,
+      'Row 5: the time 30 s does not come after row 4\'s 30 s (column "t"), and the rows of this time read 430 V to 490 V (column "v"): a repeated time is averaged only when its readings agree within 2 %. Check for a typing slip.',
+    );
+  });
+
+  it('when times go backwards, then the message names the row and the column', () => {
+    expect(() => parseDecaySamplesCsv('t,v\n0,560\n30,490\n20,470\n')).toThrow(
+      'Row 4: the time 20 s does not come after row 3\'s 30 s (column "t"); times must increase.',
     );
   });
 
