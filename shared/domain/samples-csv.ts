@@ -496,13 +496,11 @@ function readRows(
     const row = firstRow + k;
     const timeCell = cells[ti];
     const voltCell = cells[vi];
-    if (timeCell === undefined || timeCell.trim() === '') {
-      if (cells.every((cell) => cell.trim() === '')) continue;
-    }
     if (cells.length > columns.headerCells)
       checkRowWidth(trimAll(cells), columns.headerCells, row, separator);
 
     if (readTime === null) {
+      if (isBlankRow(cells)) continue;
       const reader =
         timeCell === undefined ? null : timeReaderFor(timeCell, decimalComma, timeScale);
       if (reader === null) {
@@ -540,6 +538,8 @@ function readRows(
     const time = timeCell === undefined ? null : readTime(timeCell);
     const volts = voltCell === undefined ? null : parseNumberCell(voltCell, decimalComma);
     if (time === null || volts === null) {
+      // Blank rows are looked for only here, where a reading failed: most rows are readings.
+      if (isBlankRow(cells)) continue;
       if (time === null && volts === null) {
         footer = footerFrom(rows, k, row, ti, vi, decimalComma);
         if (footer !== null) break;
@@ -581,6 +581,10 @@ function readRows(
   return { readings: { t, v, rows: rowNumbers }, timeFormat, firstTimeCell, footer };
 }
 
+function isBlankRow(cells: readonly string[]): boolean {
+  return cells.every((cell) => cell.trim() === '');
+}
+
 function trimAll(cells: readonly string[]): string[] {
   return cells.map((cell) => cell.trim());
 }
@@ -600,7 +604,7 @@ function footerFrom(
   let last = row;
   for (let j = k; j < rows.length; j++) {
     const cells = rows[j]!;
-    if (cells.every((cell) => cell.trim() === '')) continue;
+    if (isBlankRow(cells)) continue;
     if (readableTime(cells[ti], decimalComma) || readableNumber(cells[vi], decimalComma))
       return null;
     last = row + (j - k);
