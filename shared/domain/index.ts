@@ -7,7 +7,8 @@
  * - {@link fitDecay}: samples → τ with its interval (the fit alone, e.g. for a live preview).
  * - {@link forecastEndOfLife}: a bank's ratio history → end-of-life date, RUL, next visit.
  * - {@link estimateArrheniusLife} / {@link lifeUsed}: life from temperature.
- * - {@link parseDecaySamplesCsv} / {@link parseRatioHistoryCsv}: loose CSV text → data.
+ * - {@link parseDecaySamplesCsv} / {@link parseRatioHistoryCsv}: loose CSV text (or a logger
+ *   file's bytes) → data.
  */
 
 export * from './errors';
@@ -95,7 +96,10 @@ export {
   DAYS_PER_YEAR,
 } from './calendar-dates';
 export { parseDecaySamplesCsv } from './samples-csv';
-export type { DecaySamplesCsv } from './samples-csv';
+export type { DecaySamplesCsv, DecaySamplesCsvOptions } from './samples-csv';
+export type { ColumnSelector, LoggerColumnOptions } from './logger-columns';
+export { decodeTextBytes } from './text-decoding';
+export type { DecodedText, TextEncodingName } from './text-decoding';
 export { parseRatioHistoryCsv } from './history-csv';
 export type { RatioHistoryCsv } from './history-csv';
 export { tQuantile, tCdf, normalQuantile } from './student-t';
