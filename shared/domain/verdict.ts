@@ -45,6 +45,7 @@ import {
   formatPercentFigure,
   formatVolts,
 } from './format';
+import { assumedMeterWarning } from './meter-loading';
 
 /** The bank design's facts (from the register). */
 export interface BankDesignFacts {
@@ -114,7 +115,8 @@ export type VerdictFindingCode =
   | 'ratio-near-limit'
   | 'implausible-ratio'
   | 'control-supply-phase'
-  | 'readings-left-out';
+  | 'readings-left-out'
+  | 'meter-input-assumed';
 
 /** One finding in plain words. `safety` findings must be shown prominently. */
 export interface VerdictFinding {
@@ -366,6 +368,10 @@ export function judgeDecayRun(facts: DecayRunFacts): DecayVerdictResult {
       });
     }
   }
+
+  const meterWarning = assumedMeterWarning(bleederOhms, conditions.meterInputOhms);
+  if (meterWarning !== null)
+    findings.push({ code: 'meter-input-assumed', severity: 'attention', message: meterWarning });
 
   // Discharge safety: the bus on its own, without the meter, from the nominal bus voltage.
   const busTauSeconds = measuredMicrofarads * 1e-6 * bleederOhms;
