@@ -1,3 +1,5 @@
+import { DATABASE_UNAVAILABLE_MESSAGE } from '../../shared/constants/availability';
+
 /** One field's problem, as shown beside that field in a form. */
 export interface FieldIssue {
   /** Dotted path of the field, e.g. "banks.0.bleederOhms". */
@@ -31,6 +33,8 @@ export const ERROR_CODES = [
   'unsupported-file',
   'unsupported-media-type',
   'identity-provider-unreachable',
+  'database-unavailable',
+  'confirmation-needed',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];
@@ -70,6 +74,10 @@ export class AppError extends Error {
   }
   static notFound(what: string): AppError {
     return new AppError('not-found', `${what} was not found.`);
+  }
+  /** PostgreSQL cannot be reached right now (stopped, restarting, connection lost): ask again soon. */
+  static databaseUnavailable(): AppError {
+    return new AppError('database-unavailable', DATABASE_UNAVAILABLE_MESSAGE);
   }
   static conflict(message: string): AppError {
     return new AppError('conflict', message);

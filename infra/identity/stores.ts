@@ -6,6 +6,7 @@ import {
   sweepFailedAttempts,
   type FailedAttemptStore,
 } from './rate-limit';
+import { survivePoolErrors } from '../../api/src/db/connection-errors';
 
 /** Makes the provider's adapter for one model (Session, Interaction, Grant, AccessToken…). */
 export type AdapterFactory = (model: string) => Adapter;
@@ -25,7 +26,15 @@ const epochSeconds = (date: Date) => Math.floor(date.getTime() / 1000);
  * are never returned and are swept at start and every hour.
  */
 export function postgresStore(databaseUrl: string): ProviderStore {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 4, idleTimeoutMillis: 10_000 });
+  const pool = new pg.Pool({
+    connectionString: databaseUrl,
+    max: 4,
+    idleTimeoutMillis: 10_000,
+    connectionTimeoutMillis: 5_000,
+    keepAlive: true,
+  });
+  // a PostgreSQL restart must not end the sign-in service: the pool reconnects by itself
+  survivePoolErrors(pool, 'identity-provider');
   const sweep = () =>
     Promise.all([
       pool.query('DELETE FROM identity_provider_records WHERE expires_at < now()'),

@@ -9,6 +9,9 @@ export const sequelize = new Sequelize(config.DATABASE_URL, {
   dialect: 'postgres',
   logging: (sql) => logger.trace({ sql }, 'sql'),
   pool: { max: config.DATABASE_POOL_MAX, min: 0, idle: 10_000, acquire: 30_000 },
+  // a connection that cannot be made in 5 s fails the request (503) instead of holding it;
+  // keep-alive notices a database that vanished without closing the socket
+  dialectOptions: { connectionTimeoutMillis: 5_000, keepAlive: true },
   define: { underscored: true },
 });
 

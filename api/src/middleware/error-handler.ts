@@ -1,5 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { DATABASE_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from '../db/connection-errors';
+import { duplicateFromUniqueViolation } from '../db/unique-violations';
 import { AppError, type ErrorCode } from '../errors';
 import { logger } from '../logger';
 
@@ -28,6 +30,9 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'unsupported-file': 415,
   'unsupported-media-type': 415,
   'identity-provider-unreachable': 503,
+  'database-unavailable': 503,
+  // the value may be right: the client asks the person and sends it again with `confirmed: true`
+  'confirmation-needed': 422,
 };
 
 /** The status an AppError answers with: its code's, else (deprecated form) the one it names, else 500. */
@@ -42,6 +47,11 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
 
 function toAppError(err: unknown): AppError | null {
   if (err instanceof AppError) return err;
+  // PostgreSQL away (pools, session store, a query cut short): the request may be asked again
+  if (isDatabaseUnavailable(err)) return AppError.databaseUnavailable();
+  // two writes raced past a service's uniqueness check: the unique index refused the second
+  const clash = duplicateFromUniqueViolation(err);
+  if (clash) return clash;
   if (err instanceof ZodError) {
     const issues = err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
     const first = issues[0];
@@ -64,6 +74,12 @@ function toAppError(err: unknown): AppError | null {
 
 /** The one error middleware: `{ error: { code, message, issues? } }`; unknown errors are a plain 500. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  if (res.headersSent) {
+    // e.g. the session store failed to save after the answer went out: the answer stands
+    logger.warn({ err, requestId: req.id }, 'error after the answer was sent');
+    if (!res.writableEnded) res.destroy();
+    return;
+  }
   const known = toAppError(err);
   if (!known) {
     logger.error({ err, requestId: req.id }, 'unhandled error');
@@ -74,6 +90,8 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   const status = httpStatusOf(known);
   if (status >= 500) logger.error({ err, requestId: req.id }, known.message);
+  // 503s are passing: tell clients when to ask again (RFC 9110, 10.2.3)
+  if (status === 503) res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
   res.status(status).json({
     error: { code: known.code, message: known.message, ...(known.issues ? { issues: known.issues } : {}) },
   });
