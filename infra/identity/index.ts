@@ -25,7 +25,8 @@ export interface RunningIdentityProvider {
   keysCreated: boolean;
   /** Where the signing keys are kept. */
   keysDir: string;
-  close(): Promise<void>;
+  /** Stops accepting, lets open requests finish (up to graceMs), then closes its pool. */
+  close(graceMs?: number): Promise<void>;
 }
 
 // Good enough for a laptop; never for a shared machine (IDP_COOKIE_KEYS then).
@@ -94,10 +95,12 @@ export async function startIdentityProvider({
     issuer,
     keysCreated: created,
     keysDir,
-    async close() {
+    async close(graceMs = 5_000) {
+      // pages and token requests in flight finish; idle keep-alive connections go at once
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
-        server.closeAllConnections();
+        server.closeIdleConnections();
+        setTimeout(() => server.closeAllConnections(), graceMs).unref();
       });
       await store.close();
     },
