@@ -8,6 +8,7 @@
 import { pathToFileURL } from 'node:url';
 import { User } from '../../api/src/models/user';
 import { sequelize } from '../../api/src/db/sequelize';
+import { withUnitOfWork } from '../../api/src/services/unit-of-work';
 import { DEMO_PEOPLE } from './people';
 import { seedRegister, type RegisterSeedOptions, type RegisterSeedSummary } from './register';
 
@@ -18,9 +19,10 @@ export interface SeedSummary extends Partial<RegisterSeedSummary> {
 
 export type SeedOptions = RegisterSeedOptions;
 
-/** Seeds the demo scenario in one transaction. */
+/** Seeds the demo scenario in one unit of work, acting as Ebbline itself (its audit entries name the demo people). */
 export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> {
-  return sequelize.transaction(async (transaction) => {
+  return withUnitOfWork(null, async (uow) => {
+    const { transaction } = uow;
     // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
     const registered = DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn);
     for (const person of registered) {
@@ -30,7 +32,7 @@ export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> 
         transaction,
       });
     }
-    const register = await seedRegister(transaction, options);
+    const register = await seedRegister(uow, options);
     return { people: registered.length, ...register };
   });
 }

@@ -7,7 +7,8 @@
  * Deterministic (a seeded generator) and idempotent: each record is looked up by its natural
  * key (site code, area name, cabinet tag, design code, spare code) and only missing ones are
  * added, in bulk, so `--cabinets 20000` builds a large fleet in seconds. Every record added
- * gets its audit entry, as if the planner (or, for designs, the reliability engineer) made it.
+ * gets its audit entry through the one audit writer, in the seed's unit of work, as if the
+ * planner (or, for designs, the reliability engineer) made it.
  */
 import crypto from 'node:crypto';
 import type { Transaction } from 'sequelize';
@@ -20,6 +21,8 @@ import { seededRandom } from './seeded-random';
 import { reformingDueOn } from '../../shared/schemas/spare';
 import { sequelize } from '../../api/src/db/sequelize';
 import { User } from '../../api/src/models/user';
+import { recordAuditBatch, type AuditRecordInput } from '../../api/src/services/audit';
+import type { Actor as Acting, UnitOfWork } from '../../api/src/services/unit-of-work';
 import {
   AREA_AUDITED,
   BANK_AUDITED,
@@ -187,19 +190,17 @@ interface Actor {
   name: string;
 }
 
-const AUDIT_COLUMNS = {
-  entityType: 'text',
-  entityId: 'uuid',
-  action: 'text',
-  actorId: 'uuid',
-  actorName: 'text',
-  summary: 'text',
-  before: 'jsonb',
-  after: 'jsonb',
-} as const;
-
-function auditRow(entityType: string, entityId: string, action: string, actor: Actor | null, summary: string, before: Row | null, after: Row): Row {
-  return { entityType, entityId, action, actorId: actor?.id ?? null, actorName: actor?.name ?? null, summary, before, after };
+/** An audit entry naming the demo person the record is made as. */
+function auditRow(
+  entityType: AuditRecordInput['entityType'],
+  entityId: string,
+  action: AuditRecordInput['action'],
+  actor: Actor | null,
+  summary: string,
+  before: Row | null,
+  after: Row,
+): AuditRecordInput {
+  return { entityType, entityId, action, actor, summary, before, after };
 }
 
 async function existingKeys(sql: string, transaction: Transaction): Promise<Set<string>> {
@@ -220,16 +221,17 @@ const addDays = (date: string, days: number) => {
 
 /**
  * Adds what is missing of the register's demo scenario (and, with `cabinets`, a larger fleet)
- * inside the caller's transaction. Returns how many records of each kind it added.
+ * in the caller's unit of work; dates count back from its instant. Returns how many records
+ * of each kind it added.
  */
-export async function seedRegister(transaction: Transaction, options: RegisterSeedOptions = {}): Promise<RegisterSeedSummary> {
+export async function seedRegister(uow: UnitOfWork<Acting>, options: RegisterSeedOptions = {}): Promise<RegisterSeedSummary> {
+  const { transaction, now } = uow;
   // each cabinet draws from a generator of its own, so adding to the fleet never shifts the demo
   let random = seededRandom(20_260_401);
   const chance = (p: number) => random() < p;
   const choose = <T>(items: readonly T[]): T => items[Math.floor(random() * items.length)]!;
   const added: RegisterSeedSummary = { sites: 0, areas: 0, cabinets: 0, bankDesigns: 0, banks: 0, spares: 0 };
-  const audit: Row[] = [];
-  const now = new Date();
+  const audit: AuditRecordInput[] = [];
 
   const planner = await User.findOne({ where: { email: 'tomas@brackenmoor.example' }, transaction });
   const engineer = await User.findOne({ where: { email: 'ines@brackenmoor.example' }, transaction });
@@ -343,7 +345,7 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
   const newCabinets: Row[] = [];
   const newBanks: Row[] = [];
   const replacedLinks: Array<{ oldId: string; newId: string }> = [];
-  const baselineAudits: Row[] = [];
+  const baselineAudits: AuditRecordInput[] = [];
   let demoIndex = 0;
   for (const area of plan) {
     const siteId = siteIdByCode.get(area.siteCode.toLowerCase())!;
@@ -588,6 +590,6 @@ export async function seedRegister(transaction: Transaction, options: RegisterSe
   );
   added.spares = newSpares.length;
 
-  await insertRows('audit_entries', AUDIT_COLUMNS, [...audit, ...baselineAudits], transaction);
+  await recordAuditBatch(uow, [...audit, ...baselineAudits]);
   return added;
 }

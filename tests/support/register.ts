@@ -13,6 +13,7 @@ import { createBank } from '../../api/src/services/banks';
 import { createCabinet } from '../../api/src/services/cabinets';
 import { createSite } from '../../api/src/services/sites';
 import { createSpare } from '../../api/src/services/spares';
+import { withUnitOfWork } from '../../api/src/services/unit-of-work';
 import { createCaller, type TestCaller } from './auth';
 
 let serial = 0;
@@ -26,11 +27,12 @@ export async function createActor(roles: Role[]): Promise<TestCaller & { actor: 
 
 export async function makeSite(actor: AuthUser, overrides: Partial<{ name: string; code: string }> = {}) {
   const n = next();
-  return createSite({ name: `Test Works ${n}`, code: `T${n}`, address: '', timeZone: 'Europe/London', ...overrides }, actor);
+  const input = { name: `Test Works ${n}`, code: `T${n}`, address: '', timeZone: 'Europe/London', ...overrides };
+  return withUnitOfWork(actor, (uow) => createSite(uow, input));
 }
 
 export async function makeArea(actor: AuthUser, siteId: string, name = `Hall ${next()}`) {
-  return createArea({ siteId, name, description: '' }, actor);
+  return withUnitOfWork(actor, (uow) => createArea(uow, { siteId, name, description: '' }));
 }
 
 export function cabinetData(areaId: string, overrides: Partial<CabinetData> = {}): CabinetData {
@@ -53,7 +55,7 @@ export function cabinetData(areaId: string, overrides: Partial<CabinetData> = {}
 }
 
 export async function makeCabinet(actor: AuthUser, areaId: string, overrides: Partial<CabinetData> = {}) {
-  return createCabinet(cabinetData(areaId, overrides), actor);
+  return withUnitOfWork(actor, (uow) => createCabinet(uow, cabinetData(areaId, overrides)));
 }
 
 /** An electrolytic series pair design: 3 strings of 2 × 4700 µF / 450 V, 47 kΩ bleeder. */
@@ -77,11 +79,12 @@ export function designData(overrides: Partial<BankDesignData> = {}): BankDesignD
 }
 
 export async function makeDesign(actor: AuthUser, overrides: Partial<BankDesignData> = {}) {
-  return createBankDesign(designData(overrides), actor);
+  return withUnitOfWork(actor, (uow) => createBankDesign(uow, designData(overrides)));
 }
 
 export async function makeBank(actor: AuthUser, cabinetId: string, bankDesignId: string, position = `DC${next()}`) {
-  return createBank({ cabinetId, bankDesignId, position, serialNumber: '', installedOn: '2020-01-15', notes: '' }, actor);
+  const input = { cabinetId, bankDesignId, position, serialNumber: '', installedOn: '2020-01-15', notes: '' };
+  return withUnitOfWork(actor, (uow) => createBank(uow, input));
 }
 
 export function spareData(siteId: string, overrides: Partial<SpareData> = {}): SpareData {
@@ -102,7 +105,7 @@ export function spareData(siteId: string, overrides: Partial<SpareData> = {}): S
 }
 
 export async function makeSpare(actor: AuthUser, siteId: string, overrides: Partial<SpareData> = {}) {
-  return createSpare(spareData(siteId, overrides), actor);
+  return withUnitOfWork(actor, (uow) => createSpare(uow, spareData(siteId, overrides)));
 }
 
 /** Rows in a table, to show that a refused write stored nothing. */

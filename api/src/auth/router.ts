@@ -4,6 +4,7 @@ import { AppError } from '../errors';
 import { requestOrigin } from '../middleware/request-origin';
 import { recordAccessEvent } from '../services/access-events';
 import { signInPerson } from '../services/people';
+import { withUnitOfWork } from '../services/unit-of-work';
 import { csrfTokenMatches } from './csrf';
 import { beginSignIn, completeSignIn, endSessionUrl, providerConfiguration } from './oidc-client';
 import { safeReturnTo } from './return-to';
@@ -116,7 +117,7 @@ authRouter.get('/callback', async (req, res) => {
     return;
   }
   const { idToken, ...identity } = completion.identity;
-  const outcome = await signInPerson(identity, origin);
+  const outcome = await withUnitOfWork(null, (uow) => signInPerson(uow, identity, origin));
   if (!outcome.ok) {
     problem(res, outcome.reason);
     return;

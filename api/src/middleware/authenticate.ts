@@ -16,7 +16,7 @@ export const authenticate: RequestHandler = async (req, res, next) => {
   const header = req.get('authorization');
   if (header) {
     const match = /^Bearer\s+(\S+)$/i.exec(header);
-    const user = match?.[1] ? await authenticateApiToken(match[1]) : null;
+    const user = match?.[1] ? await authenticateApiToken(match[1], new Date()) : null;
     if (!user)
       throw new AppError('invalid-token', 'The API token is unknown, expired or revoked.');
     req.user = user;

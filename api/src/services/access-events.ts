@@ -19,6 +19,8 @@ export interface AccessEventInput {
   login?: string | null;
   origin: RequestOrigin;
   detail?: Record<string, unknown>;
+  /** When it happened: the unit of work's instant for a change made in one; left out, now. */
+  at?: Date;
 }
 
 /** Writes one entry of the sign-in log. */
@@ -36,6 +38,7 @@ export async function recordAccessEvent(
       // user agents can be long; the log needs the start
       userAgent: input.origin.userAgent?.slice(0, 400) ?? null,
       detail: input.detail ?? {},
+      ...(input.at ? { createdAt: input.at } : {}),
     },
     { transaction },
   );

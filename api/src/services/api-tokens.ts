@@ -1,4 +1,5 @@
 import crypto from 'node:crypto';
+import type { Transaction } from 'sequelize';
 import { ApiToken } from '../models/api-token';
 import { User } from '../models/user';
 import { isRole, type Role } from '../../../shared/constants/roles';
@@ -6,6 +7,7 @@ import type { ApiTokenData, ApiTokenStatus } from '../../../shared/schemas/api-t
 import { AppError } from '../errors';
 import type { AuthUser } from '../types/express';
 import { recordAccessEvent, type RequestOrigin } from './access-events';
+import type { UnitOfWork } from './unit-of-work';
 
 const PREFIX = 'ebl_';
 const DAY_MS = 86_400_000;
@@ -25,7 +27,7 @@ export function toAuthUser(user: User, narrowTo?: readonly string[] | null): Aut
 }
 
 /** Whether a token still works at `now`. */
-export function apiTokenStatus(token: ApiToken, now = new Date()): ApiTokenStatus {
+export function apiTokenStatus(token: ApiToken, now: Date): ApiTokenStatus {
   if (token.revokedAt) return 'revoked';
   return token.expiresAt <= now ? 'expired' : 'active';
 }
@@ -34,37 +36,43 @@ export function apiTokenStatus(token: ApiToken, now = new Date()): ApiTokenStatu
  * Issues a bearer token for a user. The secret is returned once and only its hash is stored.
  * @param expiresAt when the token stops working
  * @param roles narrows the token to these of the owner's roles; null for all of them
+ * @param transaction the unit of work's, when issued in one
  */
 export async function issueApiToken(
   userId: string,
   name: string,
   expiresAt: Date,
   roles: Role[] | null = null,
+  transaction?: Transaction,
 ): Promise<{ token: ApiToken; secret: string }> {
   const secret = PREFIX + crypto.randomBytes(32).toString('base64url');
-  const token = await ApiToken.create({
-    userId,
-    name,
-    tokenHash: hashToken(secret),
-    roles,
-    expiresAt,
-    lastUsedAt: null,
-    revokedAt: null,
-  });
+  const token = await ApiToken.create(
+    {
+      userId,
+      name,
+      tokenHash: hashToken(secret),
+      roles,
+      expiresAt,
+      lastUsedAt: null,
+      revokedAt: null,
+    },
+    { transaction },
+  );
   return { token, secret };
 }
 
 /**
- * A person makes a token for themselves on their profile page.
+ * A person (the unit of work's actor) makes a token for themselves on their profile page; it
+ * expires `input.expiresInDays` after the unit of work's instant.
  * @param input name, expiry in days (1–365), optional roles (each one the owner holds)
- * @throws AppError 400 naming `roles` when a role asked for is not the owner's
+ * @throws AppError `validation-failed` naming `roles` when a role asked for is not the owner's
  */
 export async function createApiToken(
-  owner: AuthUser,
+  uow: UnitOfWork,
   input: ApiTokenData,
   origin: RequestOrigin,
-  now = new Date(),
 ): Promise<{ token: ApiToken; secret: string }> {
+  const { actor: owner, now, transaction } = uow;
   const notHeld = (input.roles ?? []).filter((r) => !owner.roles.includes(r));
   if (notHeld.length > 0) {
     throw AppError.badRequest(
@@ -78,18 +86,23 @@ export async function createApiToken(
     input.name,
     new Date(now.getTime() + input.expiresInDays * DAY_MS),
     roles,
+    transaction,
   );
-  await recordAccessEvent({
-    kind: 'token-created',
-    userId: owner.id,
-    origin,
-    detail: {
-      tokenId: issued.token.id,
-      name: input.name,
-      roles,
-      expiresAt: issued.token.expiresAt.toISOString(),
+  await recordAccessEvent(
+    {
+      kind: 'token-created',
+      userId: owner.id,
+      origin,
+      detail: {
+        tokenId: issued.token.id,
+        name: input.name,
+        roles,
+        expiresAt: issued.token.expiresAt.toISOString(),
+      },
+      at: now,
     },
-  });
+    transaction,
+  );
   return issued;
 }
 
@@ -99,36 +112,35 @@ export async function listApiTokens(ownerId: string): Promise<ApiToken[]> {
 }
 
 /**
- * Revokes one of the owner's tokens; it stops working at once. Revoking twice is harmless.
- * @throws AppError not-found when the token is not the owner's
+ * Revokes one of the owner's (the unit of work's actor's) tokens; it stops working at once.
+ * Revoking twice is harmless.
+ * @throws AppError `not-found` when the token is not the owner's
  */
-export async function revokeApiToken(
-  owner: AuthUser,
-  tokenId: string,
-  origin: RequestOrigin,
-  now = new Date(),
-): Promise<ApiToken> {
-  const token = await ApiToken.findOne({ where: { id: tokenId, userId: owner.id } });
+export async function revokeApiToken(uow: UnitOfWork, tokenId: string, origin: RequestOrigin): Promise<ApiToken> {
+  const { actor: owner, now, transaction } = uow;
+  const token = await ApiToken.findOne({ where: { id: tokenId, userId: owner.id }, transaction, lock: transaction.LOCK.UPDATE });
   if (!token) throw AppError.notFound('The API token');
   if (token.revokedAt) return token;
-  await token.update({ revokedAt: now });
-  await recordAccessEvent({
-    kind: 'token-revoked',
-    userId: owner.id,
-    origin,
-    detail: { tokenId: token.id, name: token.name },
-  });
+  await token.update({ revokedAt: now }, { transaction });
+  await recordAccessEvent(
+    {
+      kind: 'token-revoked',
+      userId: owner.id,
+      origin,
+      detail: { tokenId: token.id, name: token.name },
+      at: now,
+    },
+    transaction,
+  );
   return token;
 }
 
 /**
  * The active user behind a bearer secret, or null when the token is unknown, expired,
- * revoked or its owner is deactivated. Records the use.
+ * revoked or its owner is deactivated. Records the use at `now` (the request's instant, read
+ * by the authentication middleware: this is a lookup with a bookkeeping touch, not a unit of work).
  */
-export async function authenticateApiToken(
-  secret: string,
-  now = new Date(),
-): Promise<AuthUser | null> {
+export async function authenticateApiToken(secret: string, now: Date): Promise<AuthUser | null> {
   if (!secret.startsWith(PREFIX)) return null;
   const token = await ApiToken.findOne({
     where: { tokenHash: hashToken(secret) },

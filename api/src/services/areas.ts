@@ -1,15 +1,14 @@
 /** Use cases of areas: list, read, create, change, retire. */
 import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import type { AreaData, AreaListQuery, AreaUpdate } from '../../../shared/schemas/area';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
-import type { AuthUser } from '../types/express';
 import { recordCreation, saveChange } from './audited-change';
 import { AREA_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 
 const CABINET_COUNT = [
@@ -43,9 +42,9 @@ export async function listAreas(query: AreaListQuery): Promise<{ rows: Area[]; c
   return { rows, count };
 }
 
-/** An area with its site and count. @throws AppError 404 */
-export async function getArea(id: string): Promise<Area> {
-  const area = await Area.findByPk(id, { include: [withSite], attributes: { include: [CABINET_COUNT] as never } });
+/** An area with its site and count. @throws AppError `not-found` */
+export async function getArea(id: string, transaction?: Transaction): Promise<Area> {
+  const area = await Area.findByPk(id, { include: [withSite], attributes: { include: [CABINET_COUNT] as never }, transaction });
   if (!area) throw AppError.notFound('Area');
   return area;
 }
@@ -65,49 +64,40 @@ async function assertAreaNameFree(siteId: string, name: string, exceptId: string
 
 /**
  * Adds an area to a site in use.
- * @throws AppError 400 naming `siteId` when the site is unknown or retired; 409 `duplicate`
+ * @throws AppError `validation-failed` naming `siteId` when the site is unknown or retired; `duplicate`
  */
-export async function createArea(input: AreaData, actor: AuthUser): Promise<Area> {
-  const id = await sequelize.transaction(async (transaction) => {
-    // FOR SHARE: waits for a retirement of the site under way, and holds one off meanwhile
-    const site = await Site.findByPk(input.siteId, { transaction, lock: transaction.LOCK.SHARE });
-    if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
-    await assertAreaNameFree(input.siteId, input.name, null, transaction);
-    const area = await Area.create(input, { transaction });
-    await recordCreation(AREA_TRAIL, area, actor, `Added area ${area.name} to ${site.name}`, transaction);
-    return area.id;
-  });
-  return getArea(id);
+export async function createArea(uow: UnitOfWork, input: AreaData): Promise<Area> {
+  const { transaction } = uow;
+  // FOR SHARE: waits for a retirement of the site under way, and holds one off meanwhile
+  const site = await Site.findByPk(input.siteId, { transaction, lock: transaction.LOCK.SHARE });
+  if (!site || site.retiredAt) throw fieldProblem('siteId', 'This site does not exist or is retired.');
+  await assertAreaNameFree(input.siteId, input.name, null, transaction);
+  const area = await Area.create(input, { transaction });
+  await recordCreation(uow, AREA_TRAIL, area, `Added area ${area.name} to ${site.name}`);
+  return getArea(area.id, transaction);
 }
 
-/** Changes an area. @throws AppError 404, 409 `stale-version` / `retired` / `duplicate` */
-export async function updateArea(id: string, input: AreaUpdate, actor: AuthUser): Promise<Area> {
+/** Changes an area. @throws AppError `not-found`, `stale-version`, `retired`, `duplicate` */
+export async function updateArea(uow: UnitOfWork, id: string, input: AreaUpdate): Promise<Area> {
+  const { transaction } = uow;
   const { version, ...fields } = input;
-  await sequelize.transaction(async (transaction) => {
-    const area = await lockForChange(Area, id, version, 'area', transaction);
-    const changes = changedFields(area, fields);
-    if (Object.keys(changes).length === 0) return;
+  const area = await lockForChange(Area, id, version, 'area', transaction);
+  const changes = changedFields(area, fields);
+  if (Object.keys(changes).length > 0) {
     if (changes.name !== undefined) await assertAreaNameFree(area.siteId, changes.name, id, transaction);
-    await saveChange(AREA_TRAIL, area, changes, { action: 'update', actor, summary: (a) => `Changed area ${a.name}` }, transaction);
-  });
-  return getArea(id);
+    await saveChange(uow, AREA_TRAIL, area, changes, { action: 'update', summary: (a) => `Changed area ${a.name}` });
+  }
+  return getArea(id, transaction);
 }
 
-/** Retires an area with no cabinets in use. @throws AppError 404, 409 `stale-version` / `retired` / `in-use` */
-export async function retireArea(id: string, version: number, actor: AuthUser): Promise<Area> {
-  await sequelize.transaction(async (transaction) => {
-    const area = await lockForChange(Area, id, version, 'area', transaction);
-    const inUse = await Cabinet.count({ where: { areaId: id, retiredAt: null }, transaction });
-    if (inUse > 0) {
-      throw new AppError('in-use', `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
-    }
-    await saveChange(
-      AREA_TRAIL,
-      area,
-      { retiredAt: new Date() },
-      { action: 'retire', actor, summary: (a) => `Retired area ${a.name}` },
-      transaction,
-    );
-  });
-  return getArea(id);
+/** Retires an area with no cabinets in use. @throws AppError `not-found`, `stale-version`, `retired`, `in-use` */
+export async function retireArea(uow: UnitOfWork, id: string, version: number): Promise<Area> {
+  const { transaction } = uow;
+  const area = await lockForChange(Area, id, version, 'area', transaction);
+  const inUse = await Cabinet.count({ where: { areaId: id, retiredAt: null }, transaction });
+  if (inUse > 0) {
+    throw new AppError('in-use', `${area.name} still has ${inUse} cabinet(s) in use. Retire or move them first.`);
+  }
+  await saveChange(uow, AREA_TRAIL, area, { retiredAt: uow.now }, { action: 'retire', summary: (a) => `Retired area ${a.name}` });
+  return getArea(id, transaction);
 }

@@ -1,45 +1,69 @@
-import type { Transaction } from 'sequelize';
+/**
+ * The one audit writer: every create, change, retirement and import of a register record,
+ * whoever makes it (a route, the CSV import, the demo seed, a later job), is appended here in
+ * the unit of work's transaction, at the unit of work's instant.
+ */
 import type { AuditAction, RegisterEntityType } from '../../../shared/constants/register';
+import { sequelize } from '../db/sequelize';
 import { AuditEntry } from '../models/audit-entry';
 import type { AuthUser } from '../types/express';
+import type { Actor, UnitOfWork } from './unit-of-work';
 
 /** What one audit entry records. */
 export interface AuditRecordInput {
   entityType: RegisterEntityType;
   entityId: string;
   action: AuditAction;
-  /** Null for the system (the demo seed). */
-  actor: Pick<AuthUser, 'id' | 'name'> | null;
+  /**
+   * Who the trail names, when not the unit of work's actor: the demo seed, acting as Ebbline,
+   * names the demo person each record is made as. Null names Ebbline itself.
+   */
+  actor?: Pick<AuthUser, 'id' | 'name'> | null;
   summary: string;
   before: Record<string, unknown> | null;
   after: Record<string, unknown> | null;
 }
 
 /**
- * Appends an entry to the register's audit trail, inside the caller's transaction, so the
- * entry exists exactly when the change does.
+ * Appends an entry to the register's audit trail in the unit of work's transaction, so the
+ * entry exists exactly when the change does, stamped with the unit of work's instant.
  */
-export async function recordAudit(entry: AuditRecordInput, transaction: Transaction): Promise<void> {
-  await AuditEntry.create(toRow(entry), { transaction });
+export async function recordAudit(uow: UnitOfWork<Actor>, entry: AuditRecordInput): Promise<void> {
+  await recordAuditBatch(uow, [entry]);
 }
 
-/** Appends many entries in one statement (imports, seeds). */
-export async function recordAuditBatch(entries: AuditRecordInput[], transaction: Transaction): Promise<void> {
-  if (entries.length === 0) return;
-  await AuditEntry.bulkCreate(entries.map(toRow), { transaction });
-}
+// one statement per chunk keeps a large import or seed to a few round trips
+const AUDIT_CHUNK_ROWS = 5000;
 
-function toRow(entry: AuditRecordInput) {
-  return {
-    entityType: entry.entityType,
-    entityId: entry.entityId,
-    action: entry.action,
-    actorId: entry.actor?.id ?? null,
-    actorName: entry.actor?.name ?? null,
-    summary: entry.summary,
-    before: entry.before,
-    after: entry.after,
-  };
+/**
+ * Appends many entries (an import, the seed, a cabinet retired with its banks) with one
+ * `INSERT … SELECT unnest(…)` per 5,000 entries, in the unit of work's transaction.
+ */
+export async function recordAuditBatch(uow: UnitOfWork<Actor>, entries: readonly AuditRecordInput[]): Promise<void> {
+  for (let start = 0; start < entries.length; start += AUDIT_CHUNK_ROWS) {
+    const chunk = entries.slice(start, start + AUDIT_CHUNK_ROWS);
+    const actors = chunk.map((entry) => (entry.actor === undefined ? uow.actor : entry.actor));
+    await sequelize.query(
+      `INSERT INTO audit_entries (entity_type, entity_id, action, actor_id, actor_name, summary, before, after, at)
+       SELECT t.entity_type, t.entity_id, t.action, t.actor_id, t.actor_name, t.summary, t.before, t.after, $9::timestamptz
+         FROM unnest($1::text[], $2::uuid[], $3::text[], $4::uuid[], $5::text[], $6::text[], $7::jsonb[], $8::jsonb[])
+           AS t(entity_type, entity_id, action, actor_id, actor_name, summary, before, after)`,
+      {
+        bind: [
+          chunk.map((e) => e.entityType),
+          chunk.map((e) => e.entityId),
+          chunk.map((e) => e.action),
+          actors.map((a) => a?.id ?? null),
+          actors.map((a) => a?.name ?? null),
+          chunk.map((e) => e.summary),
+          chunk.map((e) => (e.before === null ? null : JSON.stringify(e.before))),
+          chunk.map((e) => (e.after === null ? null : JSON.stringify(e.after))),
+          uow.now.toISOString(),
+        ],
+        transaction: uow.transaction,
+      },
+    );
+  }
 }
 
 /**

@@ -1,13 +1,14 @@
 /**
  * The audited write every register record shares: a new record and its `create` entry, or a
- * change that bumps the record's version, saves it and records its before/after snapshots.
- * Callers lock the record and make their own checks first (see `lockForChange`).
+ * change that bumps the record's version, saves it and records its before/after snapshots,
+ * all in the unit of work. Callers lock the record and make their own checks first (see
+ * `lockForChange`).
  */
-import type { Model, Transaction } from 'sequelize';
+import type { Model } from 'sequelize';
 import type { AuditAction, RegisterEntityType } from '../../../shared/constants/register';
-import type { AuthUser } from '../types/express';
 import { recordAudit, type AuditRecordInput } from './audit';
 import { snapshotOf, type VersionedRecord } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 /** How one kind of register record is kept in the audit trail. */
 export interface AuditedKind<M extends Model> {
@@ -24,27 +25,22 @@ export function auditedColumns<M extends Model>(entityType: RegisterEntityType, 
 /** What an audited change records besides the snapshots. */
 export interface ChangeEntry<M extends Model> {
   action: AuditAction;
-  actor: AuthUser;
   /** The entry's summary, read from the record once changed (so a new name shows). */
   summary: (changed: M) => string;
 }
 
 /**
- * Records the `create` entry of a record just added, inside the caller's transaction.
+ * Records the `create` entry of a record just added, in the unit of work, as its actor.
  *
  * @param summary - what the trail says, e.g. "Added site Brookfield"
  */
 export async function recordCreation<M extends Model & { id: string }>(
+  uow: UnitOfWork,
   kind: AuditedKind<M>,
   record: M,
-  actor: AuthUser,
   summary: string,
-  transaction: Transaction,
 ): Promise<void> {
-  await recordAudit(
-    { entityType: kind.entityType, entityId: record.id, action: 'create', actor, summary, before: null, after: kind.snapshot(record) },
-    transaction,
-  );
+  await recordAudit(uow, { entityType: kind.entityType, entityId: record.id, action: 'create', summary, before: null, after: kind.snapshot(record) });
 }
 
 /**
@@ -54,20 +50,19 @@ export async function recordCreation<M extends Model & { id: string }>(
  * @param changes - the fields to write (only those differing, see `changedFields`)
  */
 export async function applyChange<M extends VersionedRecord>(
+  uow: UnitOfWork,
   kind: AuditedKind<M>,
   record: M,
   changes: object,
   entry: ChangeEntry<M>,
-  transaction: Transaction,
 ): Promise<AuditRecordInput> {
   const before = kind.snapshot(record);
   record.set({ ...changes, version: record.version + 1 } as Partial<M['_attributes']>);
-  await record.save({ transaction });
+  await record.save({ transaction: uow.transaction });
   return {
     entityType: kind.entityType,
     entityId: record.id,
     action: entry.action,
-    actor: entry.actor,
     summary: entry.summary(record),
     before,
     after: kind.snapshot(record),
@@ -76,15 +71,14 @@ export async function applyChange<M extends VersionedRecord>(
 
 /**
  * Applies `changes` with the version bumped, saves the record and records the entry, all in
- * the caller's transaction. A retirement is the change `{ retiredAt: new Date() }` with the
- * action `retire`.
+ * the unit of work. A retirement is the change `{ retiredAt: uow.now }` with the action `retire`.
  */
 export async function saveChange<M extends VersionedRecord>(
+  uow: UnitOfWork,
   kind: AuditedKind<M>,
   record: M,
   changes: object,
   entry: ChangeEntry<M>,
-  transaction: Transaction,
 ): Promise<void> {
-  await recordAudit(await applyChange(kind, record, changes, entry, transaction), transaction);
+  await recordAudit(uow, await applyChange(uow, kind, record, changes, entry));
 }

@@ -12,16 +12,15 @@ import {
   type BankDesignRevisionFields,
   type BankDesignUpdate,
 } from '../../../shared/schemas/bank-design';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Bank } from '../models/bank';
 import { BankDesign } from '../models/bank-design';
 import { BankDesignVersion } from '../models/bank-design-version';
 import { User } from '../models/user';
-import type { AuthUser } from '../types/express';
 import { recordCreation, saveChange, type AuditedKind } from './audited-change';
 import { BANK_DESIGN_AUDITED } from './audited-fields';
 import { containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs, snapshotOf } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 const BANK_COUNT = [
   literal(`(SELECT count(*)::int FROM banks b WHERE b.bank_design_id = "BankDesign"."id" AND b.status = 'in-service')`),
@@ -74,7 +73,7 @@ export async function listBankDesigns(query: BankDesignListQuery): Promise<{ row
   return { rows, count };
 }
 
-/** A design with its current revision and bank count. @throws AppError 404 */
+/** A design with its current revision and bank count. @throws AppError `not-found` */
 export async function getBankDesign(id: string, transaction?: Transaction): Promise<BankDesign> {
   const design = await BankDesign.findByPk(id, {
     include: [withCurrent],
@@ -85,7 +84,7 @@ export async function getBankDesign(id: string, transaction?: Transaction): Prom
   return design;
 }
 
-/** Every revision of a design, newest first, with who made it. @throws AppError 404 */
+/** Every revision of a design, newest first, with who made it. @throws AppError `not-found` */
 export async function listBankDesignRevisions(id: string): Promise<BankDesignVersion[]> {
   await getBankDesign(id);
   return BankDesignVersion.findAll({
@@ -107,9 +106,10 @@ async function assertCodeFree(code: string, exceptId: string | null, transaction
 /**
  * Adds a design and its first revision. Limits and interval left out start from the
  * technology's defaults.
- * @throws AppError 409 `duplicate` naming `code`
+ * @throws AppError `validation-failed`; `duplicate` naming `code`
  */
-export async function createBankDesign(input: BankDesignData, actor: AuthUser): Promise<BankDesign> {
+export async function createBankDesign(uow: UnitOfWork, input: BankDesignData): Promise<BankDesign> {
+  const { transaction, actor } = uow;
   const { code, name, notes, ...technical } = input;
   const defaults = defaultDesignLimits(technical.technology);
   const fields: BankDesignRevisionFields = {
@@ -121,95 +121,80 @@ export async function createBankDesign(input: BankDesignData, actor: AuthUser): 
   if (fields.endOfLifeRatio >= fields.watchRatio) {
     throw fieldProblem('endOfLifeRatio', 'The end-of-life limit must be below the watch limit.');
   }
-  const id = await sequelize.transaction(async (transaction) => {
-    await assertCodeFree(code, null, transaction);
-    const design = await BankDesign.create({ code, name, notes, currentVersionId: null }, { transaction });
-    const revision = await BankDesignVersion.create(
-      { ...fields, bankDesignId: design.id, revision: 1, changeNote: 'First revision', createdById: actor.id },
-      { transaction },
-    );
-    design.set({ currentVersionId: revision.id });
-    await design.save({ transaction });
-    await recordCreation(designTrail(revision), design, actor, `Added bank design ${design.code}`, transaction);
-    return design.id;
-  });
-  return getBankDesign(id);
+  await assertCodeFree(code, null, transaction);
+  const design = await BankDesign.create({ code, name, notes, currentVersionId: null }, { transaction });
+  const revision = await BankDesignVersion.create(
+    { ...fields, bankDesignId: design.id, revision: 1, changeNote: 'First revision', createdById: actor.id },
+    { transaction },
+  );
+  design.set({ currentVersionId: revision.id });
+  await design.save({ transaction });
+  await recordCreation(uow, designTrail(revision), design, `Added bank design ${design.code}`);
+  return getBankDesign(design.id, transaction);
 }
 
 /**
  * Changes a design. A change to any technical field adds a revision (with `changeNote`) and
  * makes it current; code, name and notes change in place.
- * @throws AppError 400, 404, 409 `stale-version` / `retired` / `duplicate`
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `retired`, `duplicate`
  */
-export async function updateBankDesign(id: string, input: BankDesignUpdate, actor: AuthUser): Promise<BankDesign> {
+export async function updateBankDesign(uow: UnitOfWork, id: string, input: BankDesignUpdate): Promise<BankDesign> {
+  const { transaction, actor } = uow;
   const { version, changeNote, code, name, notes, ...technical } = input;
-  await sequelize.transaction(async (transaction) => {
-    const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
-    const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
-    if (!current) throw new Error(`bank design ${id} has no current revision`);
+  const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
+  const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
+  if (!current) throw new Error(`bank design ${id} has no current revision`);
 
-    const currentFields = revisionFieldsOf(current);
-    const merged = { ...currentFields };
-    let technicalChange = false;
-    for (const field of BANK_DESIGN_REVISION_FIELDS) {
-      const value = technical[field];
-      if (value !== undefined && !Object.is(value, currentFields[field])) {
-        (merged as Record<string, unknown>)[field] = value;
-        technicalChange = true;
-      }
+  const currentFields = revisionFieldsOf(current);
+  const merged = { ...currentFields };
+  let technicalChange = false;
+  for (const field of BANK_DESIGN_REVISION_FIELDS) {
+    const value = technical[field];
+    if (value !== undefined && !Object.is(value, currentFields[field])) {
+      (merged as Record<string, unknown>)[field] = value;
+      technicalChange = true;
     }
-    if (merged.endOfLifeRatio >= merged.watchRatio) {
-      throw fieldProblem('endOfLifeRatio', 'The end-of-life limit must be below the watch limit.');
-    }
-    const identity: Partial<Pick<BankDesign, 'code' | 'name' | 'notes'>> = {};
-    if (code !== undefined && code !== design.code) identity.code = code;
-    if (name !== undefined && name !== design.name) identity.name = name;
-    if (notes !== undefined && notes !== design.notes) identity.notes = notes;
-    if (!technicalChange && Object.keys(identity).length === 0) return;
-    if (identity.code) await assertCodeFree(identity.code, id, transaction);
+  }
+  if (merged.endOfLifeRatio >= merged.watchRatio) {
+    throw fieldProblem('endOfLifeRatio', 'The end-of-life limit must be below the watch limit.');
+  }
+  const identity: Partial<Pick<BankDesign, 'code' | 'name' | 'notes'>> = {};
+  if (code !== undefined && code !== design.code) identity.code = code;
+  if (name !== undefined && name !== design.name) identity.name = name;
+  if (notes !== undefined && notes !== design.notes) identity.notes = notes;
+  if (!technicalChange && Object.keys(identity).length === 0) return getBankDesign(id, transaction);
+  if (identity.code) await assertCodeFree(identity.code, id, transaction);
 
-    let revision = current;
-    if (technicalChange) {
-      revision = await BankDesignVersion.create(
-        { ...merged, bankDesignId: id, revision: current.revision + 1, changeNote, createdById: actor.id },
-        { transaction },
-      );
-    }
-    await saveChange(
-      designTrail(current, revision),
-      design,
-      { ...identity, currentVersionId: revision.id },
-      {
-        action: 'update',
-        actor,
-        summary: (changed) =>
-          technicalChange
-            ? `Made revision ${revision.revision} of bank design ${changed.code}${changeNote ? `: ${changeNote}` : ''}`
-            : `Changed bank design ${changed.code}`,
-      },
-      transaction,
+  let revision = current;
+  if (technicalChange) {
+    revision = await BankDesignVersion.create(
+      { ...merged, bankDesignId: id, revision: current.revision + 1, changeNote, createdById: actor.id },
+      { transaction },
     );
+  }
+  await saveChange(uow, designTrail(current, revision), design, { ...identity, currentVersionId: revision.id }, {
+    action: 'update',
+    summary: (changed) =>
+      technicalChange
+        ? `Made revision ${revision.revision} of bank design ${changed.code}${changeNote ? `: ${changeNote}` : ''}`
+        : `Changed bank design ${changed.code}`,
   });
-  return getBankDesign(id);
+  return getBankDesign(id, transaction);
 }
 
-/** Retires a design no bank in service uses. @throws AppError 404, 409 `stale-version` / `retired` / `in-use` */
-export async function retireBankDesign(id: string, version: number, actor: AuthUser): Promise<BankDesign> {
-  await sequelize.transaction(async (transaction) => {
-    const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
-    const inUse = await Bank.count({ where: { bankDesignId: id, status: 'in-service' }, transaction });
-    if (inUse > 0) {
-      throw new AppError('in-use', `${inUse} bank(s) in service are of design ${design.code}. Replace them first.`);
-    }
-    const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
-    if (!current) throw new Error(`bank design ${id} has no current revision`);
-    await saveChange(
-      designTrail(current),
-      design,
-      { retiredAt: new Date() },
-      { action: 'retire', actor, summary: (changed) => `Retired bank design ${changed.code}` },
-      transaction,
-    );
+/** Retires a design no bank in service uses. @throws AppError `not-found`, `stale-version`, `retired`, `in-use` */
+export async function retireBankDesign(uow: UnitOfWork, id: string, version: number): Promise<BankDesign> {
+  const { transaction } = uow;
+  const design = await lockForChange(BankDesign, id, version, 'bank design', transaction);
+  const inUse = await Bank.count({ where: { bankDesignId: id, status: 'in-service' }, transaction });
+  if (inUse > 0) {
+    throw new AppError('in-use', `${inUse} bank(s) in service are of design ${design.code}. Replace them first.`);
+  }
+  const current = await BankDesignVersion.findByPk(design.currentVersionId ?? '', { transaction });
+  if (!current) throw new Error(`bank design ${id} has no current revision`);
+  await saveChange(uow, designTrail(current), design, { retiredAt: uow.now }, {
+    action: 'retire',
+    summary: (changed) => `Retired bank design ${changed.code}`,
   });
-  return getBankDesign(id);
+  return getBankDesign(id, transaction);
 }

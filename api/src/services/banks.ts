@@ -7,7 +7,6 @@ import { Op, type Includeable, type Order, type Transaction, type WhereOptions }
 import type { BaselineSource } from '../../../shared/constants/register';
 import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../../shared/domain/capacitance';
 import type { BankData, BankListQuery, BankReplacementData, BankUpdate } from '../../../shared/schemas/bank';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Bank } from '../models/bank';
@@ -16,11 +15,11 @@ import { BankDesignVersion } from '../models/bank-design-version';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
 import { User } from '../models/user';
-import type { AuthUser } from '../types/express';
 import { recordAudit } from './audit';
 import { recordCreation, saveChange } from './audited-change';
 import { BANK_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 /** Everything a bank's answer shows: cabinet, area, site, design and who set the baseline. */
 function bankIncludes(siteId?: string): Includeable[] {
@@ -89,7 +88,7 @@ export async function listBanks(query: BankListQuery): Promise<{ rows: Bank[]; c
   return { rows, count };
 }
 
-/** A bank with everything its answer shows. @throws AppError 404 */
+/** A bank with everything its answer shows. @throws AppError `not-found` */
 export async function getBank(id: string, transaction?: Transaction): Promise<Bank> {
   const bank = await Bank.findByPk(id, { include: bankIncludes(), transaction });
   if (!bank) throw AppError.notFound('Bank');
@@ -123,14 +122,15 @@ export function nameplateBaseline(version: BankDesignVersion): { tauSeconds: num
   return { capacitanceMicrofarads, tauSeconds: tauSecondsOf(version.bleederOhms, capacitanceMicrofarads) };
 }
 
-function nameplateBaselineFields(version: BankDesignVersion, actor: AuthUser | null, note: string) {
+/** A baseline from the nameplate, set in `uow` (by its actor, at its instant). */
+function nameplateBaselineFields(uow: UnitOfWork, version: BankDesignVersion, note: string) {
   const { tauSeconds, capacitanceMicrofarads } = nameplateBaseline(version);
   return {
     baselineTauSeconds: tauSeconds,
     baselineCapacitanceMicrofarads: capacitanceMicrofarads,
     baselineSource: 'nameplate' as BaselineSource,
-    baselineSetAt: new Date(),
-    baselineSetById: actor?.id ?? null,
+    baselineSetAt: uow.now,
+    baselineSetById: uow.actor.id,
     baselineDesignVersionId: version.id,
     baselineDecayRunId: null,
     baselineNote: note,
@@ -163,7 +163,7 @@ async function assertPositionFree(cabinetId: string, position: string, exceptId:
   if (clash) throw duplicateValue('position', `This cabinet already has a bank in service at ${position}. Replace it instead.`);
 }
 
-/** Loads an in-service bank for change. @throws AppError 404, 409 */
+/** Loads an in-service bank for change. @throws AppError `not-found`, `stale-version`, `retired`, `replaced` */
 async function lockBankInService(id: string, version: number, transaction: Transaction): Promise<Bank> {
   const bank = await lockForChange(Bank, id, version, 'bank', transaction);
   if (bank.status !== 'in-service') {
@@ -174,68 +174,61 @@ async function lockBankInService(id: string, version: number, transaction: Trans
 
 /**
  * Adds a bank to a cabinet in use, with its baseline from the design's nameplate.
- * @throws AppError 400 naming `cabinetId` / `bankDesignId`; 409 `duplicate` naming `position`
+ * @throws AppError `validation-failed` naming `cabinetId` / `bankDesignId`; `duplicate` naming `position`
  */
-export async function createBank(input: BankData, actor: AuthUser): Promise<Bank> {
-  const id = await sequelize.transaction(async (transaction) => {
-    // FOR SHARE: waits for a retirement of the cabinet under way, and holds one off meanwhile
-    const cabinet = await Cabinet.findByPk(input.cabinetId, { transaction, lock: transaction.LOCK.SHARE });
-    if (!cabinet || cabinet.retiredAt) throw fieldProblem('cabinetId', 'This cabinet does not exist or is retired.');
-    const { current } = await designInUse(input.bankDesignId, transaction);
-    await assertPositionFree(input.cabinetId, input.position, null, transaction);
-    const bank = await Bank.create(
-      {
-        ...input,
-        ...nameplateBaselineFields(current, actor, ''),
-        replacesBankId: null,
-        replacedByBankId: null,
-        replacedOn: null,
-      },
-      { transaction },
-    );
-    await recordCreation(BANK_TRAIL, bank, actor, `Added bank ${bank.position} to cabinet ${cabinet.tag}`, transaction);
-    return bank.id;
-  });
-  return getBank(id);
+export async function createBank(uow: UnitOfWork, input: BankData): Promise<Bank> {
+  const { transaction } = uow;
+  // FOR SHARE: waits for a retirement of the cabinet under way, and holds one off meanwhile
+  const cabinet = await Cabinet.findByPk(input.cabinetId, { transaction, lock: transaction.LOCK.SHARE });
+  if (!cabinet || cabinet.retiredAt) throw fieldProblem('cabinetId', 'This cabinet does not exist or is retired.');
+  const { current } = await designInUse(input.bankDesignId, transaction);
+  await assertPositionFree(input.cabinetId, input.position, null, transaction);
+  const bank = await Bank.create(
+    {
+      ...input,
+      ...nameplateBaselineFields(uow, current, ''),
+      replacesBankId: null,
+      replacedByBankId: null,
+      replacedOn: null,
+    },
+    { transaction },
+  );
+  await recordCreation(uow, BANK_TRAIL, bank, `Added bank ${bank.position} to cabinet ${cabinet.tag}`);
+  return getBank(bank.id, transaction);
 }
 
 /**
  * Changes a bank in service. A new design corrects a wrong record: a nameplate baseline follows it.
- * @throws AppError 400, 404, 409
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `replaced`, `duplicate`
  */
-export async function updateBank(id: string, input: BankUpdate, actor: AuthUser): Promise<Bank> {
+export async function updateBank(uow: UnitOfWork, id: string, input: BankUpdate): Promise<Bank> {
+  const { transaction } = uow;
   const { version, ...fields } = input;
-  await sequelize.transaction(async (transaction) => {
-    const bank = await lockBankInService(id, version, transaction);
-    const changes: Record<string, unknown> = changedFields(bank, fields);
-    if (Object.keys(changes).length === 0) return;
+  const bank = await lockBankInService(id, version, transaction);
+  const changes: Record<string, unknown> = changedFields(bank, fields);
+  if (Object.keys(changes).length > 0) {
     if (fields.position !== undefined && changes.position !== undefined) {
       await assertPositionFree(bank.cabinetId, fields.position, id, transaction);
     }
     if (fields.bankDesignId !== undefined && changes.bankDesignId !== undefined) {
       const { current } = await designInUse(fields.bankDesignId, transaction);
       if (bank.baselineSource === 'nameplate') {
-        Object.assign(changes, nameplateBaselineFields(current, actor, 'Design corrected'));
+        Object.assign(changes, nameplateBaselineFields(uow, current, 'Design corrected'));
       }
     }
-    await saveChange(BANK_TRAIL, bank, changes, { action: 'update', actor, summary: (b) => `Changed bank ${b.position}` }, transaction);
-  });
-  return getBank(id);
+    await saveChange(uow, BANK_TRAIL, bank, changes, { action: 'update', summary: (b) => `Changed bank ${b.position}` });
+  }
+  return getBank(id, transaction);
 }
 
-/** Removes a bank in service (soft delete; its history stays). @throws AppError 404, 409 */
-export async function retireBank(id: string, version: number, actor: AuthUser): Promise<Bank> {
-  await sequelize.transaction(async (transaction) => {
-    const bank = await lockBankInService(id, version, transaction);
-    await saveChange(
-      BANK_TRAIL,
-      bank,
-      { status: 'removed', retiredAt: new Date() },
-      { action: 'retire', actor, summary: (b) => `Removed bank ${b.position}` },
-      transaction,
-    );
+/** Removes a bank in service (soft delete; its history stays). @throws AppError `not-found`, `stale-version`, `replaced` */
+export async function retireBank(uow: UnitOfWork, id: string, version: number): Promise<Bank> {
+  const bank = await lockBankInService(id, version, uow.transaction);
+  await saveChange(uow, BANK_TRAIL, bank, { status: 'removed', retiredAt: uow.now }, {
+    action: 'retire',
+    summary: (b) => `Removed bank ${b.position}`,
   });
-  return getBank(id);
+  return getBank(id, uow.transaction);
 }
 
 /** A new baseline for a bank. */
@@ -252,94 +245,80 @@ export interface BaselineChange {
 
 /**
  * Sets a bank's baseline: back to its design's current nameplate, to values entered by hand,
- * or from a trusted decay run. Records who and when.
- * @throws AppError 400, 404, 409
+ * or from a trusted decay run. Records who and when (the unit of work's actor and instant).
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `replaced`
  */
-export async function setBankBaseline(id: string, change: BaselineChange, actor: AuthUser): Promise<Bank> {
-  await sequelize.transaction(async (transaction) => {
-    const bank = await lockBankInService(id, change.version, transaction);
-    let baseline: object;
-    if (change.source === 'nameplate') {
-      const { current } = await designInUse(bank.bankDesignId, transaction);
-      baseline = nameplateBaselineFields(current, actor, change.note);
-    } else {
-      if (!change.tauSeconds) throw fieldProblem('tauSeconds', 'Enter the baseline τ in seconds.');
-      if (!change.capacitanceMicrofarads) throw fieldProblem('capacitanceMicrofarads', 'Enter the baseline capacitance in µF.');
-      if (change.source === 'decay-run' && !change.decayRunId) throw fieldProblem('decayRunId', 'Name the trusted decay run.');
-      baseline = {
-        baselineTauSeconds: change.tauSeconds,
-        baselineCapacitanceMicrofarads: change.capacitanceMicrofarads,
-        baselineSource: change.source,
-        baselineSetAt: new Date(),
-        baselineSetById: actor.id,
-        baselineDesignVersionId: null,
-        baselineDecayRunId: change.source === 'decay-run' ? (change.decayRunId ?? null) : null,
-        baselineNote: change.note,
-      };
-    }
-    await saveChange(
-      BANK_TRAIL,
-      bank,
-      baseline,
-      {
-        action: 'baseline',
-        actor,
-        summary: (b) =>
-          `Set the baseline of bank ${b.position} ${change.source === 'nameplate' ? 'from the nameplate' : change.source === 'manual' ? 'by hand' : 'from a decay run'}`,
-      },
-      transaction,
-    );
+export async function setBankBaseline(uow: UnitOfWork, id: string, change: BaselineChange): Promise<Bank> {
+  const { transaction, actor } = uow;
+  const bank = await lockBankInService(id, change.version, transaction);
+  let baseline: object;
+  if (change.source === 'nameplate') {
+    const { current } = await designInUse(bank.bankDesignId, transaction);
+    baseline = nameplateBaselineFields(uow, current, change.note);
+  } else {
+    if (!change.tauSeconds) throw fieldProblem('tauSeconds', 'Enter the baseline τ in seconds.');
+    if (!change.capacitanceMicrofarads) throw fieldProblem('capacitanceMicrofarads', 'Enter the baseline capacitance in µF.');
+    if (change.source === 'decay-run' && !change.decayRunId) throw fieldProblem('decayRunId', 'Name the trusted decay run.');
+    baseline = {
+      baselineTauSeconds: change.tauSeconds,
+      baselineCapacitanceMicrofarads: change.capacitanceMicrofarads,
+      baselineSource: change.source,
+      baselineSetAt: uow.now,
+      baselineSetById: actor.id,
+      baselineDesignVersionId: null,
+      baselineDecayRunId: change.source === 'decay-run' ? (change.decayRunId ?? null) : null,
+      baselineNote: change.note,
+    };
+  }
+  await saveChange(uow, BANK_TRAIL, bank, baseline, {
+    action: 'baseline',
+    summary: (b) =>
+      `Set the baseline of bank ${b.position} ${change.source === 'nameplate' ? 'from the nameplate' : change.source === 'manual' ? 'by hand' : 'from a decay run'}`,
   });
-  return getBank(id);
+  return getBank(id, transaction);
 }
 
 /**
  * Replaces a bank: the old one is marked replaced (its record and history stay) and a new bank
- * takes its cabinet and position, with a fresh baseline from its design's nameplate. One transaction.
+ * takes its cabinet and position, with a fresh baseline from its design's nameplate. One unit of work.
  * @returns the new bank
- * @throws AppError 400, 404, 409
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `replaced`
  */
-export async function replaceBank(id: string, input: BankReplacementData, actor: AuthUser): Promise<Bank> {
-  const newId = await sequelize.transaction(async (transaction) => {
-    const old = await lockBankInService(id, input.version, transaction);
-    if (old.installedOn && input.installedOn < old.installedOn) {
-      throw fieldProblem('installedOn', `The new bank cannot go in before the old one did (${old.installedOn}).`);
-    }
-    const { current } = await designInUse(input.bankDesignId ?? old.bankDesignId, transaction);
-    const before = BANK_TRAIL.snapshot(old);
-    old.set({ status: 'replaced', replacedOn: input.installedOn, version: old.version + 1 });
-    await old.save({ transaction });
-    const successor = await Bank.create(
-      {
-        cabinetId: old.cabinetId,
-        bankDesignId: current.bankDesignId,
-        position: old.position,
-        serialNumber: input.serialNumber,
-        installedOn: input.installedOn,
-        notes: input.note,
-        ...nameplateBaselineFields(current, actor, 'New bank'),
-        replacesBankId: old.id,
-        replacedByBankId: null,
-        replacedOn: null,
-      },
-      { transaction },
-    );
-    old.set({ replacedByBankId: successor.id });
-    await old.save({ transaction });
-    await recordAudit(
-      {
-        entityType: 'bank',
-        entityId: old.id,
-        action: 'replace',
-        actor,
-        summary: `Replaced bank ${old.position} on ${input.installedOn}${input.note ? `: ${input.note}` : ''}`,
-        before,
-        after: BANK_TRAIL.snapshot(old),
-      },
-      transaction,
-    );
-    await recordCreation(BANK_TRAIL, successor, actor, `Installed bank ${successor.position} in place of the replaced one`, transaction);
-    return successor.id;
+export async function replaceBank(uow: UnitOfWork, id: string, input: BankReplacementData): Promise<Bank> {
+  const { transaction } = uow;
+  const old = await lockBankInService(id, input.version, transaction);
+  if (old.installedOn && input.installedOn < old.installedOn) {
+    throw fieldProblem('installedOn', `The new bank cannot go in before the old one did (${old.installedOn}).`);
+  }
+  const { current } = await designInUse(input.bankDesignId ?? old.bankDesignId, transaction);
+  const before = BANK_TRAIL.snapshot(old);
+  old.set({ status: 'replaced', replacedOn: input.installedOn, version: old.version + 1 });
+  await old.save({ transaction });
+  const successor = await Bank.create(
+    {
+      cabinetId: old.cabinetId,
+      bankDesignId: current.bankDesignId,
+      position: old.position,
+      serialNumber: input.serialNumber,
+      installedOn: input.installedOn,
+      notes: input.note,
+      ...nameplateBaselineFields(uow, current, 'New bank'),
+      replacesBankId: old.id,
+      replacedByBankId: null,
+      replacedOn: null,
+    },
+    { transaction },
+  );
+  old.set({ replacedByBankId: successor.id });
+  await old.save({ transaction });
+  await recordAudit(uow, {
+    entityType: 'bank',
+    entityId: old.id,
+    action: 'replace',
+    summary: `Replaced bank ${old.position} on ${input.installedOn}${input.note ? `: ${input.note}` : ''}`,
+    before,
+    after: BANK_TRAIL.snapshot(old),
   });
-  return getBank(newId);
+  await recordCreation(uow, BANK_TRAIL, successor, `Installed bank ${successor.position} in place of the replaced one`);
+  return getBank(successor.id, transaction);
 }

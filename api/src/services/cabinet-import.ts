@@ -18,10 +18,10 @@ import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
-import type { AuthUser } from '../types/express';
 import { recordAuditBatch, type AuditRecordInput } from './audit';
 import { AREA_AUDITED, CABINET_AUDITED } from './audited-fields';
 import { snapshotOf } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 /** An uploaded file: its name and bytes. */
 export interface ImportFile {
@@ -205,73 +205,70 @@ export async function previewCabinetImport(file: ImportFile): Promise<ImportPrev
 }
 
 /**
- * Imports every row of the file in one transaction: new areas first, then the cabinets, each
+ * Imports every row of the file in the unit of work: new areas first, then the cabinets, each
  * with its audit entry. When any row has a problem nothing is stored.
  * @throws AppError 400 `import-rejected` listing every problem (path "row N, column C")
  */
-export async function importCabinets(file: ImportFile, actor: AuthUser): Promise<ImportPreview> {
-  return sequelize.transaction(async (transaction) => {
-    // a table lock keeps two imports (or an import and a form) from taking the same tag at once
-    await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
-    const read = await readImport(file, transaction);
-    const preview = toPreview(read, false, 0);
-    if (preview.problemCount > 0) {
-      const rowsWithProblems = new Set(preview.problems.map((p) => p.row)).size;
-      throw new AppError(
-        'import-rejected',
-        400,
-        `${preview.problemCount} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.`,
-        preview.problems.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
-      );
-    }
-    const audit: AuditRecordInput[] = [];
-    const areaIdByKey = new Map<string, string>();
-    for (const [key, area] of read.newAreas) {
-      const created = await Area.create({ siteId: area.siteId, name: area.name, description: '' }, { transaction });
-      areaIdByKey.set(key, created.id);
-      audit.push({
-        entityType: 'area',
-        entityId: created.id,
-        action: 'import',
-        actor,
-        summary: `Added area ${created.name} while importing ${file.name}`,
-        before: null,
-        after: snapshotOf(created, AREA_AUDITED),
-      });
-    }
-    const cabinets = await Cabinet.bulkCreate(
-      read.rows.map((r) => {
-        const d = r.data!;
-        return {
-          areaId: r.areaId ?? areaIdByKey.get(`${r.siteId}|${d.area.toLowerCase()}`)!,
-          tag: d.tag,
-          location: d.location,
-          driveMake: d.drive_make,
-          driveModel: d.drive_model,
-          supplyVolts: d.supply_volts,
-          dcBusVolts: d.dc_bus_volts ?? null,
-          ratedPowerKilowatts: d.rated_power_kw ?? null,
-          markedWaitMinutes: d.marked_wait_minutes ?? null,
-          criticality: d.criticality,
-          environmentNotes: d.environment_notes,
-          commissionedOn: d.commissioned_on ?? null,
-          status: d.status,
-        };
-      }),
-      { transaction, returning: true },
+export async function importCabinets(uow: UnitOfWork, file: ImportFile): Promise<ImportPreview> {
+  const { transaction } = uow;
+  // a table lock keeps two imports (or an import and a form) from taking the same tag at once
+  await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
+  const read = await readImport(file, transaction);
+  const preview = toPreview(read, false, 0);
+  if (preview.problemCount > 0) {
+    const rowsWithProblems = new Set(preview.problems.map((p) => p.row)).size;
+    throw new AppError(
+      'import-rejected',
+      400,
+      `${preview.problemCount} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.`,
+      preview.problems.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
     );
-    for (const cabinet of cabinets) {
-      audit.push({
-        entityType: 'cabinet',
-        entityId: cabinet.id,
-        action: 'import',
-        actor,
-        summary: `Imported cabinet ${cabinet.tag} from ${file.name}`,
-        before: null,
-        after: snapshotOf(cabinet, CABINET_AUDITED),
-      });
-    }
-    await recordAuditBatch(audit, transaction);
-    return toPreview(read, true, cabinets.length);
-  });
+  }
+  const audit: AuditRecordInput[] = [];
+  const areaIdByKey = new Map<string, string>();
+  for (const [key, area] of read.newAreas) {
+    const created = await Area.create({ siteId: area.siteId, name: area.name, description: '' }, { transaction });
+    areaIdByKey.set(key, created.id);
+    audit.push({
+      entityType: 'area',
+      entityId: created.id,
+      action: 'import',
+      summary: `Added area ${created.name} while importing ${file.name}`,
+      before: null,
+      after: snapshotOf(created, AREA_AUDITED),
+    });
+  }
+  const cabinets = await Cabinet.bulkCreate(
+    read.rows.map((r) => {
+      const d = r.data!;
+      return {
+        areaId: r.areaId ?? areaIdByKey.get(`${r.siteId}|${d.area.toLowerCase()}`)!,
+        tag: d.tag,
+        location: d.location,
+        driveMake: d.drive_make,
+        driveModel: d.drive_model,
+        supplyVolts: d.supply_volts,
+        dcBusVolts: d.dc_bus_volts ?? null,
+        ratedPowerKilowatts: d.rated_power_kw ?? null,
+        markedWaitMinutes: d.marked_wait_minutes ?? null,
+        criticality: d.criticality,
+        environmentNotes: d.environment_notes,
+        commissionedOn: d.commissioned_on ?? null,
+        status: d.status,
+      };
+    }),
+    { transaction, returning: true },
+  );
+  for (const cabinet of cabinets) {
+    audit.push({
+      entityType: 'cabinet',
+      entityId: cabinet.id,
+      action: 'import',
+      summary: `Imported cabinet ${cabinet.tag} from ${file.name}`,
+      before: null,
+      after: snapshotOf(cabinet, CABINET_AUDITED),
+    });
+  }
+  await recordAuditBatch(uow, audit);
+  return toPreview(read, true, cabinets.length);
 }

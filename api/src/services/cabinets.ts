@@ -3,17 +3,16 @@ import QRCode from 'qrcode';
 import { literal, Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import type { CabinetData, CabinetListQuery, CabinetUpdate } from '../../../shared/schemas/cabinet';
 import { getConfig } from '../config/env';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Bank } from '../models/bank';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
-import type { AuthUser } from '../types/express';
 import { recordAuditBatch, type AuditRecordInput } from './audit';
 import { applyChange, recordCreation, saveChange } from './audited-change';
 import { BANK_TRAIL, CABINET_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 
 const BANK_COUNT = [
@@ -94,7 +93,7 @@ export async function listCabinets(query: CabinetListQuery): Promise<{ rows: Cab
   return { rows: ordered, count };
 }
 
-/** A cabinet with its area, site and bank count. @throws AppError 404 */
+/** A cabinet with its area, site and bank count. @throws AppError `not-found` */
 export async function getCabinet(id: string, transaction?: Transaction): Promise<Cabinet> {
   const cabinet = await Cabinet.findByPk(id, {
     include: [areaWithSite()],
@@ -125,73 +124,62 @@ export async function tagInUse(tag: string, exceptId: string | null, transaction
 
 /**
  * Adds a cabinet to an area.
- * @throws AppError 400 naming `areaId`; 409 `duplicate` naming `tag`
+ * @throws AppError `validation-failed` naming `areaId`; `duplicate` naming `tag`
  */
-export async function createCabinet(input: CabinetData, actor: AuthUser): Promise<Cabinet> {
-  const id = await sequelize.transaction(async (transaction) => {
-    const area = await areaInUse(input.areaId, transaction);
-    if (await tagInUse(input.tag, null, transaction)) {
-      throw duplicateValue('tag', `${input.tag} is already in the register.`);
-    }
-    const cabinet = await Cabinet.create(input, { transaction });
-    await recordCreation(CABINET_TRAIL, cabinet, actor, `Added cabinet ${cabinet.tag} to ${area.name}`, transaction);
-    return cabinet.id;
-  });
-  return getCabinet(id);
+export async function createCabinet(uow: UnitOfWork, input: CabinetData): Promise<Cabinet> {
+  const { transaction } = uow;
+  const area = await areaInUse(input.areaId, transaction);
+  if (await tagInUse(input.tag, null, transaction)) {
+    throw duplicateValue('tag', `${input.tag} is already in the register.`);
+  }
+  const cabinet = await Cabinet.create(input, { transaction });
+  await recordCreation(uow, CABINET_TRAIL, cabinet, `Added cabinet ${cabinet.tag} to ${area.name}`);
+  return getCabinet(cabinet.id, transaction);
 }
 
-/** Changes a cabinet (moving it to another area too). @throws AppError 400, 404, 409 */
-export async function updateCabinet(id: string, input: CabinetUpdate, actor: AuthUser): Promise<Cabinet> {
+/**
+ * Changes a cabinet (moving it to another area too).
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `retired`, `duplicate`
+ */
+export async function updateCabinet(uow: UnitOfWork, id: string, input: CabinetUpdate): Promise<Cabinet> {
+  const { transaction } = uow;
   const { version, ...fields } = input;
-  await sequelize.transaction(async (transaction) => {
-    const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
-    const changes = changedFields(cabinet, fields);
-    if (Object.keys(changes).length === 0) return;
+  const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
+  const changes = changedFields(cabinet, fields);
+  if (Object.keys(changes).length > 0) {
     if (changes.areaId !== undefined) await areaInUse(changes.areaId, transaction);
     if (changes.tag !== undefined && (await tagInUse(changes.tag, id, transaction))) {
       throw duplicateValue('tag', `${changes.tag} is already in the register.`);
     }
-    await saveChange(CABINET_TRAIL, cabinet, changes, { action: 'update', actor, summary: (c) => `Changed cabinet ${c.tag}` }, transaction);
-  });
-  return getCabinet(id);
+    await saveChange(uow, CABINET_TRAIL, cabinet, changes, { action: 'update', summary: (c) => `Changed cabinet ${c.tag}` });
+  }
+  return getCabinet(id, transaction);
 }
 
 /**
  * Retires a cabinet (soft delete): its banks in service are removed with it, each with its own
- * audit entry, in one transaction. Their history stays.
- * @throws AppError 404, 409 `stale-version` / `retired`
+ * audit entry, in the same unit of work. Their history stays.
+ * @throws AppError `not-found`, `stale-version`, `retired`
  */
-export async function retireCabinet(id: string, version: number, actor: AuthUser): Promise<Cabinet> {
-  await sequelize.transaction(async (transaction) => {
-    const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
-    const now = new Date();
-    const banks = await Bank.findAll({ where: { cabinetId: id, status: 'in-service' }, transaction, lock: transaction.LOCK.UPDATE });
-    const bankEntries: AuditRecordInput[] = [];
-    for (const bank of banks) {
-      bankEntries.push(
-        await applyChange(
-          BANK_TRAIL,
-          bank,
-          { status: 'removed', retiredAt: now },
-          { action: 'retire', actor, summary: (b) => `Removed bank ${b.position} with cabinet ${cabinet.tag}` },
-          transaction,
-        ),
-      );
-    }
-    await saveChange(
-      CABINET_TRAIL,
-      cabinet,
-      { status: 'retired', retiredAt: now },
-      {
+export async function retireCabinet(uow: UnitOfWork, id: string, version: number): Promise<Cabinet> {
+  const { transaction } = uow;
+  const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
+  const banks = await Bank.findAll({ where: { cabinetId: id, status: 'in-service' }, transaction, lock: transaction.LOCK.UPDATE });
+  const bankEntries: AuditRecordInput[] = [];
+  for (const bank of banks) {
+    bankEntries.push(
+      await applyChange(uow, BANK_TRAIL, bank, { status: 'removed', retiredAt: uow.now }, {
         action: 'retire',
-        actor,
-        summary: (c) => (banks.length ? `Retired cabinet ${c.tag} and removed its ${banks.length} bank(s)` : `Retired cabinet ${c.tag}`),
-      },
-      transaction,
+        summary: (b) => `Removed bank ${b.position} with cabinet ${cabinet.tag}`,
+      }),
     );
-    await recordAuditBatch(bankEntries, transaction);
+  }
+  await saveChange(uow, CABINET_TRAIL, cabinet, { status: 'retired', retiredAt: uow.now }, {
+    action: 'retire',
+    summary: (c) => (banks.length ? `Retired cabinet ${c.tag} and removed its ${banks.length} bank(s)` : `Retired cabinet ${c.tag}`),
   });
-  return getCabinet(id);
+  await recordAuditBatch(uow, bankEntries);
+  return getCabinet(id, transaction);
 }
 
 /** The address of a cabinet's page in Ebbline, from APP_URL (what its label's QR code opens). */
@@ -199,7 +187,7 @@ export function cabinetPageUrl(cabinetId: string): string {
   return new URL(`/register/cabinets/${cabinetId}`, `${getConfig().APP_URL}/`).href;
 }
 
-/** A cabinet's label: its page address and that address as a QR code (SVG). @throws AppError 404 */
+/** A cabinet's label: its page address and that address as a QR code (SVG). @throws AppError `not-found` */
 export async function getCabinetLabel(id: string): Promise<{ cabinet: Cabinet; url: string; qrSvg: string }> {
   const cabinet = await getCabinet(id);
   const url = cabinetPageUrl(id);

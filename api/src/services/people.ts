@@ -2,11 +2,10 @@ import { Op, type WhereOptions } from 'sequelize';
 import { isRole, type Role } from '../../../shared/constants/roles';
 import type { PeopleQuery, PersonUpdate } from '../../../shared/schemas/person';
 import { endSessionsOfUser } from '../auth/session';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { User } from '../models/user';
-import type { AuthUser } from '../types/express';
 import { recordAccessEvent, type RequestOrigin } from './access-events';
+import type { UnitOfWork } from './unit-of-work';
 
 /** What a verified ID token says about the person signing in. */
 export interface ProviderIdentity {
@@ -22,93 +21,106 @@ export type SignInOutcome =
   | { ok: true; user: User; firstSignIn: boolean }
   | { ok: false; reason: 'deactivated' | 'email-taken'; userId: string | null; message: string };
 
+/** The user behind `identity`, found, linked or created and stamped as signed in; or why not. */
+async function admitPerson(uow: UnitOfWork<null>, identity: ProviderIdentity, origin: RequestOrigin): Promise<SignInOutcome> {
+  const { transaction, now } = uow;
+  let firstSignIn = false;
+  let user = await User.findOne({
+    where: { subject: identity.subject },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
+  if (!user) {
+    const byEmail = await User.findOne({
+      where: { email: identity.email },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    if (byEmail && (byEmail.subject !== null || !identity.emailVerified)) {
+      return {
+        ok: false,
+        reason: 'email-taken',
+        userId: byEmail.id,
+        message: `Another Ebbline account already uses ${identity.email}. Ask an admin to sort it out.`,
+      };
+    }
+    if (byEmail) {
+      user = await byEmail.update({ subject: identity.subject }, { transaction });
+    } else {
+      firstSignIn = true;
+      user = await User.create(
+        {
+          subject: identity.subject,
+          email: identity.email,
+          name: identity.name,
+          roles: identity.roles.filter(isRole),
+          lastSignInAt: null,
+        },
+        { transaction },
+      );
+    }
+  }
+  if (!user.active) {
+    return {
+      ok: false,
+      reason: 'deactivated',
+      userId: user.id,
+      message: 'Your Ebbline account is deactivated. Ask an admin if you need it again.',
+    };
+  }
+  const emailFree =
+    identity.email === user.email ||
+    !(await User.count({
+      where: { email: identity.email, id: { [Op.ne]: user.id } },
+      transaction,
+    }));
+  await user.update(
+    { name: identity.name, ...(emailFree ? { email: identity.email } : {}), lastSignInAt: now },
+    { transaction },
+  );
+  await recordAccessEvent(
+    {
+      kind: 'sign-in',
+      userId: user.id,
+      origin,
+      detail: firstSignIn ? { firstSignIn: true, rolesFromProvider: user.roles } : {},
+      at: now,
+    },
+    transaction,
+  );
+  return { ok: true, user, firstSignIn };
+}
+
 /**
  * Finds or creates the Ebbline user behind a provider identity and records the sign-in.
  * On the first sign-in the user gets the roles that the `roles` claim names; after that
  * Ebbline's roles rule (an admin edits them on People) and the claim is ignored. A user
  * pre-registered by e-mail (no subject yet) is linked when the provider has verified that
- * address. Name and e-mail follow the provider.
+ * address. Name and e-mail follow the provider. A refusal is recorded in the sign-in log too.
+ *
+ * @param uow - a unit of work of Ebbline itself (no one is signed in yet)
  * @returns the user, or why they may not sign in (deactivated, e-mail held by another account)
  */
 export async function signInPerson(
+  uow: UnitOfWork<null>,
   identity: ProviderIdentity,
   origin: RequestOrigin,
-  now = new Date(),
 ): Promise<SignInOutcome> {
-  const outcome = await sequelize.transaction(async (transaction): Promise<SignInOutcome> => {
-    let firstSignIn = false;
-    let user = await User.findOne({
-      where: { subject: identity.subject },
-      transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
-    if (!user) {
-      const byEmail = await User.findOne({
-        where: { email: identity.email },
-        transaction,
-        lock: transaction.LOCK.UPDATE,
-      });
-      if (byEmail && (byEmail.subject !== null || !identity.emailVerified)) {
-        return {
-          ok: false,
-          reason: 'email-taken',
-          userId: byEmail.id,
-          message: `Another Ebbline account already uses ${identity.email}. Ask an admin to sort it out.`,
-        };
-      }
-      if (byEmail) {
-        user = await byEmail.update({ subject: identity.subject }, { transaction });
-      } else {
-        firstSignIn = true;
-        user = await User.create(
-          {
-            subject: identity.subject,
-            email: identity.email,
-            name: identity.name,
-            roles: identity.roles.filter(isRole),
-            lastSignInAt: null,
-          },
-          { transaction },
-        );
-      }
-    }
-    if (!user.active) {
-      return {
-        ok: false,
-        reason: 'deactivated',
-        userId: user.id,
-        message: 'Your Ebbline account is deactivated. Ask an admin if you need it again.',
-      };
-    }
-    const emailFree =
-      identity.email === user.email ||
-      !(await User.count({
-        where: { email: identity.email, id: { [Op.ne]: user.id } },
-        transaction,
-      }));
-    await user.update(
-      { name: identity.name, ...(emailFree ? { email: identity.email } : {}), lastSignInAt: now },
-      { transaction },
-    );
+  const { transaction, now } = uow;
+  const outcome = await admitPerson(uow, identity, origin);
+  if (!outcome.ok) {
+    // a refusal changed nothing, so its log entry commits with the same unit of work
     await recordAccessEvent(
       {
-        kind: 'sign-in',
-        userId: user.id,
+        kind: 'sign-in-failed',
+        userId: outcome.userId,
+        login: identity.email,
         origin,
-        detail: firstSignIn ? { firstSignIn: true, rolesFromProvider: user.roles } : {},
+        detail: { reason: outcome.reason },
+        at: now,
       },
       transaction,
     );
-    return { ok: true, user, firstSignIn };
-  });
-  if (!outcome.ok) {
-    await recordAccessEvent({
-      kind: 'sign-in-failed',
-      userId: outcome.userId,
-      login: identity.email,
-      origin,
-      detail: { reason: outcome.reason },
-    });
   }
   return outcome;
 }
@@ -150,69 +162,72 @@ export async function listAdmins(): Promise<User[]> {
 }
 
 /**
- * An admin changes a person's roles and/or deactivates or reactivates them, in one
- * transaction with its sign-in log entries. Deactivation ends the person's sessions; their
- * API tokens stop working because tokens act only for active owners.
- * @throws AppError not-found; conflict when the change would leave no active admin, or an
+ * An admin (the unit of work's actor) changes a person's roles and/or deactivates or
+ * reactivates them, in the unit of work with its sign-in log entries. Deactivation ends the
+ * person's sessions once the change is committed; their API tokens stop working because
+ * tokens act only for active owners.
+ * @throws AppError `not-found`; `conflict` when the change would leave no active admin, or an
  *   admin would deactivate themselves
  */
 export async function updatePerson(
-  actor: AuthUser,
+  uow: UnitOfWork,
   userId: string,
   change: PersonUpdate,
   origin: RequestOrigin,
 ): Promise<User> {
-  const updated = await sequelize.transaction(async (transaction) => {
-    const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
-    if (!user) throw AppError.notFound('The person');
-    const beforeRoles = user.roles.filter(isRole);
-    const afterRoles: Role[] = change.roles ?? beforeRoles;
-    const afterActive = change.active ?? user.active;
-    if (change.active === false && user.id === actor.id) {
-      throw AppError.conflict('You cannot deactivate your own account. Ask another admin.');
-    }
-    const adminBefore = user.active && beforeRoles.includes('admin');
-    const adminAfter = afterActive && afterRoles.includes('admin');
-    if (adminBefore && !adminAfter) {
-      // lock every admin row, so two admins demoting each other at once cannot both succeed
-      const admins = await User.findAll({
-        where: { active: true, roles: { [Op.contains]: ['admin'] } },
-        attributes: ['id'],
-        transaction,
-        lock: transaction.LOCK.UPDATE,
-      });
-      if (!admins.some((a) => a.id !== user.id)) {
-        throw AppError.conflict(
-          'Ebbline needs at least one active admin: make someone else admin first.',
-        );
-      }
-    }
-    const rolesChanged = afterRoles.join(',') !== beforeRoles.join(',');
-    if (rolesChanged) {
-      await recordAccessEvent(
-        {
-          kind: 'roles-changed',
-          userId: user.id,
-          actorId: actor.id,
-          origin,
-          detail: { from: beforeRoles, to: afterRoles },
-        },
-        transaction,
+  const { transaction, actor, now } = uow;
+  const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
+  if (!user) throw AppError.notFound('The person');
+  const beforeRoles = user.roles.filter(isRole);
+  const afterRoles: Role[] = change.roles ?? beforeRoles;
+  const afterActive = change.active ?? user.active;
+  if (change.active === false && user.id === actor.id) {
+    throw AppError.conflict('You cannot deactivate your own account. Ask another admin.');
+  }
+  const adminBefore = user.active && beforeRoles.includes('admin');
+  const adminAfter = afterActive && afterRoles.includes('admin');
+  if (adminBefore && !adminAfter) {
+    // lock every admin row, so two admins demoting each other at once cannot both succeed
+    const admins = await User.findAll({
+      where: { active: true, roles: { [Op.contains]: ['admin'] } },
+      attributes: ['id'],
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    if (!admins.some((a) => a.id !== user.id)) {
+      throw AppError.conflict(
+        'Ebbline needs at least one active admin: make someone else admin first.',
       );
     }
-    if (afterActive !== user.active) {
-      await recordAccessEvent(
-        {
-          kind: afterActive ? 'reactivated' : 'deactivated',
-          userId: user.id,
-          actorId: actor.id,
-          origin,
-        },
-        transaction,
-      );
-    }
-    return user.update({ roles: afterRoles, active: afterActive }, { transaction });
-  });
-  if (!updated.active) await endSessionsOfUser(updated.id);
+  }
+  const rolesChanged = afterRoles.join(',') !== beforeRoles.join(',');
+  if (rolesChanged) {
+    await recordAccessEvent(
+      {
+        kind: 'roles-changed',
+        userId: user.id,
+        actorId: actor.id,
+        origin,
+        detail: { from: beforeRoles, to: afterRoles },
+        at: now,
+      },
+      transaction,
+    );
+  }
+  if (afterActive !== user.active) {
+    await recordAccessEvent(
+      {
+        kind: afterActive ? 'reactivated' : 'deactivated',
+        userId: user.id,
+        actorId: actor.id,
+        origin,
+        at: now,
+      },
+      transaction,
+    );
+  }
+  const updated = await user.update({ roles: afterRoles, active: afterActive }, { transaction });
+  // the sessions live in the session store's own pool: ended only once the deactivation holds
+  if (!updated.active) transaction.afterCommit(() => endSessionsOfUser(updated.id).then(() => undefined));
   return updated;
 }

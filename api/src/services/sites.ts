@@ -1,14 +1,13 @@
 /** Use cases of sites: list, read, create, change, retire. */
 import { literal, Op, type Transaction, type WhereOptions } from 'sequelize';
 import type { SiteData, SiteListQuery, SiteUpdate } from '../../../shared/schemas/site';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Site } from '../models/site';
-import type { AuthUser } from '../types/express';
 import { recordCreation, saveChange } from './audited-change';
 import { SITE_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, lockForChange, pageWindow, sameTextAs } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 
 /** Columns counting a site's areas and cabinets in use, for lists and pages. */
@@ -43,9 +42,9 @@ export async function listSites(query: SiteListQuery): Promise<{ rows: Site[]; c
   return { rows, count };
 }
 
-/** A site with its counts. @throws AppError 404 */
-export async function getSite(id: string): Promise<Site> {
-  const site = await Site.findByPk(id, { attributes: { include: [...SITE_COUNTS] as never } });
+/** A site with its counts. @throws AppError `not-found` */
+export async function getSite(id: string, transaction?: Transaction): Promise<Site> {
+  const site = await Site.findByPk(id, { attributes: { include: [...SITE_COUNTS] as never }, transaction });
   if (!site) throw AppError.notFound('Site');
   return site;
 }
@@ -68,52 +67,43 @@ async function assertSiteUnique(
 
 /**
  * Adds a site and its audit entry.
- * @throws AppError 409 `duplicate` when the code or name is taken
+ * @throws AppError `duplicate` when the code or name is taken
  */
-export async function createSite(input: SiteData, actor: AuthUser): Promise<Site> {
-  const id = await sequelize.transaction(async (transaction) => {
-    await assertSiteUnique(input, null, transaction);
-    const site = await Site.create(input, { transaction });
-    await recordCreation(SITE_TRAIL, site, actor, `Added site ${site.name}`, transaction);
-    return site.id;
-  });
-  return getSite(id);
+export async function createSite(uow: UnitOfWork, input: SiteData): Promise<Site> {
+  const { transaction } = uow;
+  await assertSiteUnique(input, null, transaction);
+  const site = await Site.create(input, { transaction });
+  await recordCreation(uow, SITE_TRAIL, site, `Added site ${site.name}`);
+  return getSite(site.id, transaction);
 }
 
 /**
  * Changes a site's fields when `input.version` is still current.
- * @throws AppError 404, 409 `stale-version` / `retired` / `duplicate`
+ * @throws AppError `not-found`, `stale-version`, `retired`, `duplicate`
  */
-export async function updateSite(id: string, input: SiteUpdate, actor: AuthUser): Promise<Site> {
+export async function updateSite(uow: UnitOfWork, id: string, input: SiteUpdate): Promise<Site> {
+  const { transaction } = uow;
   const { version, ...fields } = input;
-  await sequelize.transaction(async (transaction) => {
-    const site = await lockForChange(Site, id, version, 'site', transaction);
-    const changes = changedFields(site, fields);
-    if (Object.keys(changes).length === 0) return;
+  const site = await lockForChange(Site, id, version, 'site', transaction);
+  const changes = changedFields(site, fields);
+  if (Object.keys(changes).length > 0) {
     await assertSiteUnique(changes, id, transaction);
-    await saveChange(SITE_TRAIL, site, changes, { action: 'update', actor, summary: (s) => `Changed site ${s.name}` }, transaction);
-  });
-  return getSite(id);
+    await saveChange(uow, SITE_TRAIL, site, changes, { action: 'update', summary: (s) => `Changed site ${s.name}` });
+  }
+  return getSite(id, transaction);
 }
 
 /**
  * Retires a site (soft delete). A site with areas in use cannot be retired.
- * @throws AppError 404, 409 `stale-version` / `retired` / `in-use`
+ * @throws AppError `not-found`, `stale-version`, `retired`, `in-use`
  */
-export async function retireSite(id: string, version: number, actor: AuthUser): Promise<Site> {
-  await sequelize.transaction(async (transaction) => {
-    const site = await lockForChange(Site, id, version, 'site', transaction);
-    const areasInUse = await Area.count({ where: { siteId: id, retiredAt: null }, transaction });
-    if (areasInUse > 0) {
-      throw new AppError('in-use', `${site.name} still has ${areasInUse} area(s) in use. Retire its areas first.`);
-    }
-    await saveChange(
-      SITE_TRAIL,
-      site,
-      { retiredAt: new Date() },
-      { action: 'retire', actor, summary: (s) => `Retired site ${s.name}` },
-      transaction,
-    );
-  });
-  return getSite(id);
+export async function retireSite(uow: UnitOfWork, id: string, version: number): Promise<Site> {
+  const { transaction } = uow;
+  const site = await lockForChange(Site, id, version, 'site', transaction);
+  const areasInUse = await Area.count({ where: { siteId: id, retiredAt: null }, transaction });
+  if (areasInUse > 0) {
+    throw new AppError('in-use', `${site.name} still has ${areasInUse} area(s) in use. Retire its areas first.`);
+  }
+  await saveChange(uow, SITE_TRAIL, site, { retiredAt: uow.now }, { action: 'retire', summary: (s) => `Retired site ${s.name}` });
+  return getSite(id, transaction);
 }

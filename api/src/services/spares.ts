@@ -1,28 +1,30 @@
 /** Use cases of spares in store: list, read, add, change, retire; each keeps its reforming due date. */
 import { Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { reformingDueOn, type SpareData, type SpareListQuery, type SpareUpdate } from '../../../shared/schemas/spare';
-import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { BankDesign } from '../models/bank-design';
 import { Site } from '../models/site';
 import { Spare } from '../models/spare';
-import type { AuthUser } from '../types/express';
 import { recordCreation, saveChange } from './audited-change';
 import { SPARE_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
+import type { UnitOfWork } from './unit-of-work';
 
 const spareIncludes: Includeable[] = [
   { model: Site, as: 'site', required: true },
   { model: BankDesign, as: 'bankDesign', attributes: ['id', 'code'] },
 ];
 
-/** Today as a calendar date in UTC, `YYYY-MM-DD`. */
-export function todayUtc(now = new Date()): string {
+/** The calendar date of `now` in UTC, `YYYY-MM-DD`. */
+export function todayUtc(now: Date): string {
   return now.toISOString().slice(0, 10);
 }
 
-/** One page of spares matching the query, soonest reforming first by default, with the total. */
-export async function listSpares(query: SpareListQuery, asOf = todayUtc()): Promise<{ rows: Spare[]; count: number }> {
+/**
+ * One page of spares matching the query, soonest reforming first by default, with the total.
+ * @param asOf - today (`YYYY-MM-DD`), for the `overdue` filter
+ */
+export async function listSpares(query: SpareListQuery, asOf: string): Promise<{ rows: Spare[]; count: number }> {
   const where: WhereOptions<Spare> = {};
   if (!query.includeRetired) Object.assign(where, { retiredAt: null });
   if (query.siteId) Object.assign(where, { siteId: query.siteId });
@@ -48,8 +50,8 @@ export async function listSpares(query: SpareListQuery, asOf = todayUtc()): Prom
 }
 
 /** A spare with its site and design. @throws AppError 404 */
-export async function getSpare(id: string): Promise<Spare> {
-  const spare = await Spare.findByPk(id, { include: spareIncludes });
+export async function getSpare(id: string, transaction?: Transaction): Promise<Spare> {
+  const spare = await Spare.findByPk(id, { include: spareIncludes, transaction });
   if (!spare) throw AppError.notFound('Spare');
   return spare;
 }
@@ -74,60 +76,52 @@ async function assertCodeFree(code: string, exceptId: string | null, transaction
   if (clash) throw duplicateValue('code', `Another spare already has the code ${code}.`);
 }
 
-/** Adds a spare and works out its reforming due date. @throws AppError 400, 409 `duplicate` */
-export async function createSpare(input: SpareData, actor: AuthUser): Promise<Spare> {
-  const id = await sequelize.transaction(async (transaction) => {
-    await assertReferences(input, transaction);
-    await assertCodeFree(input.code, null, transaction);
-    const spare = await Spare.create(
-      { ...input, reformingDueOn: reformingDueOn(input.storageStartedOn, input.lastReformedOn, input.reformingIntervalDays) },
-      { transaction },
-    );
-    await recordCreation(SPARE_TRAIL, spare, actor, `Added spare ${spare.code}`, transaction);
-    return spare.id;
-  });
-  return getSpare(id);
+/** Adds a spare and works out its reforming due date. @throws AppError `validation-failed`, `duplicate` */
+export async function createSpare(uow: UnitOfWork, input: SpareData): Promise<Spare> {
+  const { transaction } = uow;
+  await assertReferences(input, transaction);
+  await assertCodeFree(input.code, null, transaction);
+  const spare = await Spare.create(
+    { ...input, reformingDueOn: reformingDueOn(input.storageStartedOn, input.lastReformedOn, input.reformingIntervalDays) },
+    { transaction },
+  );
+  await recordCreation(uow, SPARE_TRAIL, spare, `Added spare ${spare.code}`);
+  return getSpare(spare.id, transaction);
 }
 
-/** Changes a spare (recording a reforming moves its due date on). @throws AppError 400, 404, 409 */
-export async function updateSpare(id: string, input: SpareUpdate, actor: AuthUser): Promise<Spare> {
+/**
+ * Changes a spare (recording a reforming moves its due date on).
+ * @throws AppError `validation-failed`, `not-found`, `stale-version`, `retired`, `duplicate`
+ */
+export async function updateSpare(uow: UnitOfWork, id: string, input: SpareUpdate): Promise<Spare> {
+  const { transaction } = uow;
   const { version, ...fields } = input;
-  await sequelize.transaction(async (transaction) => {
-    const spare = await lockForChange(Spare, id, version, 'spare', transaction);
-    const changes = changedFields(spare, fields);
-    if (Object.keys(changes).length === 0) return;
-    await assertReferences(changes, transaction);
-    if (changes.code !== undefined) await assertCodeFree(changes.code, id, transaction);
-    const storageStartedOn = changes.storageStartedOn ?? spare.storageStartedOn;
-    const lastReformedOn = changes.lastReformedOn !== undefined ? changes.lastReformedOn : spare.lastReformedOn;
-    if (lastReformedOn && lastReformedOn < storageStartedOn) {
-      throw fieldProblem('lastReformedOn', 'The last reforming cannot be before the spare went into store.');
-    }
-    await saveChange(
-      SPARE_TRAIL,
-      spare,
-      {
-        ...changes,
-        reformingDueOn: reformingDueOn(storageStartedOn, lastReformedOn, changes.reformingIntervalDays ?? spare.reformingIntervalDays),
-      },
-      { action: 'update', actor, summary: (s) => `Changed spare ${s.code}` },
-      transaction,
-    );
-  });
-  return getSpare(id);
+  const spare = await lockForChange(Spare, id, version, 'spare', transaction);
+  const changes = changedFields(spare, fields);
+  if (Object.keys(changes).length === 0) return getSpare(id, transaction);
+  await assertReferences(changes, transaction);
+  if (changes.code !== undefined) await assertCodeFree(changes.code, id, transaction);
+  const storageStartedOn = changes.storageStartedOn ?? spare.storageStartedOn;
+  const lastReformedOn = changes.lastReformedOn !== undefined ? changes.lastReformedOn : spare.lastReformedOn;
+  if (lastReformedOn && lastReformedOn < storageStartedOn) {
+    throw fieldProblem('lastReformedOn', 'The last reforming cannot be before the spare went into store.');
+  }
+  await saveChange(
+    uow,
+    SPARE_TRAIL,
+    spare,
+    {
+      ...changes,
+      reformingDueOn: reformingDueOn(storageStartedOn, lastReformedOn, changes.reformingIntervalDays ?? spare.reformingIntervalDays),
+    },
+    { action: 'update', summary: (s) => `Changed spare ${s.code}` },
+  );
+  return getSpare(id, transaction);
 }
 
-/** Retires a spare (used up or scrapped; soft delete). @throws AppError 404, 409 */
-export async function retireSpare(id: string, version: number, actor: AuthUser): Promise<Spare> {
-  await sequelize.transaction(async (transaction) => {
-    const spare = await lockForChange(Spare, id, version, 'spare', transaction);
-    await saveChange(
-      SPARE_TRAIL,
-      spare,
-      { retiredAt: new Date() },
-      { action: 'retire', actor, summary: (s) => `Retired spare ${s.code}` },
-      transaction,
-    );
-  });
-  return getSpare(id);
+/** Retires a spare (used up or scrapped; soft delete). @throws AppError `not-found`, `stale-version`, `retired` */
+export async function retireSpare(uow: UnitOfWork, id: string, version: number): Promise<Spare> {
+  const spare = await lockForChange(Spare, id, version, 'spare', uow.transaction);
+  await saveChange(uow, SPARE_TRAIL, spare, { retiredAt: uow.now }, { action: 'retire', summary: (s) => `Retired spare ${s.code}` });
+  return getSpare(id, uow.transaction);
 }

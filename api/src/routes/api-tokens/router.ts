@@ -4,6 +4,8 @@ import { apiTokenInputSchema, type IssuedApiToken } from '../../../../shared/sch
 import { requestOrigin } from '../../middleware/request-origin';
 import { requireAnyRole, requireSessionCaller } from '../../middleware/require-role';
 import { createApiToken, listApiTokens, revokeApiToken } from '../../services/api-tokens';
+import { withUnitOfWork } from '../../services/unit-of-work';
+import { actingUser } from '../params';
 import { presentApiToken } from './presenter';
 
 /**
@@ -21,13 +23,15 @@ apiTokensRouter.get('/', requireAnyRole, requireSessionCaller, async (req, res) 
 
 apiTokensRouter.post('/', requireAnyRole, requireSessionCaller, async (req, res) => {
   const input = apiTokenInputSchema.parse(req.body ?? {});
-  const { token, secret } = await createApiToken(req.user!, input, requestOrigin(req));
+  const origin = requestOrigin(req);
+  const { token, secret } = await withUnitOfWork(actingUser(req), (uow) => createApiToken(uow, input, origin));
   const body: IssuedApiToken = { ...presentApiToken(token), secret };
   res.status(201).json(body);
 });
 
 apiTokensRouter.delete('/:tokenId', requireAnyRole, requireSessionCaller, async (req, res) => {
   const { tokenId } = tokenParams.parse(req.params);
-  const token = await revokeApiToken(req.user!, tokenId, requestOrigin(req));
+  const origin = requestOrigin(req);
+  const token = await withUnitOfWork(actingUser(req), (uow) => revokeApiToken(uow, tokenId, origin));
   res.json(presentApiToken(token));
 });

@@ -5,6 +5,7 @@ import { requireRole } from '../../middleware/require-role';
 import { createArea, getArea, listAreas, retireArea, updateArea } from '../../services/areas';
 import { listAuditEntries } from '../../services/audit';
 import { listCabinets } from '../../services/cabinets';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
 import { cabinetPolicy } from '../cabinets/policy';
 import { presentCabinet } from '../cabinets/presenter';
@@ -22,7 +23,8 @@ areasRouter.get('/', requireRole(...areaPolicy.read), async (req, res) => {
 });
 
 areasRouter.post('/', requireRole(...areaPolicy.edit), async (req, res) => {
-  const area = await createArea(areaInputSchema.parse(req.body), actingUser(req));
+  const input = areaInputSchema.parse(req.body);
+  const area = await withUnitOfWork(actingUser(req), (uow) => createArea(uow, input));
   res.status(201).json(presentArea(area));
 });
 
@@ -32,12 +34,14 @@ areasRouter.get('/:areaId', requireRole(...areaPolicy.read), async (req, res) =>
 
 areasRouter.patch('/:areaId', requireRole(...areaPolicy.edit), async (req, res) => {
   const id = idParam(req, 'areaId', 'Area');
-  res.json(presentArea(await updateArea(id, areaUpdateSchema.parse(req.body), actingUser(req))));
+  const input = areaUpdateSchema.parse(req.body);
+  res.json(presentArea(await withUnitOfWork(actingUser(req), (uow) => updateArea(uow, id, input))));
 });
 
 areasRouter.delete('/:areaId', requireRole(...areaPolicy.edit), async (req, res) => {
   const id = idParam(req, 'areaId', 'Area');
-  res.json(presentArea(await retireArea(id, versionFromQuery(req), actingUser(req))));
+  const version = versionFromQuery(req);
+  res.json(presentArea(await withUnitOfWork(actingUser(req), (uow) => retireArea(uow, id, version))));
 });
 
 areasRouter.get('/:areaId/cabinets', requireRole(...cabinetPolicy.read), async (req, res) => {

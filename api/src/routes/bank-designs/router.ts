@@ -6,6 +6,7 @@ import {
 } from '../../../../shared/schemas/bank-design';
 import { requireRole } from '../../middleware/require-role';
 import { listAuditEntries } from '../../services/audit';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import {
   createBankDesign,
   getBankDesign,
@@ -29,7 +30,8 @@ bankDesignsRouter.get('/', requireRole(...bankDesignPolicy.read), async (req, re
 });
 
 bankDesignsRouter.post('/', requireRole(...bankDesignPolicy.edit), async (req, res) => {
-  const design = await createBankDesign(bankDesignInputSchema.parse(req.body), actingUser(req));
+  const input = bankDesignInputSchema.parse(req.body);
+  const design = await withUnitOfWork(actingUser(req), (uow) => createBankDesign(uow, input));
   res.status(201).json(presentBankDesign(design));
 });
 
@@ -39,12 +41,14 @@ bankDesignsRouter.get('/:designId', requireRole(...bankDesignPolicy.read), async
 
 bankDesignsRouter.patch('/:designId', requireRole(...bankDesignPolicy.edit), async (req, res) => {
   const id = idParam(req, 'designId', 'Bank design');
-  res.json(presentBankDesign(await updateBankDesign(id, bankDesignUpdateSchema.parse(req.body), actingUser(req))));
+  const input = bankDesignUpdateSchema.parse(req.body);
+  res.json(presentBankDesign(await withUnitOfWork(actingUser(req), (uow) => updateBankDesign(uow, id, input))));
 });
 
 bankDesignsRouter.delete('/:designId', requireRole(...bankDesignPolicy.edit), async (req, res) => {
   const id = idParam(req, 'designId', 'Bank design');
-  res.json(presentBankDesign(await retireBankDesign(id, versionFromQuery(req), actingUser(req))));
+  const version = versionFromQuery(req);
+  res.json(presentBankDesign(await withUnitOfWork(actingUser(req), (uow) => retireBankDesign(uow, id, version))));
 });
 
 bankDesignsRouter.get('/:designId/versions', requireRole(...bankDesignPolicy.read), async (req, res) => {

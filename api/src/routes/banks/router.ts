@@ -8,6 +8,7 @@ import {
 } from '../../../../shared/schemas/bank';
 import { requireRole } from '../../middleware/require-role';
 import { listAuditEntries } from '../../services/audit';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import {
   createBank,
   getBank,
@@ -33,7 +34,8 @@ banksRouter.get('/', requireRole(...bankPolicy.read), async (req, res) => {
 });
 
 banksRouter.post('/', requireRole(...bankPolicy.edit), async (req, res) => {
-  const bank = await createBank(bankInputSchema.parse(req.body), actingUser(req));
+  const input = bankInputSchema.parse(req.body);
+  const bank = await withUnitOfWork(actingUser(req), (uow) => createBank(uow, input));
   res.status(201).json(presentBankDetail(bank, [bank]));
 });
 
@@ -44,25 +46,29 @@ banksRouter.get('/:bankId', requireRole(...bankPolicy.read), async (req, res) =>
 
 banksRouter.patch('/:bankId', requireRole(...bankPolicy.edit), async (req, res) => {
   const id = idParam(req, 'bankId', 'Bank');
-  const bank = await updateBank(id, bankUpdateSchema.parse(req.body), actingUser(req));
+  const input = bankUpdateSchema.parse(req.body);
+  const bank = await withUnitOfWork(actingUser(req), (uow) => updateBank(uow, id, input));
   res.json(presentBankDetail(bank, await getBankLineage(bank)));
 });
 
 banksRouter.delete('/:bankId', requireRole(...bankPolicy.edit), async (req, res) => {
   const id = idParam(req, 'bankId', 'Bank');
-  const bank = await retireBank(id, versionFromQuery(req), actingUser(req));
+  const version = versionFromQuery(req);
+  const bank = await withUnitOfWork(actingUser(req), (uow) => retireBank(uow, id, version));
   res.json(presentBankDetail(bank, await getBankLineage(bank)));
 });
 
 banksRouter.put('/:bankId/baseline', requireRole(...bankPolicy.baseline), async (req, res) => {
   const id = idParam(req, 'bankId', 'Bank');
-  const bank = await setBankBaseline(id, bankBaselineInputSchema.parse(req.body), actingUser(req));
+  const input = bankBaselineInputSchema.parse(req.body);
+  const bank = await withUnitOfWork(actingUser(req), (uow) => setBankBaseline(uow, id, input));
   res.json(presentBankDetail(bank, await getBankLineage(bank)));
 });
 
 banksRouter.post('/:bankId/replacement', requireRole(...bankPolicy.edit), async (req, res) => {
   const id = idParam(req, 'bankId', 'Bank');
-  const bank = await replaceBank(id, bankReplacementInputSchema.parse(req.body), actingUser(req));
+  const input = bankReplacementInputSchema.parse(req.body);
+  const bank = await withUnitOfWork(actingUser(req), (uow) => replaceBank(uow, id, input));
   res.status(201).json(presentBankDetail(bank, await getBankLineage(bank)));
 });
 

@@ -6,6 +6,7 @@ import { listAuditEntries } from '../../services/audit';
 import { createBank, getBankLineage, listBanks } from '../../services/banks';
 import { cabinetImportTemplate, importCabinets, previewCabinetImport } from '../../services/cabinet-import';
 import { createCabinet, getCabinet, getCabinetLabel, listCabinets, retireCabinet, updateCabinet } from '../../services/cabinets';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
 import { bankPolicy } from '../banks/policy';
 import { presentBank, presentBankDetail } from '../banks/presenter';
@@ -24,7 +25,8 @@ cabinetsRouter.get('/', requireRole(...cabinetPolicy.read), async (req, res) => 
 });
 
 cabinetsRouter.post('/', requireRole(...cabinetPolicy.edit), async (req, res) => {
-  const cabinet = await createCabinet(cabinetInputSchema.parse(req.body), actingUser(req));
+  const input = cabinetInputSchema.parse(req.body);
+  const cabinet = await withUnitOfWork(actingUser(req), (uow) => createCabinet(uow, input));
   res.status(201).json(presentCabinet(cabinet));
 });
 
@@ -41,7 +43,7 @@ cabinetsRouter.post('/import/preview', requireRole(...cabinetPolicy.import), csv
 
 cabinetsRouter.post('/import', requireRole(...cabinetPolicy.import), csvUpload, async (req, res) => {
   const file = req.file!;
-  res.status(201).json(await importCabinets({ name: file.originalname, bytes: file.buffer }, actingUser(req)));
+  res.status(201).json(await withUnitOfWork(actingUser(req), (uow) => importCabinets(uow, { name: file.originalname, bytes: file.buffer })));
 });
 
 cabinetsRouter.get('/:cabinetId', requireRole(...cabinetPolicy.read), async (req, res) => {
@@ -50,12 +52,14 @@ cabinetsRouter.get('/:cabinetId', requireRole(...cabinetPolicy.read), async (req
 
 cabinetsRouter.patch('/:cabinetId', requireRole(...cabinetPolicy.edit), async (req, res) => {
   const id = idParam(req, 'cabinetId', 'Cabinet');
-  res.json(presentCabinet(await updateCabinet(id, cabinetUpdateSchema.parse(req.body), actingUser(req))));
+  const input = cabinetUpdateSchema.parse(req.body);
+  res.json(presentCabinet(await withUnitOfWork(actingUser(req), (uow) => updateCabinet(uow, id, input))));
 });
 
 cabinetsRouter.delete('/:cabinetId', requireRole(...cabinetPolicy.edit), async (req, res) => {
   const id = idParam(req, 'cabinetId', 'Cabinet');
-  res.json(presentCabinet(await retireCabinet(id, versionFromQuery(req), actingUser(req))));
+  const version = versionFromQuery(req);
+  res.json(presentCabinet(await withUnitOfWork(actingUser(req), (uow) => retireCabinet(uow, id, version))));
 });
 
 cabinetsRouter.get('/:cabinetId/banks', requireRole(...bankPolicy.read), async (req, res) => {
@@ -69,7 +73,8 @@ cabinetsRouter.get('/:cabinetId/banks', requireRole(...bankPolicy.read), async (
 cabinetsRouter.post('/:cabinetId/banks', requireRole(...bankPolicy.edit), async (req, res) => {
   const cabinetId = idParam(req, 'cabinetId', 'Cabinet');
   await getCabinet(cabinetId);
-  const bank = await createBank({ ...cabinetBankInputSchema.parse(req.body), cabinetId }, actingUser(req));
+  const input = { ...cabinetBankInputSchema.parse(req.body), cabinetId };
+  const bank = await withUnitOfWork(actingUser(req), (uow) => createBank(uow, input));
   res.status(201).json(presentBankDetail(bank, await getBankLineage(bank)));
 });
 

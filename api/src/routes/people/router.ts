@@ -4,6 +4,8 @@ import { peopleQuerySchema, personUpdateSchema } from '../../../../shared/schema
 import { requestOrigin } from '../../middleware/request-origin';
 import { requireRole, requireSignedIn } from '../../middleware/require-role';
 import { listAdmins, listPeople, updatePerson } from '../../services/people';
+import { withUnitOfWork } from '../../services/unit-of-work';
+import { actingUser } from '../params';
 import { presentAdminContact, presentPerson } from './presenter';
 
 /** `/api/people`: the users of Ebbline and their roles (admins), and whom to ask for access. */
@@ -26,6 +28,7 @@ peopleRouter.get('/admins', requireSignedIn, async (_req, res) => {
 peopleRouter.patch('/:userId', requireRole('admin'), async (req, res) => {
   const { userId } = personParams.parse(req.params);
   const change = personUpdateSchema.parse(req.body ?? {});
-  const person = await updatePerson(req.user!, userId, change, requestOrigin(req));
+  const origin = requestOrigin(req);
+  const person = await withUnitOfWork(actingUser(req), (uow) => updatePerson(uow, userId, change, origin));
   res.json(presentPerson(person));
 });

@@ -5,6 +5,7 @@ import { requireRole } from '../../middleware/require-role';
 import { createArea, listAreas } from '../../services/areas';
 import { listAuditEntries } from '../../services/audit';
 import { createSite, getSite, listSites, retireSite, updateSite } from '../../services/sites';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentArea } from '../areas/presenter';
 import { presentAuditEntry } from '../audit/presenter';
 import { actingUser, idParam, versionFromQuery } from '../params';
@@ -22,7 +23,8 @@ sitesRouter.get('/', requireRole(...sitePolicy.read), async (req, res) => {
 });
 
 sitesRouter.post('/', requireRole(...sitePolicy.edit), async (req, res) => {
-  const site = await createSite(siteInputSchema.parse(req.body), actingUser(req));
+  const input = siteInputSchema.parse(req.body);
+  const site = await withUnitOfWork(actingUser(req), (uow) => createSite(uow, input));
   res.status(201).json(presentSite(site));
 });
 
@@ -32,13 +34,15 @@ sitesRouter.get('/:siteId', requireRole(...sitePolicy.read), async (req, res) =>
 
 sitesRouter.patch('/:siteId', requireRole(...sitePolicy.edit), async (req, res) => {
   const id = idParam(req, 'siteId', 'Site');
-  const site = await updateSite(id, siteUpdateSchema.parse(req.body), actingUser(req));
+  const input = siteUpdateSchema.parse(req.body);
+  const site = await withUnitOfWork(actingUser(req), (uow) => updateSite(uow, id, input));
   res.json(presentSite(site));
 });
 
 sitesRouter.delete('/:siteId', requireRole(...sitePolicy.edit), async (req, res) => {
   const id = idParam(req, 'siteId', 'Site');
-  const site = await retireSite(id, versionFromQuery(req), actingUser(req));
+  const version = versionFromQuery(req);
+  const site = await withUnitOfWork(actingUser(req), (uow) => retireSite(uow, id, version));
   res.json(presentSite(site));
 });
 
@@ -52,7 +56,8 @@ sitesRouter.get('/:siteId/areas', requireRole(...areaPolicy.read), async (req, r
 
 sitesRouter.post('/:siteId/areas', requireRole(...areaPolicy.edit), async (req, res) => {
   const siteId = idParam(req, 'siteId', 'Site');
-  const area = await createArea(areaInputSchema.parse({ ...req.body, siteId }), actingUser(req));
+  const input = areaInputSchema.parse({ ...req.body, siteId });
+  const area = await withUnitOfWork(actingUser(req), (uow) => createArea(uow, input));
   res.status(201).json(presentArea(area));
 });
 

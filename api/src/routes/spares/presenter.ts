@@ -3,7 +3,7 @@ import type { Spare } from '../../models/spare';
 import { todayUtc } from '../../services/spares';
 
 /** A spare as the API returns it; `asOf` decides whether its reforming is overdue. */
-export function presentSpare(spare: Spare, asOf = todayUtc()): SpareJson {
+export function presentSpare(spare: Spare, asOf = todayUtc(new Date())): SpareJson {
   return {
     id: spare.id,
     code: spare.code,

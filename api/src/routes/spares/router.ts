@@ -2,7 +2,8 @@ import { Router } from 'express';
 import { spareInputSchema, spareListQuerySchema, spareUpdateSchema } from '../../../../shared/schemas/spare';
 import { requireRole } from '../../middleware/require-role';
 import { listAuditEntries } from '../../services/audit';
-import { createSpare, getSpare, listSpares, retireSpare, updateSpare } from '../../services/spares';
+import { createSpare, getSpare, listSpares, retireSpare, todayUtc, updateSpare } from '../../services/spares';
+import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
 import { actingUser, idParam, versionFromQuery } from '../params';
 import { sparePolicy } from './policy';
@@ -13,12 +14,14 @@ export const sparesRouter = Router();
 
 sparesRouter.get('/', requireRole(...sparePolicy.read), async (req, res) => {
   const query = spareListQuerySchema.parse(req.query);
-  const { rows, count } = await listSpares(query);
-  res.json({ items: rows.map((s) => presentSpare(s)), total: count, page: query.page, pageSize: query.pageSize });
+  const asOf = todayUtc(new Date());
+  const { rows, count } = await listSpares(query, asOf);
+  res.json({ items: rows.map((s) => presentSpare(s, asOf)), total: count, page: query.page, pageSize: query.pageSize });
 });
 
 sparesRouter.post('/', requireRole(...sparePolicy.edit), async (req, res) => {
-  const spare = await createSpare(spareInputSchema.parse(req.body), actingUser(req));
+  const input = spareInputSchema.parse(req.body);
+  const spare = await withUnitOfWork(actingUser(req), (uow) => createSpare(uow, input));
   res.status(201).json(presentSpare(spare));
 });
 
@@ -28,12 +31,14 @@ sparesRouter.get('/:spareId', requireRole(...sparePolicy.read), async (req, res)
 
 sparesRouter.patch('/:spareId', requireRole(...sparePolicy.edit), async (req, res) => {
   const id = idParam(req, 'spareId', 'Spare');
-  res.json(presentSpare(await updateSpare(id, spareUpdateSchema.parse(req.body), actingUser(req))));
+  const input = spareUpdateSchema.parse(req.body);
+  res.json(presentSpare(await withUnitOfWork(actingUser(req), (uow) => updateSpare(uow, id, input))));
 });
 
 sparesRouter.delete('/:spareId', requireRole(...sparePolicy.edit), async (req, res) => {
   const id = idParam(req, 'spareId', 'Spare');
-  res.json(presentSpare(await retireSpare(id, versionFromQuery(req), actingUser(req))));
+  const version = versionFromQuery(req);
+  res.json(presentSpare(await withUnitOfWork(actingUser(req), (uow) => retireSpare(uow, id, version))));
 });
 
 sparesRouter.get('/:spareId/audit', requireRole(...sparePolicy.read), async (req, res) => {
