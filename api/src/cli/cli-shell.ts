@@ -52,10 +52,29 @@ export function readInputFile(file: string, io: Pick<CliIo, 'stdin' | 'cwd'>): s
     if (file === '-') return typeof io.stdin === 'string' ? io.stdin : io.stdin();
     return readFileSync(resolve(io.cwd, file), 'utf8');
   } catch (error) {
-    throw new UsageError(
-      `cannot read ${file === '-' ? 'standard input' : file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`,
-    );
+    throw cannotRead(file, error);
   }
+}
+
+/**
+ * Reads the file named on the command line as bytes, for readers that decode it themselves (a
+ * logger's export in UTF-16 or Latin-1); `-` reads standard input as text, passed on as UTF-8.
+ *
+ * @throws UsageError naming the file when it cannot be read.
+ */
+export function readInputBytes(file: string, io: Pick<CliIo, 'stdin' | 'cwd'>): Uint8Array {
+  if (file === '-') return new TextEncoder().encode(readInputFile(file, io));
+  try {
+    return readFileSync(resolve(io.cwd, file));
+  } catch (error) {
+    throw cannotRead(file, error);
+  }
+}
+
+function cannotRead(file: string, error: unknown): UsageError {
+  return new UsageError(
+    `cannot read ${file === '-' ? 'standard input' : file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`,
+  );
 }
 
 /**

@@ -1,10 +1,16 @@
 /**
  * `npm run -s fit -- FILE.csv --bleeder-ohms R [options]`: judges one decay run from a logger or
- * handheld CSV file (`-` reads standard input) and prints one JSON object on stdout.
+ * handheld CSV file (`-` reads standard input) and prints one JSON object on stdout. The file is
+ * read as loggers write it (shared/domain/samples-csv.ts): any encoding of UTF-8, UTF-16 with a
+ * byte-order mark or Latin-1, a preamble before the header, clock or ISO times, repeated times,
+ * the tail at 0 V and pre-trigger readings; what was left out is listed in `fileRead.notes`.
  *
  * Options (resistances accept a k or M suffix, e.g. 94k, 10M):
  *   --bleeder-ohms R            bleeder resistance across the bus (required)
- *   --meter-ohms M              meter input resistance (default 10 MΩ; 0 = no meter loading)
+ *   --meter-ohms M              meter or logger input resistance (default 10 MΩ, with a warning:
+ *                               loggers differ; 0 = no meter loading)
+ *   --time-column C             the time column, by header text or number (when the names do not tell)
+ *   --volts-column C            the voltage column, by header text or number (e.g. "CH1 (V)" or 2)
  *   --temp-c T                  bank temperature during the run, °C
  *   --temp-coeff-per-k A        the design's capacitance temperature coefficient (e.g. 0.002)
  *   --baseline-uf C             baseline capacitance at 20 °C, µF (adds ratioToBaseline, health)
@@ -17,13 +23,20 @@
  */
 
 import { parseArgs } from 'node:util';
-import { defineCli, readInputFile, runIfEntryPoint, UsageError, type CliIo } from './cli-shell';
-import { judgeDecayRun, parseDecaySamplesCsv, type DecayRunFacts } from '../../../shared/domain';
+import { defineCli, readInputBytes, runIfEntryPoint, UsageError, type CliIo } from './cli-shell';
+import {
+  EngineInputError,
+  judgeDecayRun,
+  parseDecaySamplesCsv,
+  type DecayRunFacts,
+  type DecaySamplesCsv,
+  type DecaySamplesCsvOptions,
+} from '../../../shared/domain';
 import { CAPACITOR_TECHNOLOGIES, type CapacitorTechnology } from '../../../shared/constants/health';
 import { DISCHARGE_CAUTION_TEXT } from '../../../shared/constants/safety';
 
 const USAGE =
-  'usage: npm run -s fit -- FILE.csv --bleeder-ohms R [--meter-ohms M] [--temp-c T] [--temp-coeff-per-k A] [--baseline-uf C] [--nominal-volts V] [--marked-wait-s S] [--measured-bleeder-ohms R] [--technology electrolytic|film]';
+  'usage: npm run -s fit -- FILE.csv --bleeder-ohms R [--meter-ohms M] [--time-column C] [--volts-column C] [--temp-c T] [--temp-coeff-per-k A] [--baseline-uf C] [--nominal-volts V] [--marked-wait-s S] [--measured-bleeder-ohms R] [--technology electrolytic|film]';
 
 const VALUE_OPTIONS = [
   'bleeder-ohms',
@@ -35,6 +48,8 @@ const VALUE_OPTIONS = [
   'marked-wait-s',
   'measured-bleeder-ohms',
   'technology',
+  'time-column',
+  'volts-column',
 ] as const;
 
 function fitCommand(argv: string[], io: CliIo): void {
@@ -83,8 +98,10 @@ function fitCommand(argv: string[], io: CliIo): void {
   if (!CAPACITOR_TECHNOLOGIES.includes(technology))
     throw new UsageError(`--technology must be electrolytic or film, got "${values.technology}"`);
 
-  const text = readInputFile(file, io);
-  const csv = parseDecaySamplesCsv(text);
+  const csv = readSamples(readInputBytes(file, io), {
+    ...(values['time-column'] !== undefined ? { timeColumn: values['time-column'] } : {}),
+    ...(values['volts-column'] !== undefined ? { voltsColumn: values['volts-column'] } : {}),
+  });
   const facts: DecayRunFacts = {
     samples: csv.samples,
     design: {
@@ -118,6 +135,11 @@ function fitCommand(argv: string[], io: CliIo): void {
       .filter((f) => f.severity !== 'info' && !alreadyWarned.has(f.code))
       .map((f) => f.message),
   ];
+  if (meterOhms === undefined && !verdict.findings.some((f) => f.code === 'meter-input-assumed')) {
+    warnings.push(
+      "No --meter-ohms given: a 10 MΩ meter was assumed. Give the meter's or logger's input resistance (0 for none); loggers differ.",
+    );
+  }
   if (nominalVolts === undefined) {
     warnings.push(
       `No --nominal-volts given: the discharge estimate starts from the first reading (${csv.samples[0]!.volts} V).`,
@@ -125,6 +147,16 @@ function fitCommand(argv: string[], io: CliIo): void {
   }
   const output: Record<string, unknown> = {
     file,
+    fileRead: {
+      encoding: csv.encoding,
+      lineEnds: csv.lineEnds,
+      headerRow: csv.headerRow,
+      timeColumn: csv.timeColumn,
+      voltageColumn: csv.voltageColumn,
+      timeFormat: csv.timeFormat,
+      readings: csv.samples.length,
+      notes: csv.notes,
+    },
     tauSeconds: fit.tauSeconds,
     tauCi95: fit.tauCi95,
     tauStdErrorSeconds: fit.tauStdErrorSeconds,
@@ -167,6 +199,20 @@ function fitCommand(argv: string[], io: CliIo): void {
   output.warnings = warnings;
   output.caution = DISCHARGE_CAUTION_TEXT;
   io.stdout.write(`${JSON.stringify(output, null, 2)}\n`);
+}
+
+/** Reads the samples; a column question from the reader gets the option that answers it. */
+function readSamples(bytes: Uint8Array, options: DecaySamplesCsvOptions): DecaySamplesCsv {
+  try {
+    return parseDecaySamplesCsv(bytes, options);
+  } catch (error) {
+    const path = error instanceof EngineInputError ? error.issues[0]?.path : undefined;
+    if (path === 'voltsColumn' || path === 'timeColumn') {
+      const flag = path === 'voltsColumn' ? '--volts-column' : '--time-column';
+      throw new UsageError(`${(error as Error).message} (${flag} NAME or NUMBER)`);
+    }
+    throw error;
+  }
 }
 
 /** parseArgs reads "--temp-c -5" as a missing value; pass it as "--temp-c=-5". */
