@@ -1,6 +1,6 @@
 import { MutationCache, QueryCache, QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { useState, type ReactNode } from 'react';
-import { ApiError } from '../lib/api-client';
+import { ApiError, retryDelayWhileUnavailable } from '../lib/api-client';
 import { goToSignIn } from '../lib/sign-in';
 
 /** A 401 anywhere means the session has ended (idle, time limit, deactivation): sign in again. */
@@ -19,6 +19,8 @@ export function AppProvider({ children }: { children: ReactNode }) {
             staleTime: 30_000,
             // a 4xx will not change by asking again
             retry: (count, error) => !(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
+            // a page showing "can't reach its database" asks again by itself and recovers
+            refetchInterval: (query) => retryDelayWhileUnavailable(query.state.error),
           },
         },
       }),

@@ -1,3 +1,5 @@
+import { DATABASE_UNAVAILABLE_MESSAGE } from '../../../shared/constants/availability';
+
 /** One field's problem as the API reports it. */
 export interface ApiFieldIssue {
   path: string;
@@ -12,9 +14,21 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly issues: ApiFieldIssue[] = [],
+    /** From a 503's Retry-After: when asking again may succeed. */
+    readonly retryAfterSeconds?: number,
   ) {
     super(message);
   }
+}
+
+/**
+ * While the API says it cannot serve for a moment (503: its database away, or a restart), how
+ * long to wait before asking again; false for every other outcome. Queries use it to refetch
+ * by themselves, so a page recovers once the database is back, in the same session.
+ */
+export function retryDelayWhileUnavailable(error: unknown): number | false {
+  if (!(error instanceof ApiError) || error.status !== 503) return false;
+  return (error.retryAfterSeconds ?? 5) * 1000;
 }
 
 let csrfToken: string | undefined;
@@ -47,11 +61,15 @@ export async function apiFetch<T>(path: string, init: RequestInit = {}): Promise
   const body: unknown = text ? safeJson(text) : undefined;
   if (!response.ok) {
     const error = (body as { error?: { code?: string; message?: string; issues?: ApiFieldIssue[] } })?.error;
+    const retryAfter = Number(response.headers.get('Retry-After'));
     throw new ApiError(
       response.status,
       error?.code ?? 'http-' + response.status,
-      error?.message ?? `The server answered ${response.status}.`,
+      error?.code === 'database-unavailable'
+        ? DATABASE_UNAVAILABLE_MESSAGE
+        : (error?.message ?? `The server answered ${response.status}.`),
       error?.issues,
+      Number.isFinite(retryAfter) && retryAfter > 0 ? retryAfter : undefined,
     );
   }
   return body as T;

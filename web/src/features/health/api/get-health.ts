@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 
 export interface Health {
-  status: 'ok' | 'unavailable';
+  /** unavailable: the database does not answer; stopping: the server is shutting down. */
+  status: 'ok' | 'unavailable' | 'stopping';
   version: string;
   database: 'up' | 'down';
   uptimeSeconds: number;
@@ -19,6 +20,11 @@ export async function getHealth(): Promise<Health> {
 export const healthKeys = { all: ['health'] as const };
 
 export const healthQueryOptions = () =>
-  queryOptions({ queryKey: healthKeys.all, queryFn: getHealth, refetchInterval: 30_000 });
+  queryOptions({
+    queryKey: healthKeys.all,
+    queryFn: getHealth,
+    // while something is wrong, look again sooner, so the status clears soon after it is fixed
+    refetchInterval: (query) => (query.state.data?.status === 'ok' ? 30_000 : 5_000),
+  });
 
 export const useHealth = () => useQuery(healthQueryOptions());

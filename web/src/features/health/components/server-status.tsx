@@ -21,7 +21,7 @@ export function ServerStatus({ compact = false }: { compact?: boolean }) {
       className={`inline-flex items-center gap-2 text-sm ${compact ? 'text-tide-100' : 'text-tide-900'}`}
     >
       <span className={`h-2.5 w-2.5 rounded-full ${ok ? 'bg-tide-400' : 'bg-spark-400'}`} aria-hidden="true" />
-      {ok ? 'server ok' : 'database down'} · v{health.data.version}
+      {ok ? 'server ok' : health.data.status === 'stopping' ? 'server stopping' : 'database down'} · v{health.data.version}
     </span>
   );
 }
