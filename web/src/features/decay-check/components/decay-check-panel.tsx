@@ -1,11 +1,14 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import type { Bank } from '../../../../../shared/schemas/bank';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { Field, inputClass, TextArea, UnitInput } from '../../../components/ui/field';
-import { formatMicrofarads, formatOhms, formatRatio, formatSeconds, formatVolts } from '../../../lib/units';
+import { formatPercentFigure } from '../../../../../shared/domain';
+import { formatMicrofarads, formatOhms, formatSeconds, formatVolts } from '../../../lib/units';
 import { useDecayCheck } from '../hooks/use-decay-check';
 import type { BankDecayFacts } from '../utils/bank-facts';
+import { seconds } from '../utils/figures';
+import { leftOutRows, type LeftOutMark } from '../utils/left-out-rows';
 import { readPastedReadings, type ReadingIssue, type ReadingRow } from '../utils/readings';
 import type { DecayCheckOutcome } from '../utils/run-check';
 import { DecayVerdictView } from './decay-verdict';
@@ -30,11 +33,14 @@ function JudgedWith({ bank, facts }: { bank: Bank; facts: BankDecayFacts }) {
 function ReadingsTable({
   rows,
   issues,
+  leftOut,
   onCell,
   onRemove,
 }: {
   rows: readonly ReadingRow[];
   issues: readonly ReadingIssue[];
+  /** Rows whose reading the engine left out, with their mark and explanation. */
+  leftOut: ReadonlyMap<number, LeftOutMark>;
   onCell: (index: number, field: keyof ReadingRow, value: string) => void;
   onRemove: (index: number) => void;
 }) {
@@ -53,16 +59,19 @@ function ReadingsTable({
           const rowIssues = issues.filter((issue) => issue.row === n);
           const bad = (field: ReadingIssue['field']) => rowIssues.some((issue) => issue.field === field);
           const errorId = `reading-${n}-error`;
+          const mark = leftOut.get(n);
+          const markId = `reading-${n}-left-out`;
+          const describedBy = [rowIssues.length ? errorId : '', mark ? markId : ''].filter(Boolean).join(' ') || undefined;
           return (
-            <li key={i}>
-              <div className="grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2">
-                <span className="text-right font-mono text-sm text-tide-600">{n}</span>
+            <li key={i} data-testid={`reading-row-${n}`} data-left-out={mark ? 'true' : undefined}>
+              <div className={`grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2 ${mark ? '-mx-1 rounded-md bg-watch-600/10 px-1 py-0.5' : ''}`}>
+                <span className={`text-right font-mono text-sm ${mark ? 'font-bold text-watch-600' : 'text-tide-600'}`}>{n}</span>
                 <ReadingCell
                   id={`reading-${n}-time`}
                   label={`Row ${n}: time since isolation, seconds`}
                   value={row.time}
                   invalid={bad('time')}
-                  describedBy={rowIssues.length ? errorId : undefined}
+                  describedBy={describedBy}
                   onChange={(value) => onCell(i, 'time', value)}
                 />
                 <ReadingCell
@@ -70,7 +79,7 @@ function ReadingsTable({
                   label={`Row ${n}: DC-bus voltage, volts`}
                   value={row.volts}
                   invalid={bad('volts')}
-                  describedBy={rowIssues.length ? errorId : undefined}
+                  describedBy={describedBy}
                   onChange={(value) => onCell(i, 'volts', value)}
                 />
                 <Button variant="ghost" size="sm" className="px-0" aria-label={`Remove row ${n}`} onClick={() => onRemove(i)}>
@@ -82,6 +91,12 @@ function ReadingsTable({
                   {rowIssues.map((issue) => (
                     <p key={issue.field + issue.message}>{issue.message}</p>
                   ))}
+                </div>
+              ) : null}
+              {mark ? (
+                <div id={markId} data-testid={`left-out-reading-${n}`} className="ml-10 mt-0.5 text-sm text-tide-900">
+                  <span className="mr-1 inline-flex rounded-full bg-watch-600/15 px-2 py-0.5 text-xs font-bold text-watch-600">{mark.label}</span>
+                  {mark.explanation}
                 </div>
               ) : null}
             </li>
@@ -134,8 +149,8 @@ function LiveSummary({ outcome }: { outcome: DecayCheckOutcome | null }) {
     <p className="rounded-lg bg-tide-50 px-3 py-2 text-sm text-tide-950 lg:hidden" data-testid="decay-live-summary">
       {v ? (
         <>
-          Health: <b>{v.healthLabel ?? 'not judged'}</b> · τ {formatSeconds(v.tauSeconds)}
-          {v.baseline ? ` · ${formatRatio(v.baseline.ratio)} of baseline` : ''}
+          Health: <b>{v.healthLabel ?? 'not judged'}</b> · τ {seconds(v.tauSeconds)}
+          {v.baseline ? ` · ${formatPercentFigure(v.baseline.ratio)} of baseline` : ''}
           {v.safetyFinding ? <b className="text-eol-600"> · ⚠ safety finding</b> : null}{' '}
         </>
       ) : (
@@ -158,6 +173,10 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
   const check = useDecayCheck(bank);
   const { facts, outcome, readings } = check;
   const conditionError = (field: keyof typeof check.inputs) => check.conditionIssues.find((i) => i.field === field)?.message;
+  const leftOut = useMemo(
+    () => (outcome?.kind === 'verdict' ? leftOutRows(outcome.verdict.fit.excluded, outcome.rowNumbers) : new Map<number, LeftOutMark>()),
+    [outcome],
+  );
   return (
     <Card title="Decay check">
       <div data-testid="decay-check" className="space-y-4">
@@ -172,7 +191,7 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
               <p className="text-sm text-tide-800">
                 Type the readings of a discharge of this bank: the verdict below follows every change.
               </p>
-              <ReadingsTable rows={check.rows} issues={readings.issues} onCell={check.setCell} onRemove={check.removeRow} />
+              <ReadingsTable rows={check.rows} issues={readings.issues} leftOut={leftOut} onCell={check.setCell} onRemove={check.removeRow} />
               <LiveSummary outcome={outcome} />
               <div className="flex flex-wrap gap-2">
                 <Button size="sm" onClick={check.clearRows}>
@@ -220,7 +239,7 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
             </div>
             <div className="min-w-0 scroll-mt-20" id="decay-result">
               {outcome?.kind === 'verdict' ? (
-                <DecayVerdictView verdict={outcome.verdict} samples={readings.samples} rowNumbers={outcome.rowNumbers} rowIssues={readings.issues} />
+                <DecayVerdictView verdict={outcome.verdict} samples={readings.samples} rowNumbers={outcome.rowNumbers} />
               ) : outcome?.kind === 'unusable' ? (
                 <div className="space-y-2" data-testid="decay-unusable">
                   <p className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950">

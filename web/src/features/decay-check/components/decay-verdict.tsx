@@ -1,11 +1,19 @@
 import type { ReactNode } from 'react';
-import type { DecaySample, DecayVerdict, VerdictFinding } from '../../../../../shared/domain';
+import {
+  formatFigure,
+  formatInterval,
+  formatPercentFigure,
+  nextStepAfterVerdict,
+  type DecaySample,
+  type DecayVerdict,
+  type VerdictFinding,
+} from '../../../../../shared/domain';
 import type { HealthName } from '../../../../../shared/constants/health';
 import { Badge } from '../../../components/ui/badge';
 import { DetailList } from '../../../components/ui/detail-list';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
-import { formatMicrofarads, formatOhms, formatRatio, formatSeconds, formatVolts } from '../../../lib/units';
-import type { ReadingIssue } from '../utils/readings';
+import { formatOhms, formatVolts } from '../../../lib/units';
+import { microfarads, seconds, todayOn } from '../utils/figures';
 import { DecayPlot } from './decay-plot';
 
 const HEALTH_TONE: Record<HealthName, { badge: 'ok' | 'warn' | 'danger'; box: string }> = {
@@ -14,31 +22,14 @@ const HEALTH_TONE: Record<HealthName, { badge: 'ok' | 'warn' | 'danger'; box: st
   'end-of-life': { badge: 'danger', box: 'border-eol-600/40 bg-eol-600/5' },
 };
 
+/** The health word's own colours (the word carries the meaning; the colour only helps). */
+const TONE_TEXT = { ok: 'bg-ok-600/10 text-ok-600', warn: 'bg-watch-600/10 text-watch-600', danger: 'bg-eol-600/10 text-eol-600' } as const;
+
 const SEVERITY: Record<VerdictFinding['severity'], { label: string; tone: 'danger' | 'warn' | 'muted'; box: string }> = {
   safety: { label: 'Safety', tone: 'danger', box: 'border-l-4 border-eol-600 bg-eol-600/5' },
   attention: { label: 'Attention', tone: 'warn', box: 'border-l-4 border-watch-600 bg-watch-600/5' },
   info: { label: 'Note', tone: 'muted', box: 'border-l-4 border-tide-100' },
 };
-
-const number = (value: number, digits: number) => value.toLocaleString('en-GB', { maximumFractionDigits: digits });
-
-/** Decimals that keep the two ends of an interval apart: 1 for a width of 1 to 10, 2 below. */
-function decimalsFor(low: number, high: number): number {
-  const width = Math.abs(high - low);
-  return width > 0 ? Math.min(3, Math.max(0, 1 - Math.floor(Math.log10(width)))) : 1;
-}
-
-/** "329.4 to 332.8 s": as many decimals as the interval needs to show its width. */
-function range([low, high]: readonly [number, number], unit: string): string {
-  const digits = decimalsFor(low, high);
-  return `${number(low, digits)} to ${number(high, digits)} ${unit}`;
-}
-
-/** A ratio's interval in per cent, e.g. "101.46 % to 101.52 %". */
-function percentRange([low, high]: readonly [number, number]): string {
-  const digits = decimalsFor(low * 100, high * 100);
-  return `${number(low * 100, digits)} % to ${number(high * 100, digits)} %`;
-}
 
 /** τ stays a small tau inside upper-case labels (a capital Τ reads as T). */
 const tau = <span className="normal-case">τ</span>;
@@ -52,35 +43,58 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** The engine's verdict on the readings: health, τ, capacitance, findings, left-out readings, discharge. */
+/** What the health line says when the engine gives no health word. */
+const NOT_JUDGED: Record<NonNullable<DecayVerdict['notJudgedBecause']>, string> = {
+  'no-baseline': 'not judged: no baseline',
+  'implausible-ratio': 'not judged: check the bleeder value and the readings',
+};
+
+/**
+ * The engine's verdict on the readings: one health word and the next step first, then τ,
+ * capacitance, findings and the discharge estimate with its full caution. Readings left out are
+ * marked and explained in the readings table, so the verdict only counts them.
+ */
 export function DecayVerdictView({
   verdict,
   samples,
   rowNumbers,
-  rowIssues,
 }: {
   verdict: DecayVerdict;
   samples: readonly DecaySample[];
   rowNumbers: readonly number[];
-  rowIssues: readonly ReadingIssue[];
 }) {
   const { fit, baseline, capacitance, resistance, discharge, limits } = verdict;
   const tone = verdict.health ? HEALTH_TONE[verdict.health] : null;
-  const rowOf = (index: number) => rowNumbers[index] ?? index + 1;
   const high = discharge.safeAfterSecondsHigh95;
+  const next = nextStepAfterVerdict(verdict, todayOn());
+  const leftOutRows = fit.excluded.map((e) => rowNumbers[e.index] ?? e.index + 1);
+  // the readings table explains each left-out reading; the verdict does not say it again
+  const explainedThere = new Set(fit.excluded.map((e) => `Left out: ${e.reason}`));
+  const findings = verdict.findings.filter((f) => f.code !== 'readings-left-out');
+  const warnings = verdict.warnings.filter((w) => !explainedThere.has(w));
   return (
     <div className="space-y-5" data-testid="decay-verdict">
-      <div className={`rounded-lg border px-4 py-3 ${tone?.box ?? 'border-tide-100'}`} data-testid="decay-health" aria-live="polite">
+      <div className={`rounded-lg border px-4 py-3 ${tone?.box ?? 'border-watch-600/40 bg-watch-600/5'}`} data-testid="decay-health" aria-live="polite">
         <p className="text-lg text-tide-950">
-          Health: <b>{verdict.healthLabel ?? 'not judged (no baseline)'}</b>{' '}
-          {tone && verdict.healthLabel ? <Badge tone={tone.badge}>{verdict.healthLabel}</Badge> : null}
+          Health:{' '}
+          {tone && verdict.healthLabel ? (
+            <b className={`rounded-full px-2 py-0.5 ${TONE_TEXT[tone.badge]}`} data-testid="decay-health-word">
+              {verdict.healthLabel}
+            </b>
+          ) : (
+            <b data-testid="decay-health-word">{NOT_JUDGED[verdict.notJudgedBecause ?? 'no-baseline']}</b>
+          )}
         </p>
         {baseline ? (
-          <p className="mt-1 text-sm text-tide-800">
-            Capacitance {formatRatio(baseline.ratio)} of the baseline (95 %: {percentRange(baseline.ratioCi95)}). This
-            design is on watch below {formatRatio(limits.watchRatio)} and at end of life below {formatRatio(limits.endOfLifeRatio)}.
+          <p className="mt-1 text-sm text-tide-800" data-testid="decay-ratio">
+            Capacitance {formatPercentFigure(baseline.ratio)} of the baseline (95 %:{' '}
+            {formatInterval(baseline.ratioCi95[0] * 100, baseline.ratioCi95[1] * 100, { like: baseline.ratio * 100, unit: '%' })}). This design is on
+            watch below {formatPercentFigure(limits.watchRatio)} and at end of life below {formatPercentFigure(limits.endOfLifeRatio)}.
           </p>
         ) : null}
+        <p className="mt-2 text-sm font-medium text-tide-950" data-testid="decay-next-step" data-kind={next.kind}>
+          <b>Next step:</b> {next.sentence}
+        </p>
         {verdict.safetyFinding ? (
           <p className="mt-2 font-bold text-eol-600" data-testid="decay-safety-flag">
             ⚠ Safety finding: read the findings below before anyone opens the cabinet.
@@ -95,8 +109,10 @@ export function DecayVerdictView({
             label: <>{tau} (time constant)</>,
             value: (
               <span>
-                <b className="text-lg" data-testid="decay-tau">{formatSeconds(fit.tauSeconds)}</b>
-                <span className="block text-sm text-tide-600">95 %: {range(fit.tauCi95, 's')}</span>
+                <b className="text-lg" data-testid="decay-tau">
+                  {seconds(fit.tauSeconds)}
+                </b>
+                <span className="block text-sm text-tide-600">95 %: {formatInterval(fit.tauCi95[0], fit.tauCi95[1], { like: fit.tauSeconds, unit: 's' })}</span>
               </span>
             ),
           },
@@ -105,8 +121,8 @@ export function DecayVerdictView({
             label: <>{tau} expected from the baseline</>,
             value: baseline ? (
               <span>
-                {formatSeconds(baseline.expectedTauSeconds)}
-                <span className="block text-sm text-tide-600">measured τ is {formatRatio(baseline.tauRatio)} of it</span>
+                {seconds(baseline.expectedTauSeconds)}
+                <span className="block text-sm text-tide-600">measured τ is {formatPercentFigure(baseline.tauRatio)} of it</span>
               </span>
             ) : null,
           },
@@ -115,10 +131,16 @@ export function DecayVerdictView({
             label: 'Capacitance',
             value: (
               <span>
-                <b className="text-lg">{formatMicrofarads(capacitance.measuredMicrofarads)}</b>
-                <span className="block text-sm text-tide-600">95 %: {range(capacitance.measuredCi95Microfarads, 'µF')}</span>
+                <b className="text-lg">{microfarads(capacitance.measuredMicrofarads)}</b>
+                <span className="block text-sm text-tide-600">
+                  95 %:{' '}
+                  {formatInterval(capacitance.measuredCi95Microfarads[0], capacitance.measuredCi95Microfarads[1], {
+                    like: capacitance.measuredMicrofarads,
+                    unit: 'µF',
+                  })}
+                </span>
                 {capacitance.at20CMicrofarads !== null ? (
-                  <span className="block text-sm text-tide-600">{formatMicrofarads(capacitance.at20CMicrofarads)} at 20 °C</span>
+                  <span className="block text-sm text-tide-600">{microfarads(capacitance.at20CMicrofarads)} at 20 °C</span>
                 ) : null}
               </span>
             ),
@@ -128,9 +150,9 @@ export function DecayVerdictView({
             label: 'Baseline capacitance',
             value: baseline ? (
               <span>
-                {formatMicrofarads(baseline.capacitanceMicrofarads)}
+                {microfarads(baseline.capacitanceMicrofarads)}
                 {capacitance.nominalMicrofarads !== null ? (
-                  <span className="block text-sm text-tide-600">nameplate {formatMicrofarads(capacitance.nominalMicrofarads)}</span>
+                  <span className="block text-sm text-tide-600">nameplate {microfarads(capacitance.nominalMicrofarads)}</span>
                 ) : null}
               </span>
             ) : null,
@@ -149,7 +171,16 @@ export function DecayVerdictView({
           {
             id: 'used',
             label: 'Readings used',
-            value: `${fit.pointsUsed} of ${fit.pointsTotal}, over ${number(fit.spanTimeConstants, 1)} τ`,
+            value: (
+              <span data-testid="decay-readings-used">
+                {fit.pointsUsed} of {fit.pointsTotal}, over {formatFigure(fit.spanTimeConstants, 2)} τ
+                {leftOutRows.length ? (
+                  <span className="block text-sm text-tide-600">
+                    {leftOutRows.length === 1 ? `row ${leftOutRows[0]}` : `rows ${leftOutRows.join(', ')}`} left out: marked in the readings
+                  </span>
+                ) : null}
+              </span>
+            ),
           },
         ]}
       />
@@ -158,7 +189,7 @@ export function DecayVerdictView({
 
       <Section title="Findings">
         <ul className="space-y-2" data-testid="decay-findings">
-          {verdict.findings.map((finding, i) => {
+          {findings.map((finding, i) => {
             const s = SEVERITY[finding.severity];
             return (
               <li key={`${finding.code}-${i}`} className={`rounded-r-lg px-3 py-2 text-sm text-tide-950 ${s.box}`} data-severity={finding.severity}>
@@ -167,33 +198,13 @@ export function DecayVerdictView({
             );
           })}
         </ul>
-        {verdict.warnings.length > 0 ? (
-          <ul className="list-disc space-y-1 pl-5 text-sm text-tide-800">
-            {verdict.warnings.map((w) => (
+        {warnings.length > 0 ? (
+          <ul className="list-disc space-y-1 pl-5 text-sm text-tide-800" data-testid="decay-warnings">
+            {warnings.map((w) => (
               <li key={w}>{w}</li>
             ))}
           </ul>
         ) : null}
-      </Section>
-
-      <Section title="Readings left out">
-        {fit.excluded.length === 0 && rowIssues.length === 0 ? (
-          <p className="text-sm text-tide-600">None: every reading typed is on the curve.</p>
-        ) : (
-          <ul className="space-y-1 text-sm text-tide-950" data-testid="decay-left-out">
-            {fit.excluded.map((e) => (
-              <li key={`fit-${e.index}`}>
-                <b>Row {rowOf(e.index)}</b>
-                {e.code === 'control-supply-phase' ? ` (${formatSeconds(e.tSeconds)}, ${formatVolts(e.volts)}), control-supply phase` : ''}: {e.reason}
-              </li>
-            ))}
-            {rowIssues.map((issue) => (
-              <li key={`row-${issue.row}-${issue.field}`}>
-                <b>Row {issue.row}</b> not read: {issue.message.replace(/^Row \d+: /, '')}
-              </li>
-            ))}
-          </ul>
-        )}
       </Section>
 
       <Section title="Discharge after isolation">
@@ -205,14 +216,14 @@ export function DecayVerdictView({
           {(['60', '50'] as const).map((v) => (
             <div key={v} className="rounded-lg bg-tide-50 px-3 py-2">
               <dt className="text-xs font-bold uppercase tracking-wide text-tide-600">Time to {v} V</dt>
-              <dd className="text-lg font-bold text-tide-950">{formatSeconds(discharge.safeAfterSeconds[v])}</dd>
-              {high ? <dd className="text-xs text-tide-600">up to {formatSeconds(high[v])} within the 95 % interval</dd> : null}
+              <dd className="text-lg font-bold text-tide-950">{seconds(discharge.safeAfterSeconds[v])}</dd>
+              {high ? <dd className="text-xs text-tide-600">up to {seconds(high[v])} within the 95 % interval</dd> : null}
             </div>
           ))}
         </dl>
         <p className="text-sm text-tide-800">
           {discharge.markedWaitSeconds !== null
-            ? `Marked wait time of the cabinet: ${formatSeconds(discharge.markedWaitSeconds)}${discharge.exceedsMarkedWait ? ' — the estimate is longer: see the safety finding.' : '.'}`
+            ? `Marked wait time of the cabinet: ${seconds(discharge.markedWaitSeconds)}${discharge.exceedsMarkedWait ? ' — the estimate is longer: see the safety finding.' : '.'}`
             : 'The cabinet has no marked wait time in the register.'}
         </p>
         <DischargeCaution />
