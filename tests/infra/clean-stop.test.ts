@@ -1,0 +1,196 @@
+/**
+ * `npm start` stops cleanly on SIGTERM, sent to its whole process group (as a terminal's Ctrl-C
+ * or a service manager does) or to npm alone: readiness answers 503 at once, the requests in
+ * flight finish while PostgreSQL still answers them, then everything ends and nothing is left:
+ * no server, no sign-in service, no PostgreSQL.
+ *
+ * The real start command on ports and folders of this file's own; the web build is skipped
+ * (SKIP_WEB_BUILD) to keep the test short.
+ */
+import fs from 'node:fs';
+import http from 'node:http';
+import net from 'node:net';
+import path from 'node:path';
+import { afterAll, describe, expect, it, onTestFailed } from 'vitest';
+import { PROJECT_ROOT } from '../../infra/local-cluster';
+import { isRunning, stopCluster } from '../../infra/postgres';
+import { freePort, processExists, startProcess, waitUntil, type RunningProcess } from '../support/processes';
+
+const dataDir = path.resolve(PROJECT_ROOT, `${process.env.PG_TEST_DATA_DIR || '.data/pg-test'}-stop`);
+const identityDir = `${dataDir}-identity`;
+const ports = { app: await freePort(), idp: await freePort(), pg: await freePort() };
+const baseUrl = `http://localhost:${ports.app}`;
+
+/** The start command's environment: its own ports and folders, nothing of the test run's database. */
+function startEnv(): NodeJS.ProcessEnv {
+  const env: NodeJS.ProcessEnv = { ...process.env };
+  for (const name of ['DATABASE_URL', 'MIGRATION_DATABASE_URL', 'OIDC_ISSUER', 'APP_URL', 'NODE_ENV', 'PORT']) delete env[name];
+  return {
+    ...env,
+    PORT: String(ports.app),
+    IDP_PORT: String(ports.idp),
+    IDP_DATA_DIR: identityDir,
+    IDP_BCRYPT_ROUNDS: '4',
+    PG_PORT: String(ports.pg),
+    PG_DATA_DIR: dataDir,
+    SKIP_WEB_BUILD: 'true',
+    WEB_DIST_DIR: `${dataDir}-web`,
+    LOG_LEVEL: 'warn',
+  };
+}
+
+/**
+ * A request held in flight: its headers are in (the server has answered `100 Continue`), its
+ * body is not. It carries an unknown API token, so the server must ask PostgreSQL before it
+ * can answer: 401 invalid-token proves PostgreSQL still answered, 503 that it was gone.
+ */
+async function holdRequest(): Promise<{ finish(): Promise<{ status: number; code?: string }> }> {
+  const body = JSON.stringify({ name: 'Held works', code: 'HW', address: '', timeZone: 'Europe/London' });
+  const req = http.request(`${baseUrl}/api/sites`, {
+    method: 'POST',
+    agent: false,
+    headers: {
+      authorization: 'Bearer not-a-token',
+      'content-type': 'application/json',
+      'content-length': Buffer.byteLength(body),
+      expect: '100-continue',
+    },
+  });
+  const answered = new Promise<{ status: number; code?: string }>((resolve, reject) => {
+    req.on('response', (res) => {
+      let text = '';
+      res.on('data', (chunk: Buffer) => (text += chunk.toString()));
+      res.on('end', () => {
+        const parsed = (() => {
+          try {
+            return JSON.parse(text) as { error?: { code?: string } };
+          } catch {
+            return undefined;
+          }
+        })();
+        resolve({ status: res.statusCode ?? 0, code: parsed?.error?.code });
+      });
+    });
+    req.on('error', reject);
+  });
+  // Node's server answers 100 Continue when it has taken the request in (its 'request' event)
+  await new Promise<void>((resolve, reject) => {
+    req.once('continue', resolve);
+    req.once('error', reject);
+    req.flushHeaders();
+  });
+  req.write(body.slice(0, 10));
+  return {
+    finish() {
+      req.end(body.slice(10));
+      return answered;
+    },
+  };
+}
+
+function portAccepts(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const socket = net.connect({ port, host: '127.0.0.1' });
+    socket.once('connect', () => {
+      socket.destroy();
+      resolve(true);
+    });
+    socket.once('error', () => resolve(false));
+  });
+}
+
+/** Pids of the processes in a process group (from /proc). */
+function processGroupMembers(pgid: number): number[] {
+  return fs
+    .readdirSync('/proc')
+    .filter((name) => /^\d+$/.test(name))
+    .map(Number)
+    .filter((pid) => {
+      try {
+        const stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+        const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+        return fields[0] !== 'Z' && Number(fields[2]) === pgid;
+      } catch {
+        return false;
+      }
+    });
+}
+
+/** The pid of npm's child (the start orchestrator, a plain node process). */
+function childOf(pid: number): number | undefined {
+  const children = fs.readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8').trim().split(/\s+/).filter(Boolean).map(Number);
+  return children[0];
+}
+
+let running: RunningProcess | undefined;
+const started: number[] = [];
+
+afterAll(() => {
+  // only if a test failed half-way: end what it started, by pid
+  for (const pid of started) if (processExists(pid)) process.kill(pid, 'SIGKILL');
+  stopCluster({ dataDir });
+  for (const dir of [dataDir, identityDir]) fs.rmSync(dir, { recursive: true, force: true });
+}, 60_000);
+
+describe('npm start, stopped by SIGTERM', () => {
+  it.each([
+    ['the whole process group', (npmPid: number) => process.kill(-npmPid, 'SIGTERM')],
+    ['npm alone', (npmPid: number) => process.kill(npmPid, 'SIGTERM')],
+  ])(
+    'when sent to %s, then readiness turns 503, the requests in flight finish, and nothing is left running',
+    async (_target, sendSigterm) => {
+      running = startProcess('npm', ['start'], { cwd: PROJECT_ROOT, env: startEnv(), detached: true });
+      const npm = running;
+      onTestFailed(() => {
+        console.error(`npm start's output:\n${npm.output().slice(-6000)}`);
+      });
+      const npmPid = npm.child.pid!;
+      started.push(npmPid);
+      await waitUntil(async () => npm.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200, {
+        timeoutMs: 150_000,
+        what: 'npm start serving /api/health',
+        intervalMs: 200,
+      });
+      const serverPid = childOf(npmPid)!;
+      started.push(serverPid);
+      const postmasterPid = Number(fs.readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+      expect(processExists(serverPid) && processExists(postmasterPid)).toBe(true);
+
+      const held = await Promise.all([holdRequest(), holdRequest(), holdRequest()]);
+      sendSigterm(npmPid);
+
+      // readiness goes 503 while the held requests are still open
+      const health = await waitUntil(
+        async () => {
+          const res = await fetch(`${baseUrl}/api/health`);
+          return res.status === 503 ? { body: (await res.json()) as { status: string }, retryAfter: res.headers.get('retry-after') } : false;
+        },
+        { timeoutMs: 30_000, what: 'readiness answering 503' },
+      );
+      expect(health.body.status).toBe('stopping');
+      expect(health.retryAfter).toMatch(/^\d+$/);
+      // new work is turned away with a clean 503 meanwhile
+      const late = await fetch(`${baseUrl}/api/sites`);
+      expect(late.status).toBe(503);
+      expect(((await late.json()) as { error: { code: string } }).error.code).toBe('stopping');
+
+      // the held requests finish, answered with PostgreSQL still up (401: the token is unknown)
+      const answers = await Promise.all(held.map((h) => h.finish()));
+      expect(answers).toEqual(Array(held.length).fill({ status: 401, code: 'invalid-token' }));
+
+      // then everything ends: npm, the server with its sign-in service, PostgreSQL
+      await waitUntil(() => !npm.alive(), { timeoutMs: 60_000, what: 'npm start ending' });
+      await waitUntil(() => !processExists(serverPid) && !processExists(postmasterPid), {
+        timeoutMs: 30_000,
+        what: 'the server and PostgreSQL ending',
+      });
+      expect(processGroupMembers(npmPid)).toEqual([]);
+      expect(isRunning({ dataDir })).toBe(false);
+      expect(await portAccepts(ports.app)).toBe(false);
+      expect(await portAccepts(ports.idp)).toBe(false);
+      expect(await portAccepts(ports.pg)).toBe(false);
+      expect(npm.output()).toContain('[ebbline] stopped');
+    },
+    240_000,
+  );
+});
