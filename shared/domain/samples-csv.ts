@@ -15,7 +15,8 @@
  * - **Cleaned, with a note each** (./logger-readings): rows that repeat a time are averaged; the
  *   tail at 0 V and the noise around it is left out; pre-trigger readings (a flat bus before the
  *   switch-off, or negative times) are left out and t = 0 is set at the switch-off.
- * - A footer after the readings (lines with neither a time nor a voltage) is skipped.
+ * - A footer after the readings (a line with neither a time nor a voltage, and no time after it)
+ *   is skipped with a note.
  *
  * Every refusal is an EngineInputError whose message names the row (the file's line number, so
  * an editor finds it) and the column.
@@ -412,7 +413,7 @@ function refuseWithoutHeader(
   if (first < 0) throw new EngineInputError('invalid-csv', 'The file is empty.');
   const searched = Math.min(lines.length, HEADER_SEARCH_LINES);
   let readingsAt = -1;
-  for (let line = 0; line < searched && readingsAt < 0; line++) {
+  for (let line = 0; line < lines.length && readingsAt < 0; line++) {
     for (const [separator, rows] of cellsBy) {
       if (
         lines[line]!.includes(separator) &&
@@ -433,6 +434,13 @@ function refuseWithoutHeader(
   }
   if (readingsAt > 0) {
     const above = lines.slice(0, readingsAt).findLastIndex((line) => line.trim() !== '');
+    if (above >= HEADER_SEARCH_LINES) {
+      throw new EngineInputError(
+        'invalid-csv',
+        `No header row found in the first ${HEADER_SEARCH_LINES} lines: the readings start at row ${readingsAt + 1}, under row ${above + 1} ("${clip(lines[above]!)}"). Shorten the preamble so that the header is within the first ${HEADER_SEARCH_LINES} lines.`,
+        [{ path: `row ${above + 1}`, message: 'header after the first lines' }],
+      );
+    }
     throw new EngineInputError(
       'invalid-csv',
       `No header row found: the readings start at row ${readingsAt + 1} ("${clip(lines[readingsAt]!)}"), and row ${above + 1} above them ("${clip(lines[above]!)}") names no time and voltage column. Rename the columns, ${example}, or choose them by number.`,
@@ -590,8 +598,9 @@ function trimAll(cells: readonly string[]): string[] {
 }
 
 /**
- * A footer: from row `k` on, no row holds a time or a voltage (an "End of data" line, a summary).
- * Returns its note, or null when readings follow (then row `k` is a bad row, refused by the caller).
+ * A footer: row `k` holds neither a time nor a voltage, and no row after it holds a time (an
+ * "End of data" line, a summary such as "Samples,3"). Returns its note, or null when readings
+ * follow (then row `k` is a bad row, refused by the caller).
  */
 function footerFrom(
   rows: readonly string[][],
@@ -605,11 +614,10 @@ function footerFrom(
   for (let j = k; j < rows.length; j++) {
     const cells = rows[j]!;
     if (isBlankRow(cells)) continue;
-    if (readableTime(cells[ti], decimalComma) || readableNumber(cells[vi], decimalComma))
-      return null;
+    if (readableTime(cells[ti], decimalComma)) return null;
     last = row + (j - k);
   }
-  return `Rows ${row} to ${last} after the readings hold neither a time nor a voltage (a footer) and were not read.`;
+  return `Rows ${row} to ${last} after the readings hold no times (a footer) and were not read.`;
 }
 
 function refuseCell(

@@ -151,3 +151,67 @@ describe('parseDecaySamplesCsv: bad files', () => {
     ]);
   });
 });
+
+describe('parseDecaySamplesCsv: logger layouts', () => {
+  it('when a footer follows the readings, then it is skipped with a note', () => {
+    const csv = parseDecaySamplesCsv('t_s,v\n0,560\n30,490\n60,430\nEnd of data,\nSamples,3\n');
+    expect(csv.samples).toHaveLength(3);
+    expect(csv.notes).toContain(
+      'Rows 5 to 6 after the readings hold no times (a footer) and were not read.',
+    );
+  });
+
+  it('when a text cell stands between readings, then it is refused with its row and column', () => {
+    expect(() => parseDecaySamplesCsv('t_s,v\n0,560\n30,490\nEnd of data,\n60,430\n')).toThrow(
+      'Row 4, column "t_s": "End of data" is not a number.',
+    );
+  });
+
+  it('when clock times pass midnight, then the times go on counting', () => {
+    const csv = parseDecaySamplesCsv('Time;U\n23:59:59,0;560\n00:00:29,0;490\n00:00:59,0;430\n');
+    expect(csv.samples.map((s) => s.tSeconds)).toEqual([0, 30, 60]);
+    expect(csv.timeFormat).toBe('clock');
+  });
+
+  it('when a timestamp column holds bare numbers, then it is refused rather than guessed as seconds', () => {
+    expect(() =>
+      parseDecaySamplesCsv('Timestamp,V\n1718093730250,560\n1718093760250,490\n'),
+    ).toThrow(
+      'Row 2, column "Timestamp": the column\'s name calls for dates and times, but it holds the number "1718093730250"; give its unit in the header (for example "Timestamp (ms)") or choose another time column.',
+    );
+    expect(
+      parseDecaySamplesCsv(
+        'Timestamp (ms),V\n1718093730250,560\n1718093760250,490\n1718093790250,430\n',
+      ).samples[1]!.tSeconds,
+    ).toBe(1718093760.25);
+  });
+
+  it('when the readings sit under a row with names it does not know, then the refusal quotes both rows', () => {
+    expect(() => parseDecaySamplesCsv('Logger 7\nKanal A;Kanal B\n0;560\n30;490\n')).toThrow(
+      'No header row found: the readings start at row 3 ("0;560"), and row 2 above them ("Kanal A;Kanal B") names no time and voltage column. Rename the columns, such as "t_s,v" or "Time (s);Voltage (V)", or choose them by number.',
+    );
+  });
+
+  it('when no line holds numbers, then the refusal says so and quotes the start', () => {
+    expect(() => parseDecaySamplesCsv('<html>\n<body>Sign in</body>\n</html>\n')).toThrow(
+      'No readings found: none of the first 4 lines holds a row of numbers (the file starts "<html>"). Is it a logger\'s CSV export?',
+    );
+  });
+
+  it('when the header comes after 99 lines of preamble, then it is found; after 100, it is not', () => {
+    const preamble = (count: number): string =>
+      Array.from({ length: count }, (_, i) => `Setting ${i};on`).join('\n');
+    expect(parseDecaySamplesCsv(`${preamble(99)}\nt_s;v\n0;560\n30;490\n60;430\n`).headerRow).toBe(
+      100,
+    );
+    expect(() => parseDecaySamplesCsv(`${preamble(100)}\nt_s;v\n0;560\n30;490\n60;430\n`)).toThrow(
+      'No header row found in the first 100 lines: the readings start at row 102, under row 101 ("t_s;v"). Shorten the preamble so that the header is within the first 100 lines.',
+    );
+  });
+
+  it('when validation is off, then pre-trigger readings and the tail stay as written', () => {
+    const text =
+      't,v\n0,560\n1,560\n2,560\n3,560\n4,560\n5,560\n6,500\n7,440\n8,380\n9,0.1\n10,-0.05\n';
+    expect(parseDecaySamplesCsv(text, { validate: false }).samples).toHaveLength(11);
+  });
+});
