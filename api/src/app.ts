@@ -7,6 +7,7 @@ import { pinoHttp } from 'pino-http';
 import { getConfig } from './config/env';
 import { logger } from './logger';
 import { requireCsrfToken } from './auth/csrf';
+import { requireSameOrigin } from './auth/same-origin';
 import { authRouter } from './auth/router';
 import { sessionMiddleware } from './auth/session';
 import { authenticate } from './middleware/authenticate';
@@ -51,8 +52,20 @@ export function createApp(): express.Express {
           upgradeInsecureRequests: config.APP_URL.startsWith('https:') ? [] : null,
         },
       },
+      // not helmet's no-referrer: under it a browser sends `Origin: null` even with Ebbline's
+      // own changes, which the Origin check (auth/same-origin.ts) must refuse; nothing leaves
+      // for other sites either way
+      referrerPolicy: { policy: 'same-origin' },
     }),
   );
+
+  // answers of the API and of sign-in carry personal data and the CSRF token: never cached
+  app.use(['/api', '/auth'], (_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  // beside the CSRF token: a change sent from another origin's page is refused
+  app.use(requireSameOrigin(config));
 
   const session = sessionMiddleware(config);
   app.use('/auth', session, authRouter);
@@ -94,6 +107,11 @@ function serveWebApp(app: express.Express, distDir: string): void {
     return;
   }
   app.use(express.static(root, { index: false, maxAge: '1h' }));
+  // a file that is not there (an old hashed asset, a typo) is a 404, never the HTML page,
+  // which a browser would run as a broken script
+  app.get(/^\/assets\/|\/[^/]*\.[A-Za-z0-9]+$/, (_req, res) => {
+    res.status(404).type('text/plain').send('Not found');
+  });
   app.get(/^\/(?!api\/|auth\/).*/, (_req, res) => {
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(indexHtml);

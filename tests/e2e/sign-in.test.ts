@@ -1,7 +1,8 @@
-import pg from 'pg';
 import { describe, expect, inject, it } from 'vitest';
+import { getConfig } from '../../api/src/config/env';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
+import { agePendingSignIns } from '../support/oidc-flow';
 import { signIn, signOut } from '../support/sign-in';
 import { eventually } from '../support/eventually';
 
@@ -134,20 +135,12 @@ describe('signing in through the local provider', () => {
     const { page } = await browser();
     await page.goto(`${baseUrl}/auth/login`);
     await page.getByLabel('Login').waitFor();
-    // age the pending sign-in in Ebbline's session store by 11 minutes
-    const db = new pg.Client({ connectionString: inject('databaseUrl') });
-    await db.connect();
-    try {
-      const aged = await db.query(
-        `UPDATE sessions SET sess = jsonb_set(sess::jsonb, '{pendingSignIns}',
-           (SELECT jsonb_object_agg(k, jsonb_set(v, '{startedAt}', to_jsonb((v->>'startedAt')::bigint - 660000)))
-              FROM jsonb_each(sess::jsonb->'pendingSignIns') AS e(k, v)))::json
-         WHERE sess::jsonb ? 'pendingSignIns' AND NOT (sess::jsonb ? 'userId')`,
-      );
-      expect(aged.rowCount).toBeGreaterThan(0);
-    } finally {
-      await db.end();
-    }
+    // the sign-in under way is kept in the browser, sealed: age it by 11 minutes there
+    const context = page.context();
+    const name = `${getConfig().SESSION_COOKIE_NAME}.sign-in`;
+    const pending = (await context.cookies(`${baseUrl}/auth/callback`)).find((c) => c.name === name);
+    expect(pending).toBeDefined();
+    await context.addCookies([{ ...pending!, value: agePendingSignIns(pending!.value, 660_000) }]);
     await page.getByLabel('Login').fill('priya');
     await page.getByLabel('Password').fill('tidewater-plan');
     await page.getByRole('button', { name: 'Sign in' }).click();

@@ -4,6 +4,7 @@
  */
 import type { Express } from 'express';
 import request from 'supertest';
+import { sealPendingSignIns, unsealPendingSignIns } from '../../api/src/auth/pending-sign-in';
 import { getConfig } from '../../api/src/config/env';
 
 /** The browser the tests pretend to be, as the sign-in log records it. */
@@ -49,7 +50,17 @@ export function sessionCookieFrom(setCookie: string[] | string | undefined): str
   return line?.split(';')[0];
 }
 
-/** GET /auth/login: the provider's authorization URL and the pre-sign-in session cookie. */
+/** The cookies of a response's Set-Cookie as one Cookie header (`a=1; b=2`), or undefined. */
+export function cookieHeaderFrom(setCookie: string[] | string | undefined): string | undefined {
+  const lines = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
+  const pairs = lines.map((l) => l.split(';')[0]!.trim()).filter((p) => !p.endsWith('='));
+  return pairs.length ? pairs.join('; ') : undefined;
+}
+
+/**
+ * GET /auth/login: the provider's authorization URL and the pre-sign-in cookie (the sealed
+ * sign-ins under way, api/src/auth/pending-sign-in.ts; no session exists before sign-in).
+ */
 export async function startSignIn(
   app: Express,
   returnTo?: string,
@@ -58,8 +69,8 @@ export async function startSignIn(
     .get('/auth/login')
     .query(returnTo === undefined ? {} : { returnTo });
   if (res.status !== 303) throw new Error(`GET /auth/login answered ${res.status}: ${res.text}`);
-  const cookie = sessionCookieFrom(res.headers['set-cookie']);
-  if (!cookie) throw new Error('GET /auth/login set no session cookie');
+  const cookie = cookieHeaderFrom(res.headers['set-cookie']);
+  if (!cookie) throw new Error('GET /auth/login set no sign-in cookie');
   return { authorizeUrl: new URL(res.headers.location as string), cookie };
 }
 
@@ -173,7 +184,7 @@ export function finishSignIn(app: Express, callbackUrl: URL, cookie: string) {
 export interface SignedInSession {
   /** The signed-in session cookie (`ebbline.sid=…`). */
   cookie: string;
-  /** The cookie of the session before sign-in, which sign-in replaced. */
+  /** The cookie from before sign-in (the sign-in under way), which signs nobody in. */
   preSignInCookie: string;
   csrfToken: string;
   /** Where the callback sent the browser. */
@@ -203,4 +214,14 @@ export async function signInOverHttp(
     location: done.headers.location as string,
     providerJar: jar,
   };
+}
+
+/**
+ * The pre-sign-in cookie with every sign-in under way started `ms` earlier: re-sealed with the
+ * app's own key, as if the person had spent that long at the provider.
+ */
+export function agePendingSignIns(cookieValue: string, ms: number): string {
+  const aged = unsealPendingSignIns(cookieValue).map((p) => ({ ...p, startedAt: p.startedAt - ms }));
+  if (aged.length === 0) throw new Error('the cookie holds no sign-in under way');
+  return sealPendingSignIns(aged);
 }

@@ -7,6 +7,7 @@ import { signInPerson } from '../services/people';
 import { withUnitOfWork } from '../services/unit-of-work';
 import { csrfTokenMatches } from './csrf';
 import { beginSignIn, completeSignIn, endSessionUrl, providerConfiguration } from './oidc-client';
+import { readPendingSignIns, writePendingSignIns } from './pending-sign-in';
 import { safeReturnTo } from './return-to';
 import {
   endSession,
@@ -72,12 +73,12 @@ authRouter.get('/login', async (req, res) => {
   const now = Date.now();
   const { url, pending } = await beginSignIn(returnTo, config, now);
   const maxAgeMs = config.SIGN_IN_PENDING_MINUTES * 60_000;
-  const kept = Object.values(req.session.pendingSignIns ?? {})
+  const kept = readPendingSignIns(req, config)
     .filter((p) => now - p.startedAt < maxAgeMs)
     .sort((a, b) => b.startedAt - a.startedAt)
     .slice(0, MAX_PENDING - 1);
-  req.session.pendingSignIns = Object.fromEntries([...kept, pending].map((p) => [p.state, p]));
-  await saveSession(req);
+  // kept in the browser (pending-sign-in.ts): an anonymous visit stores no session row
+  writePendingSignIns(res, [...kept, pending], config);
   res.redirect(303, url.href);
 });
 
@@ -85,9 +86,9 @@ authRouter.get('/callback', async (req, res) => {
   const config = getConfig();
   const origin = requestOrigin(req);
   const state = typeof req.query.state === 'string' ? req.query.state : '';
-  const pendings = req.session.pendingSignIns ?? {};
-  const pending: PendingSignIn | undefined = Object.hasOwn(pendings, state)
-    ? pendings[state]
+  const pendings = readPendingSignIns(req, config);
+  const pending: PendingSignIn | undefined = state
+    ? pendings.find((p) => p.state === state)
     : undefined;
   const fail = async (reason: SignInProblem, detail: Record<string, unknown> = {}) => {
     await recordAccessEvent({ kind: 'sign-in-failed', origin, detail: { reason, ...detail } });
@@ -98,10 +99,12 @@ authRouter.get('/callback', async (req, res) => {
     await fail('state-mismatch');
     return;
   }
-  // one use per state, whatever happens next
-  delete pendings[state];
-  req.session.pendingSignIns = pendings;
-  await saveSession(req);
+  // one use per state in this browser, whatever happens next (the provider's code is single-use too)
+  writePendingSignIns(
+    res,
+    pendings.filter((p) => p !== pending),
+    config,
+  );
 
   if (typeof req.query.error === 'string') {
     await fail('provider-error', { error: req.query.error.slice(0, 100) });

@@ -6,7 +6,7 @@ import pg from 'pg';
 import { getConfig, type Config } from '../config/env';
 import { logger } from '../logger';
 
-/** A sign-in started at GET /auth/login and not yet completed at the callback. */
+/** A sign-in started at GET /auth/login and not yet completed at the callback (kept in the browser: pending-sign-in.ts). */
 export interface PendingSignIn {
   state: string;
   nonce: string;
@@ -26,8 +26,6 @@ declare module 'express-session' {
     csrfToken?: string;
     /** Kept for the provider's logout (id_token_hint). */
     idToken?: string;
-    /** Sign-ins under way, by state (a person may start one in two tabs). */
-    pendingSignIns?: Record<string, PendingSignIn>;
   }
 }
 

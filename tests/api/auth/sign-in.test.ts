@@ -7,6 +7,8 @@ import { User } from '../../../api/src/models/user';
 import { recordFailureInEbbline } from '../../../infra/identity/sign-in-log';
 import { startTestIdentityProvider } from '../../support/identity';
 import {
+  agePendingSignIns,
+  CookieJar,
   finishSignIn,
   sessionCookieFrom,
   signInOverHttp,
@@ -156,27 +158,44 @@ describe('the callback refuses a state it did not issue', () => {
     expect(done.headers.location).toBe('/sign-in-problem?reason=state-mismatch');
   });
 
-  it('when the same callback is replayed, then the second time is refused', async () => {
+  it('when the same callback is replayed in the same browser, then its state is spent and the second time is refused', async () => {
     const { authorizeUrl, cookie } = await startSignIn(app);
     const { callbackUrl } = await visitProvider(authorizeUrl, 'priya', 'tidewater-plan');
     const first = await finishSignIn(app, callbackUrl, cookie);
     expect(first.headers.location).toBe('/');
-    const second = await finishSignIn(app, callbackUrl, cookie);
+    // the browser's pre-sign-in cookie after the callback: the state is no longer in it
+    const jar = new CookieJar();
+    jar.take(cookie.split('; ').map((pair) => `${pair}; Path=/auth`));
+    jar.take(first.headers['set-cookie']);
+    const second = await finishSignIn(app, callbackUrl, jar.header());
     expect(second.headers.location).toBe('/sign-in-problem?reason=state-mismatch');
+  });
+
+  it('when a copy of the old pre-sign-in cookie is replayed with the callback, then the spent code is refused and nobody is signed in', async () => {
+    const { authorizeUrl, cookie } = await startSignIn(app);
+    const { callbackUrl } = await visitProvider(authorizeUrl, 'priya', 'tidewater-plan');
+    expect((await finishSignIn(app, callbackUrl, cookie)).headers.location).toBe('/');
+    const replay = await finishSignIn(app, callbackUrl, cookie);
+    expect(replay.headers.location).toBe('/sign-in-problem?reason=rejected');
+    expect(sessionCookieFrom(replay.headers['set-cookie'])).toBeUndefined();
+  });
+
+  it('when the pre-sign-in cookie is altered, then it holds no sign-in and the callback is refused', async () => {
+    const { authorizeUrl, cookie } = await startSignIn(app);
+    const { callbackUrl } = await visitProvider(authorizeUrl, 'priya', 'tidewater-plan');
+    const at = cookie.indexOf('=') + 10;
+    const altered = `${cookie.slice(0, at)}${cookie[at] === 'A' ? 'B' : 'A'}${cookie.slice(at + 1)}`;
+    const done = await finishSignIn(app, callbackUrl, altered);
+    expect(done.headers.location).toBe('/sign-in-problem?reason=state-mismatch');
   });
 
   it('when the sign-in was started longer ago than SIGN_IN_PENDING_MINUTES, then its state has expired', async () => {
     const { authorizeUrl, cookie } = await startSignIn(app);
     const { callbackUrl } = await visitProvider(authorizeUrl, 'priya', 'tidewater-plan');
-    // age the pending sign-in in the session store by 11 minutes
-    const { sequelize } = await import('../../../api/src/db/sequelize');
-    await sequelize.query(
-      `UPDATE sessions SET sess = jsonb_set(sess::jsonb, ARRAY['pendingSignIns', :state, 'startedAt'],
-         to_jsonb(((sess::jsonb #>> ARRAY['pendingSignIns', :state, 'startedAt'])::bigint - 660000)))::json
-       WHERE sess::jsonb #> ARRAY['pendingSignIns', :state] IS NOT NULL`,
-      { replacements: { state: callbackUrl.searchParams.get('state') } },
-    );
-    const done = await finishSignIn(app, callbackUrl, cookie);
+    // the sign-in under way, started 11 minutes earlier (SIGN_IN_PENDING_MINUTES is 10)
+    const at = cookie.indexOf('=');
+    const aged = `${cookie.slice(0, at)}=${agePendingSignIns(cookie.slice(at + 1), 660_000)}`;
+    const done = await finishSignIn(app, callbackUrl, aged);
     expect(done.headers.location).toBe('/sign-in-problem?reason=expired');
   });
 
