@@ -10,3 +10,4 @@ export { BankDesignVersion } from './bank-design-version';
 export { Bank } from './bank';
 export { Spare } from './spare';
 export { AuditEntry } from './audit-entry';
+export { OutboxMessage } from './outbox-message';
