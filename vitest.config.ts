@@ -12,7 +12,7 @@ export default defineConfig({
       {
         test: {
           name: 'unit',
-          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}', 'tests/api/{cli,config}/**/*.test.ts', 'tests/infra/**/*.test.ts'],
+          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}', 'tests/api/{cli,config}/**/*.test.ts', 'tests/infra/**/*.test.ts', 'tests/lint/**/*.test.ts'],
           environment: 'node',
         },
       },
