@@ -443,8 +443,8 @@ function refuseWithoutHeader(
     }
     throw new EngineInputError(
       'invalid-csv',
-      `No header row found: the readings start at row ${readingsAt + 1} ("${clip(lines[readingsAt]!)}"), and row ${above + 1} above them ("${clip(lines[above]!)}") names no time and voltage column. Rename the columns, ${example}, or choose them by number.`,
-      [{ path: `row ${above + 1}`, message: 'no time and voltage column named' }],
+      `No header row found: the readings start at row ${readingsAt + 1} ("${clip(lines[readingsAt]!)}"), and row ${above + 1} above them ("${clip(lines[above]!)}") names neither a time column nor a voltage column. Rename the columns, ${example}, or choose them by number.`,
+      [{ path: `row ${above + 1}`, message: 'no time or voltage column named' }],
     );
   }
   throw new EngineInputError(

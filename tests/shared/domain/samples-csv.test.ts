@@ -188,7 +188,7 @@ describe('parseDecaySamplesCsv: logger layouts', () => {
 
   it('when the readings sit under a row with names it does not know, then the refusal quotes both rows', () => {
     expect(() => parseDecaySamplesCsv('Logger 7\nKanal A;Kanal B\n0;560\n30;490\n')).toThrow(
-      'No header row found: the readings start at row 3 ("0;560"), and row 2 above them ("Kanal A;Kanal B") names no time and voltage column. Rename the columns, such as "t_s,v" or "Time (s);Voltage (V)", or choose them by number.',
+      'No header row found: the readings start at row 3 ("0;560"), and row 2 above them ("Kanal A;Kanal B") names neither a time column nor a voltage column. Rename the columns, such as "t_s,v" or "Time (s);Voltage (V)", or choose them by number.',
     );
   });
 
