@@ -41,7 +41,10 @@ function loggerRun(options: {
 describe('averageRepeatedTimes', () => {
   it('when a coarse clock repeats times, then the readings of one time are averaged on the first row', () => {
     expect(
-      averageRepeatedTimes(readings([0, 0.1, 0.1, 0.1, 0.2], [10, 9.8125, 9.75, 9.6875, 9.5]), names),
+      averageRepeatedTimes(
+        readings([0, 0.1, 0.1, 0.1, 0.2], [10, 9.8125, 9.75, 9.6875, 9.5]),
+        names,
+      ),
     ).toEqual({
       readings: { t: [0, 0.1, 0.2], v: [10, 9.75, 9.5], rows: [2, 3, 6] },
       merged: 2,
@@ -133,5 +136,39 @@ describe('findSwitchOff', () => {
       firstKept: 3,
       atSeconds: 0,
     });
+  });
+});
+
+describe('findSwitchOff on varied logger runs (40 runs, invented, seeded)', () => {
+  const random = seededRandom(424242);
+  const pick = <T>(values: readonly T[]): T => values[Math.floor(random() * values.length)]!;
+  const runs = Array.from({ length: 40 }, (_, i) => {
+    const step = pick([0.05, 0.1, 0.2, 0.5, 1]);
+    const tau = 40 + 3000 * random() ** 2;
+    const noise = 0.02 + 0.3 * random();
+    const flat = i % 4 === 0 ? 0 : Math.floor(5 + 400 * random());
+    const count = Math.min(4000, Math.ceil((2 * tau) / step));
+    return { step, tau, noise, flat, count, seed: 1000 + i };
+  });
+
+  it('when a run has no flat stretch, then nothing is left out', () => {
+    for (const run of runs.filter((r) => r.flat === 0))
+      expect(findSwitchOff(loggerRun(run))).toBeNull();
+  });
+
+  it('when the flat stretch is clearly flat for the fall that follows, then the switch-off is found within two steps', () => {
+    let checked = 0;
+    for (const run of runs.filter((r) => r.flat > 0)) {
+      const flatSeconds = run.flat * run.step;
+      const fallOverFlat = (565 / run.tau) * flatSeconds; // volts the decay would have fallen meanwhile
+      if (fallOverFlat < 20 || run.flat < 10) continue; // too short to tell from a slow start
+      checked++;
+      const found = findSwitchOff(loggerRun(run));
+      expect(found, JSON.stringify(run)).not.toBeNull();
+      expect(Math.abs(found!.atSeconds - flatSeconds), JSON.stringify(run)).toBeLessThan(
+        2 * run.step,
+      );
+    }
+    expect(checked).toBeGreaterThan(10);
   });
 });
