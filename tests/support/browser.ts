@@ -26,6 +26,12 @@ export interface BrowserSession {
   close(): Promise<void>;
 }
 
+/**
+ * The ceiling of every wait on a page's state (a locator, a navigation, a settled form): long
+ * enough for a busy two-core machine, reached only when a test is about to fail.
+ */
+export const PAGE_WAIT_MS = 60_000;
+
 export const PHONE_VIEWPORT = { width: 390, height: 844 };
 export const DESKTOP_VIEWPORT = { width: 1366, height: 900 };
 
@@ -40,6 +46,8 @@ export async function openBrowser(
     args: FLAGS,
     viewport,
   });
+  context.setDefaultTimeout(PAGE_WAIT_MS);
+  context.setDefaultNavigationTimeout(PAGE_WAIT_MS);
   const page = context.pages()[0] ?? (await context.newPage());
   return {
     browser: context.browser() as Browser,

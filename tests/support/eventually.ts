@@ -4,16 +4,14 @@
  * length of time; the timeout is only the ceiling of a wait on a busy machine.
  */
 import { expect } from 'vitest';
-
-/** Long enough for a busy two-core machine to finish rendering; reached only when a test fails. */
-export const SETTLE_TIMEOUT_MS = 20_000;
+import { PAGE_WAIT_MS } from './browser';
 
 /**
  * Polls `read` until the matcher that follows holds, then resolves; fails with the last value
- * seen after {@link SETTLE_TIMEOUT_MS}. Use it for anything read from a page after an action.
+ * seen after {@link PAGE_WAIT_MS}. Use it for anything read from a page after an action.
  *
  * @example await eventually(() => page.getByTestId('error-reading-12').textContent()).toBe('Row 12: …');
  */
 export function eventually<T>(read: () => T | Promise<T>) {
-  return expect.poll(read, { timeout: SETTLE_TIMEOUT_MS, interval: 50 });
+  return expect.poll(read, { timeout: PAGE_WAIT_MS, interval: 50 });
 }

@@ -5,6 +5,7 @@
  */
 import type { Page } from 'playwright-core';
 import { inject } from 'vitest';
+import { PAGE_WAIT_MS } from './browser';
 
 export interface SignInOptions {
   /** A path inside Ebbline to land on after signing in; default `/` (the role's start screen). */
@@ -32,7 +33,7 @@ export async function signIn(
     await page.getByLabel('Login').fill(login);
     await page.getByLabel('Password').fill(password);
     await Promise.all([
-      page.waitForURL((url) => url.origin === appOrigin, { timeout: 30_000 }),
+      page.waitForURL((url) => url.origin === appOrigin, { timeout: PAGE_WAIT_MS }),
       page.getByRole('button', { name: 'Sign in' }).click(),
     ]);
   }
@@ -54,7 +55,7 @@ export async function signOut(page: Page): Promise<void> {
   const button = page.getByRole('button', { name: 'Sign out' }).locator('visible=true').first();
   if (!(await button.count())) await page.getByRole('button', { name: 'Menu' }).click();
   await Promise.all([
-    page.waitForURL((url) => url.pathname === '/signed-out', { timeout: 30_000 }),
+    page.waitForURL((url) => url.pathname === '/signed-out', { timeout: PAGE_WAIT_MS }),
     page.getByRole('button', { name: 'Sign out' }).locator('visible=true').first().click(),
   ]);
   await page.getByTestId('signed-out').waitFor();
