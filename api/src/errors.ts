@@ -20,6 +20,7 @@ export const ERROR_CODES = [
   'invalid-token',
   'forbidden',
   'csrf-failed',
+  'origin-refused',
   'session-required',
   'not-found',
   'conflict',

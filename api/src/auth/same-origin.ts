@@ -32,7 +32,6 @@ export function requireSameOrigin(config: Config = getConfig()): RequestHandler 
     if (claimed !== null && claimed !== expected) {
       throw new AppError(
         'origin-refused',
-        403,
         `This request was sent from ${claimed.slice(0, 100)}, not from Ebbline (${expected}), so it was refused. Open Ebbline at ${expected} and try again.`,
       );
     }

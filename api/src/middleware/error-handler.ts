@@ -17,6 +17,7 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'invalid-token': 401,
   forbidden: 403,
   'csrf-failed': 403,
+  'origin-refused': 403,
   'session-required': 403,
   'not-found': 404,
   conflict: 409,
@@ -89,7 +90,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   const status = httpStatusOf(known);
-  if (status >= 500) logger.error({ err, requestId: req.id }, known.message);
+  if (known.code === 'database-unavailable') {
+    // one line per refused request, not a stack each: an outage would flood the log
+    logger.warn({ requestId: req.id, cause: err instanceof Error ? err.message : String(err) }, known.message);
+  } else if (status >= 500) logger.error({ err, requestId: req.id }, known.message);
   // 503s are passing: tell clients when to ask again (RFC 9110, 10.2.3)
   if (status === 503) res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
   res.status(status).json({
