@@ -107,6 +107,8 @@ const SEPARATORS: CsvSeparator[] = ['\t', ';', ','];
 interface HeaderFound {
   /** 0-based line index of the header. */
   line: number;
+  /** 0-based line index of the last header line: a units row under the names ("s;V"), or `line`. */
+  lastLine: number;
   separator: CsvSeparator;
   columns: LoggerColumns;
 }
@@ -376,13 +378,27 @@ function findLoggerHeader(text: string, options: LoggerColumnOptions): HeaderFou
           problem = { line, separator, problem: match };
         continue;
       }
-      const found = { line, separator, columns: match };
+      const found: HeaderFound = { line, lastLine: line, separator, columns: match };
       // A row whose own cells are readings is data, not a header (columns chosen by number).
       if (
         readableTime(cells[match.time.index], decimalComma) &&
         readableNumber(cells[match.voltage.index], decimalComma)
       )
         continue;
+      const units = next >= 0 ? unitsRow(nextCells, match) : null;
+      if (units !== null) {
+        const after = nextFilled(lines, next);
+        const afterCells = after >= 0 ? (rows[after] ?? []) : [];
+        const withUnits: HeaderFound = { line, lastLine: next, separator, columns: units };
+        if (
+          after < 0 ||
+          (readableTime(afterCells[match.time.index], decimalComma) &&
+            readableNumber(afterCells[match.voltage.index], decimalComma))
+        )
+          return withUnits;
+        fallback ??= withUnits;
+        continue;
+      }
       if (
         next < 0 ||
         (readableTime(nextCells[match.time.index], decimalComma) &&
@@ -394,6 +410,38 @@ function findLoggerHeader(text: string, options: LoggerColumnOptions): HeaderFou
   }
   if (fallback !== null) return fallback;
   return refuseWithoutHeader(lines, cellsBy, problem);
+}
+
+/**
+ * A units row under the header names ("Time;CH1" then "s;V", or "[s];[V]"): the columns with the
+ * units taken from it, or null when the row is something else.
+ */
+function unitsRow(cells: readonly string[], columns: LoggerColumns): LoggerColumns | null {
+  const unitOf = (cell: string | undefined): string | null => {
+    if (cell === undefined) return null;
+    const unit = cell
+      .trim()
+      .replace(/^[([](.*)[)\]]$/, '$1')
+      .trim()
+      .toLowerCase();
+    return unit === '' ? null : unit;
+  };
+  const timeUnit = unitOf(cells[columns.time.index]);
+  const voltageUnit = unitOf(cells[columns.voltage.index]);
+  if (
+    timeUnit === null ||
+    voltageUnit === null ||
+    columns.time.header.unit !== '' ||
+    columns.voltage.header.unit !== '' ||
+    !(Object.hasOwn(TIME_UNIT_SECONDS, timeUnit) || isClockFormatUnit(timeUnit)) ||
+    !Object.hasOwn(VOLTAGE_UNIT_VOLTS, voltageUnit)
+  )
+    return null;
+  return {
+    ...columns,
+    time: { ...columns.time, header: { ...columns.time.header, unit: timeUnit } },
+    voltage: { ...columns.voltage, header: { ...columns.voltage.header, unit: voltageUnit } },
+  };
 }
 
 function refuseWithoutHeader(
@@ -447,6 +495,16 @@ function refuseWithoutHeader(
       [{ path: `row ${above + 1}`, message: 'no time or voltage column named' }],
     );
   }
+  const spaced = lines.findIndex(
+    (line) => readingCells(line.trim().split(/ +/), false) >= 2 && /\d +[-+.\d]/.test(line.trim()),
+  );
+  if (spaced >= 0) {
+    throw new EngineInputError(
+      'invalid-csv',
+      `Row ${spaced + 1} ("${clip(lines[spaced]!)}"): the columns are separated by spaces; the file must be comma, semicolon or tab separated. Export it as CSV, or replace the spaces between columns with semicolons.`,
+      [{ path: `row ${spaced + 1}`, message: 'space separated' }],
+    );
+  }
   throw new EngineInputError(
     'invalid-csv',
     `No readings found: none of the first ${searched} lines holds a row of numbers (the file starts "${clip(lines[first]!)}"). Is it a logger's CSV export?`,
@@ -480,12 +538,12 @@ function readRows(
 ): ReadRows {
   const { columns, separator } = header;
   let start = 0;
-  for (let line = 0; line <= header.line && start >= 0; line++) {
+  for (let line = 0; line <= header.lastLine && start >= 0; line++) {
     start = text.indexOf('\n', start);
     if (start >= 0) start++;
   }
   const rows = start < 0 ? [] : tokenizeCsv(text.slice(start), separator);
-  const firstRow = header.line + 2;
+  const firstRow = header.lastLine + 2;
   const ti = columns.time.index;
   const vi = columns.voltage.index;
   const t: number[] = [];

@@ -215,3 +215,18 @@ describe('parseDecaySamplesCsv: logger layouts', () => {
     expect(parseDecaySamplesCsv(text, { validate: false }).samples).toHaveLength(11);
   });
 });
+
+describe('parseDecaySamplesCsv: header variants', () => {
+  it('when a units row stands under the names, then its units are applied and the readings start after it', () => {
+    const csv = parseDecaySamplesCsv('Time;CH1\nms;mV\n0;560000\n30000;490000\n60000;430000\n');
+    expect(csv.samples[1]).toEqual({ tSeconds: 30, volts: 490 });
+    expect(csv.rowNumbers[0]).toBe(3);
+    expect(parseDecaySamplesCsv('t,U\n[s],[V]\n0,560\n30,490\n60,430\n').samples).toHaveLength(3);
+  });
+
+  it('when the columns are separated by spaces, then the refusal says so', () => {
+    expect(() => parseDecaySamplesCsv('t v\n0 560\n30 490\n')).toThrow(
+      'Row 2 ("0 560"): the columns are separated by spaces; the file must be comma, semicolon or tab separated. Export it as CSV, or replace the spaces between columns with semicolons.',
+    );
+  });
+});
