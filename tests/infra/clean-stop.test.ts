@@ -8,12 +8,12 @@
  * (SKIP_WEB_BUILD) to keep the test short.
  */
 import fs from 'node:fs';
-import http from 'node:http';
 import net from 'node:net';
 import path from 'node:path';
 import { afterAll, describe, expect, it, onTestFailed } from 'vitest';
 import { PROJECT_ROOT } from '../../infra/local-cluster';
 import { isRunning, stopCluster } from '../../infra/postgres';
+import { holdRequest } from '../support/held-request';
 import { freePort, processExists, startProcess, waitUntil, type RunningProcess } from '../support/processes';
 
 const dataDir = path.resolve(PROJECT_ROOT, `${process.env.PG_TEST_DATA_DIR || '.data/pg-test'}-stop`);
@@ -40,53 +40,11 @@ function startEnv(): NodeJS.ProcessEnv {
 }
 
 /**
- * A request held in flight: its headers are in (the server has answered `100 Continue`), its
- * body is not. It carries an unknown API token, so the server must ask PostgreSQL before it
+ * The held requests carry an unknown API token, so the server must ask PostgreSQL before it
  * can answer: 401 invalid-token proves PostgreSQL still answered, 503 that it was gone.
  */
-async function holdRequest(): Promise<{ finish(): Promise<{ status: number; code?: string }> }> {
-  const body = JSON.stringify({ name: 'Held works', code: 'HW', address: '', timeZone: 'Europe/London' });
-  const req = http.request(`${baseUrl}/api/sites`, {
-    method: 'POST',
-    agent: false,
-    headers: {
-      authorization: 'Bearer not-a-token',
-      'content-type': 'application/json',
-      'content-length': Buffer.byteLength(body),
-      expect: '100-continue',
-    },
-  });
-  const answered = new Promise<{ status: number; code?: string }>((resolve, reject) => {
-    req.on('response', (res) => {
-      let text = '';
-      res.on('data', (chunk: Buffer) => (text += chunk.toString()));
-      res.on('end', () => {
-        const parsed = (() => {
-          try {
-            return JSON.parse(text) as { error?: { code?: string } };
-          } catch {
-            return undefined;
-          }
-        })();
-        resolve({ status: res.statusCode ?? 0, code: parsed?.error?.code });
-      });
-    });
-    req.on('error', reject);
-  });
-  // Node's server answers 100 Continue when it has taken the request in (its 'request' event)
-  await new Promise<void>((resolve, reject) => {
-    req.once('continue', resolve);
-    req.once('error', reject);
-    req.flushHeaders();
-  });
-  req.write(body.slice(0, 10));
-  return {
-    finish() {
-      req.end(body.slice(10));
-      return answered;
-    },
-  };
-}
+const holdSiteRequest = () =>
+  holdRequest(`${baseUrl}/api/sites`, { name: 'Held works', code: 'HW', address: '', timeZone: 'Europe/London' }, { authorization: 'Bearer not-a-token' });
 
 function portAccepts(port: number): Promise<boolean> {
   return new Promise((resolve) => {
@@ -156,7 +114,7 @@ describe('npm start, stopped by SIGTERM', () => {
       const postmasterPid = Number(fs.readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
       expect(processExists(serverPid) && processExists(postmasterPid)).toBe(true);
 
-      const held = await Promise.all([holdRequest(), holdRequest(), holdRequest()]);
+      const held = await Promise.all([holdSiteRequest(), holdSiteRequest(), holdSiteRequest()]);
       sendSigterm(npmPid);
 
       // readiness goes 503 while the held requests are still open
