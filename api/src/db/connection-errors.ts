@@ -59,8 +59,12 @@ export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
   return inner.some((cause) => cause !== err && isDatabaseUnavailable(cause, depth + 1));
 }
 
-/** How many seconds a client should wait before asking again while the database is away. */
-export const DATABASE_RETRY_AFTER_SECONDS = 5;
+/**
+ * How many seconds a client should wait before asking again while the database is away (or the
+ * server restarts). Short, so a page that asks again by itself is back within a few seconds of
+ * PostgreSQL; a refused request costs the server almost nothing.
+ */
+export const DATABASE_RETRY_AFTER_SECONDS = 2;
 
 /**
  * node-postgres pools emit 'error' when an idle client's connection drops (PostgreSQL stopped or
