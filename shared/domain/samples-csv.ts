@@ -255,7 +255,7 @@ function cleanReadings(
     };
     const why =
       switchOff.found === 'flat-bus'
-        ? `hold the bus flat at ${formatNumber(switchOff.levelVolts, 4)} V before the switch-off`
+        ? `hold the bus flat at ${formatNumber(switchOff.levelVolts, 4)} V before the switch-off${readings.t[0]! < 0 ? ` (the file's times start at ${formatNumber(readings.t[0]!, 4)} s, before its trigger)` : ''}`
         : `were recorded before the trigger (negative times), the bus flat at ${formatNumber(switchOff.levelVolts, 4)} V`;
     result.notes.push(
       `The first ${count} readings (rows ${readings.rows[0]} to ${readings.rows[count - 1]}) ${why}; they were left out and t = 0 is set at the switch-off (${formatNumber(switchOff.atSeconds, 4)} s in the file's time).`,
@@ -668,6 +668,7 @@ function footerFrom(
   vi: number,
   decimalComma: boolean,
 ): string | null {
+  if (readableNumber(rows[k]![vi], decimalComma)) return null;
   let last = row;
   for (let j = k; j < rows.length; j++) {
     const cells = rows[j]!;

@@ -230,3 +230,11 @@ describe('parseDecaySamplesCsv: header variants', () => {
     );
   });
 });
+
+describe('parseDecaySamplesCsv: first rows that are not readings', () => {
+  it('when the first time cell is text but its voltage is a number, then it is refused, not taken for a footer', () => {
+    expect(() => parseDecaySamplesCsv('Zeit;Spannung\nabc;560\n')).toThrow(
+      'Row 2, column "Zeit": "abc" is not a time: a number of seconds, a clock time such as 08:15:30.25 or a date and time such as 2024-06-11 08:15:30.',
+    );
+  });
+});
