@@ -7,6 +7,9 @@ import request from 'supertest';
 import { sealPendingSignIns, unsealPendingSignIns } from '../../api/src/auth/pending-sign-in';
 import { getConfig } from '../../api/src/config/env';
 
+/** The app in this process, or the base URL of one running as its own process. */
+export type AppUnderTest = Express | string;
+
 /** The browser the tests pretend to be, as the sign-in log records it. */
 export const TEST_USER_AGENT = 'Mozilla/5.0 (Ebbline API tests)';
 
@@ -62,7 +65,7 @@ export function cookieHeaderFrom(setCookie: string[] | string | undefined): stri
  * sign-ins under way, api/src/auth/pending-sign-in.ts; no session exists before sign-in).
  */
 export async function startSignIn(
-  app: Express,
+  app: AppUnderTest,
   returnTo?: string,
 ): Promise<{ authorizeUrl: URL; cookie: string }> {
   const res = await request(app)
@@ -174,7 +177,7 @@ export async function submitSignInForm(
 }
 
 /** GET /auth/callback as the browser would, with the pre-sign-in cookie. */
-export function finishSignIn(app: Express, callbackUrl: URL, cookie: string) {
+export function finishSignIn(app: AppUnderTest, callbackUrl: URL, cookie: string) {
   return request(app)
     .get(callbackUrl.pathname + callbackUrl.search)
     .set('Cookie', cookie)
@@ -194,7 +197,7 @@ export interface SignedInSession {
 
 /** The whole sign-in, then GET /api/me for the CSRF token. */
 export async function signInOverHttp(
-  app: Express,
+  app: AppUnderTest,
   login: string,
   password: string,
   returnTo?: string,

@@ -4,6 +4,7 @@ import type { CookieOptions, Request, RequestHandler, Response } from 'express';
 import session from 'express-session';
 import pg from 'pg';
 import { getConfig, type Config } from '../config/env';
+import { survivePoolErrors } from '../db/connection-errors';
 import { logger } from '../logger';
 
 /** A sign-in started at GET /auth/login and not yet completed at the callback (kept in the browser: pending-sign-in.ts). */
@@ -34,11 +35,17 @@ let store: session.Store | undefined;
 
 /** The sessions table's own small pool (connect-pg-simple speaks pg, not Sequelize). */
 function sessionPool(config: Config): pg.Pool {
-  pool ??= new pg.Pool({
-    connectionString: config.DATABASE_URL,
-    max: 4,
-    idleTimeoutMillis: 10_000,
-  });
+  if (!pool) {
+    pool = new pg.Pool({
+      connectionString: config.DATABASE_URL,
+      max: 4,
+      idleTimeoutMillis: 10_000,
+      // an unreachable database fails the request (503) instead of holding it
+      connectionTimeoutMillis: 5_000,
+      keepAlive: true,
+    });
+    survivePoolErrors(pool, 'sessions');
+  }
   return pool;
 }
 
@@ -80,7 +87,10 @@ export function sessionMiddleware(config = getConfig()): RequestHandler {
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    unset: 'destroy',
+    // not 'destroy': when the store fails to load a session (PostgreSQL away), req.session is
+    // unset, and 'destroy' would delete the row as the 503 goes out, once the database is back,
+    // signing the person out. Sessions end only through endSession and regenerateSession.
+    unset: 'keep',
     cookie: sessionCookieOptions(config),
   });
 }
