@@ -32,13 +32,22 @@ export interface ReadingColumnNames {
 /** Readings on one time may differ by this share of their mean (or 1 % of the run's peak). */
 const REPEAT_AGREEMENT = 0.02;
 
+/** Share of rows repeating a time from which the file is taken to have a coarse clock. */
+const COARSE_CLOCK_SHARE = 0.25;
+
 /**
  * Averages the readings of rows that repeat the time of the row before.
  *
+ * Readings of one time must agree within 2 % (or 1 % of the run's peak). In a file where a
+ * quarter of the rows or more (and at least 10) repeat a time, the clock is coarser than the sampling throughout,
+ * and the readings of one stamp may also spread as far as the decay falls from the reading
+ * before the stamp to the one after it (a steep control-supply start under a 1 s clock); a rare
+ * repeat is held to the 2 %, as a typed time written twice is a slip.
+ *
  * @returns the merged readings (the row of each group's first reading) and how many rows were
  *   merged into the row before them
- * @throws EngineInputError('times-not-increasing') when the readings of one time disagree by more
- *   than 2 % (a typing slip, not a coarse clock)
+ * @throws EngineInputError('times-not-increasing') when the readings of one time disagree more
+ *   than that (a typing slip, not a coarse clock)
  * @example
  * averageRepeatedTimes({ t: [0, 0.1, 0.1, 0.2], v: [10, 9.9, 9.7, 9.6], rows: [2, 3, 4, 5] }, names)
  * // { readings: { t: [0, 0.1, 0.2], v: [10, 9.8, 9.6], rows: [2, 3, 5] }, merged: 1 }
@@ -54,6 +63,9 @@ export function averageRepeatedTimes(
   if (!repeats) return { readings, merged: 0 };
   let peak = 0;
   for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(v[i]!));
+  let repeated = 0;
+  for (let i = 1; i < n; i++) if (t[i] === t[i - 1]) repeated++;
+  const coarseClock = repeated >= 10 && repeated >= COARSE_CLOCK_SHARE * n;
   const out: ReadingArrays = { t: [], v: [], rows: [] };
   let merged = 0;
   for (let i = 0; i < n;) {
@@ -68,13 +80,18 @@ export function averageRepeatedTimes(
       j++;
     }
     const mean = sum / (j - i);
-    if (high - low > Math.max(REPEAT_AGREEMENT * Math.abs(mean), 0.01 * peak)) {
+    const around = coarseClock ? Math.abs(v[Math.max(i - 1, 0)]! - v[Math.min(j, n - 1)]!) : 0;
+    if (high - low > Math.max(REPEAT_AGREEMENT * Math.abs(mean), 0.01 * peak, around)) {
+      // Name the reading furthest from the others (the later one of a pair).
+      let far = i;
+      for (let k = i; k < j; k++) if (Math.abs(v[k]! - mean) >= Math.abs(v[far]! - mean)) far = k;
+      const other = far === i ? i + 1 : i;
       throw new EngineInputError(
         'times-not-increasing',
-        `Row ${rows[i + 1]}: the time ${formatNumber(t[i]!, 6)} s does not come after row ${rows[i]}'s ${formatNumber(t[i]!, 6)} s (column "${names.time}"), and the rows of this time read ${formatNumber(low, 4)} V to ${formatNumber(high, 4)} V (column "${names.voltage}"): a repeated time is averaged only when its readings agree within 2 %. Check for a typing slip.`,
+        `Row ${rows[far]}: the time ${formatNumber(t[i]!, 6)} s does not come after row ${rows[other]}'s ${formatNumber(t[i]!, 6)} s (column "${names.time}"), and the rows of this time read ${formatNumber(low, 4)} V to ${formatNumber(high, 4)} V (column "${names.voltage}"): a repeated time is averaged only when its readings agree${coarseClock ? ' as closely as the decay around them allows' : ' within 2 %'}. Check for a typing slip.`,
         [
           {
-            path: `row ${rows[i + 1]}, column ${names.time}`,
+            path: `row ${rows[far]}, column ${names.time}`,
             message: 'repeated time, readings disagree',
           },
         ],

@@ -63,6 +63,30 @@ describe('averageRepeatedTimes', () => {
   });
 });
 
+describe('averageRepeatedTimes under a 1 s clock at 10 Hz', () => {
+  // The control-supply start: about 40 V/s at first (C·dV/dt = −V/R − P/V, 565 V, 40 W, 330 µF).
+  const t: number[] = [];
+  const v: number[] = [];
+  for (let i = 0; i < 300; i++) {
+    t.push(Math.floor(i / 10));
+    v.push(565 * Math.exp(-(i / 10) / 12));
+  }
+
+  it('when a whole second of a steep fall shares one stamp, then its readings are averaged', () => {
+    const { readings: merged, merged: count } = averageRepeatedTimes(readings(t, v), names);
+    expect(count).toBe(270);
+    expect(merged.t).toEqual(Array.from({ length: 30 }, (_, i) => i));
+  });
+
+  it('when one reading of a stamp is a slip far off its neighbours, then it is still refused', () => {
+    const slipped = v.slice();
+    slipped[55] = v[55]! / 10; // a dropped digit inside the stamp of t = 5 s
+    expect(() => averageRepeatedTimes(readings(t, slipped), names)).toThrow(
+      /^Row 57: the time 5 s does not come after row 52's 5 s .* read 35.73 V to 372.5 V .* as closely as the decay around them allows/,
+    );
+  });
+});
+
 describe('requireIncreasingTimes', () => {
   it('when a time goes back, then its row and column are named', () => {
     expect(() => requireIncreasingTimes(readings([0, 30, 20], [5, 4, 3]), names)).toThrow(
