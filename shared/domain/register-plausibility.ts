@@ -60,7 +60,11 @@ export function dcBusQuestion(supplyVolts: number, dcBusVolts: number | null): s
  * @example bankRatingProblem(900, 540, 'This bank') // null
  * @example bankRatingProblem(450, 930, 'This bank') // 'This bank is rated 450 V, below the cabinet's 930 V DC bus: …'
  */
-export function bankRatingProblem(bankRatedVolts: number, dcBusVolts: number | null, bankName = 'This bank'): string | null {
+export function bankRatingProblem(
+  bankRatedVolts: number,
+  dcBusVolts: number | null,
+  bankName = 'This bank',
+): string | null {
   if (dcBusVolts === null || bankRatedVolts >= dcBusVolts) return null;
   return (
     `${bankName} is rated ${volts(bankRatedVolts)}, below the cabinet's ${volts(dcBusVolts)} DC bus: ` +
@@ -77,9 +81,14 @@ export function bankRatingProblem(bankRatedVolts: number, dcBusVolts: number | n
  * @example baselineTauQuestion(4.4, 94, 47_000) // null (R × C = 4.42 s)
  * @example baselineTauQuestion(218, 1, 47_000) // 'A τ of 218 s does not fit 1 µF with a 47000 Ω bleeder: R × C is 0.047 s. …'
  */
-export function baselineTauQuestion(tauSeconds: number, capacitanceMicrofarads: number, bleederOhms: number): string | null {
+export function baselineTauQuestion(
+  tauSeconds: number,
+  capacitanceMicrofarads: number,
+  bleederOhms: number,
+): string | null {
   const expected = bleederOhms * capacitanceMicrofarads * 1e-6;
-  if (!(expected > 0) || Math.abs(tauSeconds - expected) <= BASELINE_TAU_TOLERANCE * expected) return null;
+  if (!(expected > 0) || Math.abs(tauSeconds - expected) <= BASELINE_TAU_TOLERANCE * expected)
+    return null;
   return (
     `A τ of ${formatNumber(tauSeconds)} s does not fit ${formatNumber(capacitanceMicrofarads)} µF with a ` +
     `${formatNumber(bleederOhms)} Ω bleeder: R × C is ${formatNumber(expected)} s. Check the τ, the capacitance and the bleeder value.`
@@ -106,12 +115,18 @@ export function oneYearAfter(asOfOn: string): string {
  * @example futureDateQuestion('2099-01-01', '2026-12-02', 'install date') // 'The install date 2099-01-01 is more than a year ahead: …'
  * @example futureDateQuestion('2027-06-01', '2026-12-02', 'install date') // null
  */
-export function futureDateQuestion(date: string | null, asOfOn: string, what: string): string | null {
+export function futureDateQuestion(
+  date: string | null,
+  asOfOn: string,
+  what: string,
+): string | null {
   if (date === null || date <= oneYearAfter(asOfOn)) return null;
   return `The ${what} ${date} is more than a year ahead: is the year right?`;
 }
 
 /** The issues of the checks that found something, each under its field. */
-export function collectIssues(checks: Array<[path: string, message: string | null]>): PlausibilityIssue[] {
+export function collectIssues(
+  checks: Array<[path: string, message: string | null]>,
+): PlausibilityIssue[] {
   return checks.flatMap(([path, message]) => (message === null ? [] : [{ path, message }]));
 }

@@ -20,6 +20,7 @@ import { User } from '../models/user';
 import { recordCreation, saveChange, type AuditedKind } from './audited-change';
 import { BANK_DESIGN_AUDITED } from './audited-fields';
 import { containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs, snapshotOf } from './register-records';
+import { refuseDesignBelowBuses } from './register-checks';
 import type { UnitOfWork } from './unit-of-work';
 
 const BANK_COUNT = [
@@ -164,6 +165,9 @@ export async function updateBankDesign(uow: UnitOfWork, id: string, input: BankD
   if (notes !== undefined && notes !== design.notes) identity.notes = notes;
   if (!technicalChange && Object.keys(identity).length === 0) return getBankDesign(id, transaction);
   if (identity.code) await assertCodeFree(identity.code, id, transaction);
+  if (merged.unitRatedVolts !== current.unitRatedVolts || merged.seriesCount !== current.seriesCount) {
+    await refuseDesignBelowBuses(id, merged, transaction);
+  }
 
   let revision = current;
   if (technicalChange) {

@@ -18,6 +18,7 @@ import { User } from '../models/user';
 import { recordAudit } from './audit';
 import { recordCreation, saveChange } from './audited-change';
 import { BANK_TRAIL } from './audited-fields';
+import { checkBankOnBus, checkManualBaseline } from './register-checks';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 import type { UnitOfWork } from './unit-of-work';
 
@@ -183,6 +184,7 @@ export async function createBank(uow: UnitOfWork, input: BankData): Promise<Bank
   if (!cabinet || cabinet.retiredAt) throw fieldProblem('cabinetId', 'This cabinet does not exist or is retired.');
   const { current } = await designInUse(input.bankDesignId, transaction);
   await assertPositionFree(input.cabinetId, input.position, null, transaction);
+  checkBankOnBus(uow, { revision: current, dcBusVolts: cabinet.dcBusVolts, installedOn: input.installedOn, confirmed: input.confirmed });
   const bank = await Bank.create(
     {
       ...input,
@@ -203,7 +205,7 @@ export async function createBank(uow: UnitOfWork, input: BankData): Promise<Bank
  */
 export async function updateBank(uow: UnitOfWork, id: string, input: BankUpdate): Promise<Bank> {
   const { transaction } = uow;
-  const { version, ...fields } = input;
+  const { version, confirmed, ...fields } = input;
   const bank = await lockBankInService(id, version, transaction);
   const changes: Record<string, unknown> = changedFields(bank, fields);
   if (Object.keys(changes).length > 0) {
@@ -212,10 +214,14 @@ export async function updateBank(uow: UnitOfWork, id: string, input: BankUpdate)
     }
     if (fields.bankDesignId !== undefined && changes.bankDesignId !== undefined) {
       const { current } = await designInUse(fields.bankDesignId, transaction);
+      // FOR SHARE: a change of the cabinet's bus waits for this one, and the other way round
+      const cabinet = await Cabinet.findByPk(bank.cabinetId, { transaction, lock: transaction.LOCK.SHARE });
+      checkBankOnBus(uow, { revision: current, dcBusVolts: cabinet?.dcBusVolts ?? null });
       if (bank.baselineSource === 'nameplate') {
         Object.assign(changes, nameplateBaselineFields(uow, current, 'Design corrected'));
       }
     }
+    checkBankOnBus(uow, { dcBusVolts: null, installedOn: changes.installedOn as string | null | undefined, confirmed });
     await saveChange(uow, BANK_TRAIL, bank, changes, { action: 'update', summary: (b) => `Changed bank ${b.position}` });
   }
   return getBank(id, transaction);
@@ -241,6 +247,8 @@ export interface BaselineChange {
   /** The trusted decay run, for source `decay-run`. */
   decayRunId?: string | null;
   note: string;
+  /** True to keep a hand-entered τ far from R × C (see register-checks). */
+  confirmed?: boolean;
 }
 
 /**
@@ -259,6 +267,15 @@ export async function setBankBaseline(uow: UnitOfWork, id: string, change: Basel
     if (!change.tauSeconds) throw fieldProblem('tauSeconds', 'Enter the baseline τ in seconds.');
     if (!change.capacitanceMicrofarads) throw fieldProblem('capacitanceMicrofarads', 'Enter the baseline capacitance in µF.');
     if (change.source === 'decay-run' && !change.decayRunId) throw fieldProblem('decayRunId', 'Name the trusted decay run.');
+    if (change.source === 'manual') {
+      const { current } = await designInUse(bank.bankDesignId, transaction);
+      checkManualBaseline({
+        tauSeconds: change.tauSeconds,
+        capacitanceMicrofarads: change.capacitanceMicrofarads,
+        bleederOhms: current.bleederOhms,
+        confirmed: change.confirmed,
+      });
+    }
     baseline = {
       baselineTauSeconds: change.tauSeconds,
       baselineCapacitanceMicrofarads: change.capacitanceMicrofarads,
@@ -291,6 +308,8 @@ export async function replaceBank(uow: UnitOfWork, id: string, input: BankReplac
     throw fieldProblem('installedOn', `The new bank cannot go in before the old one did (${old.installedOn}).`);
   }
   const { current } = await designInUse(input.bankDesignId ?? old.bankDesignId, transaction);
+  const cabinet = await Cabinet.findByPk(old.cabinetId, { transaction, lock: transaction.LOCK.SHARE });
+  checkBankOnBus(uow, { revision: current, dcBusVolts: cabinet?.dcBusVolts ?? null, installedOn: input.installedOn, confirmed: input.confirmed });
   const before = BANK_TRAIL.snapshot(old);
   old.set({ status: 'replaced', replacedOn: input.installedOn, version: old.version + 1 });
   await old.save({ transaction });

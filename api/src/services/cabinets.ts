@@ -11,6 +11,7 @@ import { Site } from '../models/site';
 import { recordAuditBatch, type AuditRecordInput } from './audit';
 import { applyChange, recordCreation, saveChange } from './audited-change';
 import { BANK_TRAIL, CABINET_TRAIL } from './audited-fields';
+import { checkCabinetChange, checkNewCabinet } from './register-checks';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
 import type { UnitOfWork } from './unit-of-work';
 
@@ -132,6 +133,7 @@ export async function createCabinet(uow: UnitOfWork, input: CabinetData): Promis
   if (await tagInUse(input.tag, null, transaction)) {
     throw duplicateValue('tag', `${input.tag} is already in the register.`);
   }
+  checkNewCabinet(uow, input);
   const cabinet = await Cabinet.create(input, { transaction });
   await recordCreation(uow, CABINET_TRAIL, cabinet, `Added cabinet ${cabinet.tag} to ${area.name}`);
   return getCabinet(cabinet.id, transaction);
@@ -143,7 +145,7 @@ export async function createCabinet(uow: UnitOfWork, input: CabinetData): Promis
  */
 export async function updateCabinet(uow: UnitOfWork, id: string, input: CabinetUpdate): Promise<Cabinet> {
   const { transaction } = uow;
-  const { version, ...fields } = input;
+  const { version, confirmed, ...fields } = input;
   const cabinet = await lockForChange(Cabinet, id, version, 'cabinet', transaction);
   const changes = changedFields(cabinet, fields);
   if (Object.keys(changes).length > 0) {
@@ -151,6 +153,7 @@ export async function updateCabinet(uow: UnitOfWork, id: string, input: CabinetU
     if (changes.tag !== undefined && (await tagInUse(changes.tag, id, transaction))) {
       throw duplicateValue('tag', `${changes.tag} is already in the register.`);
     }
+    await checkCabinetChange(uow, id, cabinet, changes, confirmed);
     await saveChange(uow, CABINET_TRAIL, cabinet, changes, { action: 'update', summary: (c) => `Changed cabinet ${c.tag}` });
   }
   return getCabinet(id, transaction);

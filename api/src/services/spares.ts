@@ -8,6 +8,7 @@ import { Spare } from '../models/spare';
 import { recordCreation, saveChange } from './audited-change';
 import { SPARE_TRAIL } from './audited-fields';
 import { changedFields, containsPattern, duplicateValue, fieldProblem, lockForChange, pageWindow, sameTextAs } from './register-records';
+import { checkSpareDates } from './register-checks';
 import type { UnitOfWork } from './unit-of-work';
 
 const spareIncludes: Includeable[] = [
@@ -81,6 +82,7 @@ export async function createSpare(uow: UnitOfWork, input: SpareData): Promise<Sp
   const { transaction } = uow;
   await assertReferences(input, transaction);
   await assertCodeFree(input.code, null, transaction);
+  checkSpareDates(uow, input);
   const spare = await Spare.create(
     { ...input, reformingDueOn: reformingDueOn(input.storageStartedOn, input.lastReformedOn, input.reformingIntervalDays) },
     { transaction },
@@ -95,7 +97,7 @@ export async function createSpare(uow: UnitOfWork, input: SpareData): Promise<Sp
  */
 export async function updateSpare(uow: UnitOfWork, id: string, input: SpareUpdate): Promise<Spare> {
   const { transaction } = uow;
-  const { version, ...fields } = input;
+  const { version, confirmed, ...fields } = input;
   const spare = await lockForChange(Spare, id, version, 'spare', transaction);
   const changes = changedFields(spare, fields);
   if (Object.keys(changes).length === 0) return getSpare(id, transaction);
@@ -106,6 +108,7 @@ export async function updateSpare(uow: UnitOfWork, id: string, input: SpareUpdat
   if (lastReformedOn && lastReformedOn < storageStartedOn) {
     throw fieldProblem('lastReformedOn', 'The last reforming cannot be before the spare went into store.');
   }
+  checkSpareDates(uow, { storageStartedOn: changes.storageStartedOn, lastReformedOn: changes.lastReformedOn, confirmed });
   await saveChange(
     uow,
     SPARE_TRAIL,
