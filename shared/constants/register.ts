@@ -82,3 +82,9 @@ export const IMPORT_MAX_BYTES = 2 * 1024 * 1024;
 
 /** Most data rows one import may hold. */
 export const IMPORT_MAX_ROWS = 5000;
+
+/** Problems an import answer lists one by one; the rest are counted (`problemsNotListed`). */
+export const IMPORT_PROBLEMS_LISTED = 200;
+
+/** Rows an import preview carries one by one (the first ones); `rowCount` counts them all. */
+export const IMPORT_ROWS_LISTED = 200;

@@ -4,7 +4,7 @@
  */
 import Papa from 'papaparse';
 import { Op, type Transaction } from 'sequelize';
-import { IMPORT_MAX_ROWS } from '../../../shared/constants/register';
+import { IMPORT_MAX_ROWS, IMPORT_PROBLEMS_LISTED, IMPORT_ROWS_LISTED } from '../../../shared/constants/register';
 import {
   CABINET_IMPORT_COLUMNS,
   cabinetImportRowSchema,
@@ -19,6 +19,7 @@ import { Area } from '../models/area';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
 import { recordAuditBatch, type AuditRecordInput } from './audit';
+import { readCsvInChunks, yieldToEventLoop } from './csv-in-chunks';
 import { AREA_AUDITED, CABINET_AUDITED } from './audited-fields';
 import { snapshotOf } from './register-records';
 import type { UnitOfWork } from './unit-of-work';
@@ -76,38 +77,50 @@ interface ReadFile {
   newAreas: Map<string, { siteId: string; name: string }>;
 }
 
-/** Parses and checks every row against the schema, the file itself and the register. */
-async function readImport(file: ImportFile, transaction?: Transaction): Promise<ReadFile> {
-  const parsed = Papa.parse<Record<string, string>>(decode(file.bytes), {
-    header: true,
-    skipEmptyLines: 'greedy',
-    transformHeader: columnName,
-  });
-  const fields = parsed.meta.fields ?? [];
+/** Rows checked between two turns of the event loop (a few milliseconds of schema checks). */
+const ROWS_PER_TURN = 250;
+
+/** The row limit, as the answer names it. */
+function tooManyRows(): AppError {
+  const limit = IMPORT_MAX_ROWS.toLocaleString('en-GB');
+  const message = `The file has more than ${limit} rows; import at most ${limit} at a time. Split it and import the parts.`;
+  return new AppError('file-too-large', message, [{ path: 'file', message }]);
+}
+
+/**
+ * Reads the file and checks every row against the schema and the file itself (no database).
+ * Parsing and checking go in slices that let other requests run between them.
+ * @throws AppError `file-too-large` as soon as the file passes IMPORT_MAX_ROWS data rows
+ */
+async function readRows(file: ImportFile): Promise<ReadFile> {
+  const csv = await readCsvInChunks(decode(file.bytes), { maxRows: IMPORT_MAX_ROWS, transformHeader: columnName });
+  if (csv.overRowLimit) throw tooManyRows();
+  const fields = csv.fields;
   const fileProblems: ImportProblem[] = [];
   for (const column of REQUIRED_COLUMNS) {
     if (!fields.includes(column)) fileProblems.push({ row: 1, column, reason: 'this column is missing from the header' });
   }
-  if (parsed.data.length === 0) fileProblems.push({ row: 1, column: '', reason: 'the file has no data rows under the header' });
-  if (parsed.data.length > IMPORT_MAX_ROWS) {
-    fileProblems.push({ row: 1, column: '', reason: `the file has ${parsed.data.length} rows; import at most ${IMPORT_MAX_ROWS} at a time` });
-  }
+  if (csv.rows.length === 0) fileProblems.push({ row: 1, column: '', reason: 'the file has no data rows under the header' });
   const ignoredColumns = fields.filter((f) => f && !KNOWN_COLUMNS.has(f));
 
-  const rows: ReadRow[] = parsed.data.slice(0, IMPORT_MAX_ROWS).map((raw, index) => {
-    const row = index + FIRST_DATA_ROW;
-    const values: Record<string, string> = {};
-    for (const column of KNOWN_COLUMNS) values[column] = (raw[column] ?? '').toString();
-    const result = cabinetImportRowSchema.safeParse(values);
-    const problems: ImportProblem[] = result.success
-      ? []
-      : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
-    return { row, values, data: result.success ? result.data : null, problems, areaId: null, siteId: null, newArea: false };
-  });
-  for (const error of parsed.errors) {
-    const target = error.row !== undefined ? rows[error.row] : undefined;
+  const rows: ReadRow[] = [];
+  for (let start = 0; start < csv.rows.length; start += ROWS_PER_TURN) {
+    if (start > 0) await yieldToEventLoop();
+    for (const [offset, raw] of csv.rows.slice(start, start + ROWS_PER_TURN).entries()) {
+      const row = start + offset + FIRST_DATA_ROW;
+      const values: Record<string, string> = {};
+      for (const column of KNOWN_COLUMNS) values[column] = (raw[column] ?? '').toString();
+      const result = cabinetImportRowSchema.safeParse(values);
+      const problems: ImportProblem[] = result.success
+        ? []
+        : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
+      rows.push({ row, values, data: result.success ? result.data : null, problems, areaId: null, siteId: null, newArea: false });
+    }
+  }
+  for (const error of csv.errors) {
+    const target = error.dataIndex !== undefined ? rows[error.dataIndex] : undefined;
     const problem = {
-      row: (error.row ?? 0) + FIRST_DATA_ROW,
+      row: (error.dataIndex ?? 0) + FIRST_DATA_ROW,
       column: '',
       reason: error.code === 'TooFewFields' ? 'the row has fewer cells than the header' : error.code === 'TooManyFields' ? 'the row has more cells than the header' : error.message,
     };
@@ -124,8 +137,12 @@ async function readImport(file: ImportFile, transaction?: Transaction): Promise<
     if (first !== undefined) r.problems.push({ row: r.row, column: 'tag', reason: `${r.data.tag} is also on row ${first}` });
     else firstRowOfTag.set(key, r.row);
   }
+  return { fileName: file.name, rows, fileProblems, ignoredColumns, newAreas: new Map() };
+}
 
-  // against the register: sites by code, areas by name, tags in use
+/** Checks the rows read against the register: sites by code, areas by name, tags in use. */
+async function checkAgainstRegister(read: ReadFile, transaction?: Transaction): Promise<ReadFile> {
+  const { rows } = read;
   const valid = rows.filter((r) => r.data);
   const codes = [...new Set(valid.map((r) => r.data!.site_code.toLowerCase()))];
   const sites = codes.length
@@ -134,7 +151,7 @@ async function readImport(file: ImportFile, transaction?: Transaction): Promise<
   const siteByCode = new Map(sites.map((s) => [s.code.toLowerCase(), s]));
   const areas = sites.length ? await Area.findAll({ where: { retiredAt: null, siteId: sites.map((s) => s.id) }, transaction }) : [];
   const areaByKey = new Map(areas.map((a) => [`${a.siteId}|${a.name.toLowerCase()}`, a]));
-  const tags = [...firstRowOfTag.keys()];
+  const tags = [...new Set(valid.map((r) => r.data!.tag.toLowerCase()))];
   const taken = new Set<string>();
   for (let i = 0; i < tags.length; i += 1000) {
     const chunk = tags.slice(i, i + 1000);
@@ -165,7 +182,19 @@ async function readImport(file: ImportFile, transaction?: Transaction): Promise<
     }
   }
   for (const r of rows) r.problems.sort((a, b) => order(a.column) - order(b.column));
-  return { fileName: file.name, rows, fileProblems, ignoredColumns, newAreas };
+  return { ...read, newAreas };
+}
+
+/** The refusal of a commit: how many problems on how many rows, the first ones listed. */
+function importRejected(problems: ImportProblem[]): AppError {
+  const rowsWithProblems = new Set(problems.map((p) => p.row)).size;
+  const listed = problems.slice(0, IMPORT_PROBLEMS_LISTED);
+  const more = problems.length > listed.length ? ` The first ${listed.length} are listed; ${problems.length - listed.length} more are not.` : '';
+  return new AppError(
+    'import-rejected',
+    `${problems.length} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.${more}`,
+    listed.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
+  );
 }
 
 function order(column: string): number {
@@ -173,10 +202,16 @@ function order(column: string): number {
   return i < 0 ? -1 : i;
 }
 
+/** Every problem of the file, in row order. */
+function allProblems(read: ReadFile): ImportProblem[] {
+  return [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
+}
+
+/** The preview: counts of everything, the first problems and rows one by one (the answer stays small). */
 function toPreview(read: ReadFile, committed: boolean, createdCount: number): ImportPreview {
-  const problems = [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
+  const problems = allProblems(read);
   const siteCodeOf = new Map(read.rows.filter((r) => r.siteId).map((r) => [r.siteId!, r.data!.site_code]));
-  const rows: ImportPreviewRow[] = read.rows.map((r) => ({
+  const rows: ImportPreviewRow[] = read.rows.slice(0, IMPORT_ROWS_LISTED).map((r) => ({
     row: r.row,
     tag: r.data?.tag ?? r.values.tag ?? '',
     siteCode: r.data?.site_code ?? r.values.site_code ?? '',
@@ -190,7 +225,8 @@ function toPreview(read: ReadFile, committed: boolean, createdCount: number): Im
     rowCount: read.rows.length,
     validCount: read.rows.filter((r) => r.problems.length === 0 && r.data).length,
     problemCount: problems.length,
-    problems,
+    problems: problems.slice(0, IMPORT_PROBLEMS_LISTED),
+    problemsNotListed: Math.max(0, problems.length - IMPORT_PROBLEMS_LISTED),
     rows,
     newAreas: [...read.newAreas.values()].map((a) => `${siteCodeOf.get(a.siteId) ?? ''} / ${a.name}`),
     ignoredColumns: read.ignoredColumns,
@@ -201,29 +237,24 @@ function toPreview(read: ReadFile, committed: boolean, createdCount: number): Im
 
 /** Reads a file and says what importing it would do, storing nothing. */
 export async function previewCabinetImport(file: ImportFile): Promise<ImportPreview> {
-  return toPreview(await readImport(file), false, 0);
+  return toPreview(await checkAgainstRegister(await readRows(file)), false, 0);
 }
 
 /**
  * Imports every row of the file in the unit of work: new areas first, then the cabinets, each
  * with its audit entry. When any row has a problem nothing is stored.
- * @throws AppError 400 `import-rejected` listing every problem (path "row N, column C")
+ * @throws AppError `import-rejected` listing the first IMPORT_PROBLEMS_LISTED problems (path "row N, column C")
+ * @throws AppError `file-too-large` when the file has more than IMPORT_MAX_ROWS rows
  */
 export async function importCabinets(uow: UnitOfWork, file: ImportFile): Promise<ImportPreview> {
   const { transaction } = uow;
+  // the file is read before the table lock, so the lock is held only for the register checks and the writes
+  const rowsRead = await readRows(file);
   // a table lock keeps two imports (or an import and a form) from taking the same tag at once
   await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
-  const read = await readImport(file, transaction);
-  const preview = toPreview(read, false, 0);
-  if (preview.problemCount > 0) {
-    const rowsWithProblems = new Set(preview.problems.map((p) => p.row)).size;
-    throw new AppError(
-      'import-rejected',
-      400,
-      `${preview.problemCount} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.`,
-      preview.problems.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
-    );
-  }
+  const read = await checkAgainstRegister(rowsRead, transaction);
+  const problems = allProblems(read);
+  if (problems.length > 0) throw importRejected(problems);
   const audit: AuditRecordInput[] = [];
   const areaIdByKey = new Map<string, string>();
   for (const [key, area] of read.newAreas) {

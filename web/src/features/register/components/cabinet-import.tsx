@@ -27,7 +27,9 @@ function ProblemsTable({ preview }: { preview: ImportPreview }) {
     <div className="overflow-x-auto rounded-xl border border-eol-600/30 bg-white">
       <table className="w-full text-left text-sm" data-testid="import-problems">
         <caption className="bg-eol-600/5 px-4 py-2 text-left font-bold text-eol-600">
-          {preview.problemCount} problem{preview.problemCount === 1 ? '' : 's'} to fix: nothing is imported until every row is right
+          {preview.problemCount.toLocaleString('en-GB')} problem{preview.problemCount === 1 ? '' : 's'} to fix
+          {preview.problemsNotListed > 0 ? ` (the first ${preview.problems.length} listed)` : ''}: nothing is imported until every row is
+          right
         </caption>
         <thead className="bg-tide-50 text-xs uppercase tracking-wide text-tide-600">
           <tr>
@@ -46,12 +48,19 @@ function ProblemsTable({ preview }: { preview: ImportPreview }) {
           ))}
         </tbody>
       </table>
+      {preview.problemsNotListed > 0 ? (
+        <p className="px-3 py-2 text-sm font-medium text-eol-600 sm:px-4" data-testid="import-problems-not-listed">
+          …and {preview.problemsNotListed.toLocaleString('en-GB')} more problem{preview.problemsNotListed === 1 ? '' : 's'} not listed here
+          (the first {preview.problems.length} are shown). Fix these, then upload the file again to see the rest.
+        </p>
+      ) : null}
     </div>
   );
 }
 
 function RowsTable({ preview }: { preview: ImportPreview }) {
-  const shown = preview.rows.slice(0, 200);
+  // the server sends the first rows only; rowCount counts them all
+  const shown = preview.rows;
   return (
     <div className="overflow-x-auto rounded-xl border border-tide-100 bg-white shadow-sm">
       <table className="w-full text-left text-sm" data-testid="import-rows">
@@ -89,8 +98,11 @@ function RowsTable({ preview }: { preview: ImportPreview }) {
           ))}
         </tbody>
       </table>
-      {preview.rows.length > shown.length ? (
-        <p className="px-3 py-2 text-sm text-tide-600">…and {preview.rows.length - shown.length} more rows (every problem is listed above).</p>
+      {preview.rowCount > shown.length ? (
+        <p className="px-3 py-2 text-sm text-tide-600">
+          …and {(preview.rowCount - shown.length).toLocaleString('en-GB')} more rows
+          {preview.problemsNotListed > 0 ? ' (the problems above are the first ones found).' : ' (every problem is listed above).'}
+        </p>
       ) : null}
     </div>
   );
