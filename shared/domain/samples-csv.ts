@@ -29,6 +29,7 @@ import {
   normaliseLineEnds,
   parseNumberCell,
   separatorName,
+  forEachCsvRow,
   tokenizeCsv,
   type CsvSeparator,
   type LineEnds,
@@ -542,7 +543,6 @@ function readRows(
     start = text.indexOf('\n', start);
     if (start >= 0) start++;
   }
-  const rows = start < 0 ? [] : tokenizeCsv(text.slice(start), separator);
   const firstRow = header.lastLine + 2;
   const ti = columns.time.index;
   const vi = columns.voltage.index;
@@ -554,32 +554,38 @@ function readRows(
   let firstTimeCell = '';
   let dayOffset = 0;
   let previous = -Infinity;
-  let footer: string | null = null;
+  // A row with neither a time nor a voltage may start a footer; it is refused only if a time
+  // follows it (then it stood among the readings).
+  let footerFirst = -1;
+  let footerLast = -1;
+  let refuseFooterStart: (() => never) | null = null;
   const where = (row: number, column: string): string => `Row ${row}, column "${column}"`;
+  const anyTime =
+    'a time: a number of seconds, a clock time such as 08:15:30.25 or a date and time such as 2024-06-11 08:15:30';
 
-  for (let k = 0; k < rows.length; k++) {
-    const cells = rows[k]!;
-    const row = firstRow + k;
+  const visit = (cells: string[], row: number): void => {
+    if (refuseFooterStart !== null) {
+      if (isBlankRow(cells)) return;
+      if (readableTime(cells[ti], decimalComma)) refuseFooterStart();
+      footerLast = row;
+      return;
+    }
     const timeCell = cells[ti];
     const voltCell = cells[vi];
     if (cells.length > columns.headerCells)
       checkRowWidth(trimAll(cells), columns.headerCells, row, separator);
 
     if (readTime === null) {
-      if (isBlankRow(cells)) continue;
+      if (isBlankRow(cells)) return;
       const reader =
         timeCell === undefined ? null : timeReaderFor(timeCell, decimalComma, timeScale);
       if (reader === null) {
-        footer = footerFrom(rows, k, row, ti, vi, decimalComma);
-        if (footer !== null) break;
-        refuseCell(
-          row,
-          names.time,
-          timeCell,
-          'a time: a number of seconds, a clock time such as 08:15:30.25 or a date and time such as 2024-06-11 08:15:30',
-          separator,
-          decimalComma,
-        );
+        const refuse = (): never =>
+          refuseCell(row, names.time, timeCell, anyTime, separator, decimalComma);
+        if (readableNumber(voltCell, decimalComma)) refuse();
+        refuseFooterStart = refuse;
+        footerFirst = footerLast = row;
+        return;
       }
       readTime = reader.read;
       timeFormat = reader.format;
@@ -605,21 +611,16 @@ function readRows(
     const volts = voltCell === undefined ? null : parseNumberCell(voltCell, decimalComma);
     if (time === null || volts === null) {
       // Blank rows are looked for only here, where a reading failed: most rows are readings.
-      if (isBlankRow(cells)) continue;
+      if (isBlankRow(cells)) return;
+      const expected =
+        timeFormat === 'seconds' ? 'a number' : `a time like the first row's ${firstTimeCell}`;
       if (time === null && volts === null) {
-        footer = footerFrom(rows, k, row, ti, vi, decimalComma);
-        if (footer !== null) break;
+        refuseFooterStart = (): never =>
+          refuseCell(row, names.time, timeCell, expected, separator, decimalComma);
+        footerFirst = footerLast = row;
+        return;
       }
-      if (time === null) {
-        refuseCell(
-          row,
-          names.time,
-          timeCell,
-          timeFormat === 'seconds' ? 'a number' : `a time like the first row's ${firstTimeCell}`,
-          separator,
-          decimalComma,
-        );
-      }
+      if (time === null) refuseCell(row, names.time, timeCell, expected, separator, decimalComma);
       refuseCell(row, names.voltage, voltCell, 'a number', separator, decimalComma);
     }
     let seconds = time;
@@ -632,7 +633,10 @@ function readRows(
     t.push(seconds);
     v.push(volts * voltageScale);
     rowNumbers.push(row);
-  }
+  };
+  if (start >= 0)
+    forEachCsvRow(text.slice(start), separator, (cells, k) => visit(cells, firstRow + k));
+
   if (t.length === 0) {
     throw new EngineInputError(
       'invalid-csv',
@@ -644,6 +648,10 @@ function readRows(
     const origin = t[0]!;
     for (let i = 0; i < t.length; i++) t[i]! -= origin;
   }
+  const footer =
+    footerFirst < 0
+      ? null
+      : `Rows ${footerFirst} to ${footerLast} after the readings hold no times (a footer) and were not read.`;
   return { readings: { t, v, rows: rowNumbers }, timeFormat, firstTimeCell, footer };
 }
 
@@ -653,30 +661,6 @@ function isBlankRow(cells: readonly string[]): boolean {
 
 function trimAll(cells: readonly string[]): string[] {
   return cells.map((cell) => cell.trim());
-}
-
-/**
- * A footer: row `k` holds neither a time nor a voltage, and no row after it holds a time (an
- * "End of data" line, a summary such as "Samples,3"). Returns its note, or null when readings
- * follow (then row `k` is a bad row, refused by the caller).
- */
-function footerFrom(
-  rows: readonly string[][],
-  k: number,
-  row: number,
-  ti: number,
-  vi: number,
-  decimalComma: boolean,
-): string | null {
-  if (readableNumber(rows[k]![vi], decimalComma)) return null;
-  let last = row;
-  for (let j = k; j < rows.length; j++) {
-    const cells = rows[j]!;
-    if (isBlankRow(cells)) continue;
-    if (readableTime(cells[ti], decimalComma)) return null;
-    last = row + (j - k);
-  }
-  return `Rows ${row} to ${last} after the readings hold no times (a footer) and were not read.`;
 }
 
 function refuseCell(
