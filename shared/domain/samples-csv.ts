@@ -8,6 +8,7 @@
  *   settings, a title); it is the first row that names a time and a voltage column (./logger-columns:
  *   `t_s,v`, `Time (s)`, `Zeit (s);Spannung (V)`, `CH1 (V)`, `u_V` …) and is followed by readings.
  *   `timeColumn` / `voltsColumn` choose columns by header text or number when the names do not tell.
+ *   A units row under the names (`s;V`, `[ms];[mV]`) gives the units.
  * - **Separators**: comma, semicolon or tab; decimal commas with semicolons or tabs.
  * - **Times** in seconds (or the header's unit: ms, min, h), clock times (hh:mm:ss.fff) or dates
  *   with times (ISO 8601 and the common local forms), the latter made relative to the run.
@@ -19,7 +20,8 @@
  *   is skipped with a note.
  *
  * Every refusal is an EngineInputError whose message names the row (the file's line number, so
- * an editor finds it) and the column.
+ * an editor finds it; a line break inside a quoted cell, which loggers do not write, would shift
+ * the numbers after it) and the column.
  */
 
 import { EngineInputError } from './errors';
