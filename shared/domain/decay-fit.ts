@@ -23,7 +23,16 @@ import {
   type ExponentialFit,
   type ExponentialParameters,
 } from './exponential-least-squares';
-import { countSteepStart, estimateControlSupplyWatts } from './control-supply';
+import { findControlSupplyKnee, fitControlSupplyPhase } from './control-supply';
+import {
+  estimateNoiseModel,
+  MIN_READINGS_FOR_TWO_PARTS,
+  noiseFloor,
+  noiseVariances,
+  readingResolutionVolts,
+  type NoiseModel,
+  type ReadingNoiseInput,
+} from './noise-model';
 import {
   OFF_CURVE_Z,
   nameOffCurveReadings,
@@ -54,6 +63,12 @@ export interface DecayFitOptions {
    * supply's draw in watts; the fit itself does not need it.
    */
   effectiveOhms?: number;
+  /**
+   * What is known of the readings' scatter: the meter's noise in volts and as a fraction of the
+   * reading, the timing jitter of the readings, the display resolution. Each is a floor; the fit
+   * estimates the rest from its residuals and weights every reading by 1/σ².
+   */
+  noise?: ReadingNoiseInput;
 }
 
 /** A reading the fit left out, and why. */
@@ -80,8 +95,32 @@ export interface ControlSupplyPhase {
   kneeVolts: number;
   /** Readings before the knee (left out of the fit). */
   readingsBefore: number;
-  /** Estimated constant power drawn by the control supply, watts; null when not estimable. */
+  /**
+   * Constant power drawn by the control supply, watts, from the constant-power model fitted to the
+   * readings before the knee; null without the effective resistance, with a single reading before
+   * the knee, or when the model does not explain them.
+   */
   powerWatts: number | null;
+  /** The bus voltage at which the supply dropped out, volts (where the model meets the RC curve); null when not estimable. */
+  dropoutVolts: number | null;
+  /** When the supply dropped out, seconds after isolation; null with dropoutVolts. */
+  dropoutSeconds: number | null;
+  /**
+   * Whether a control supply drawing constant power explains the readings before the knee:
+   * `'yes'`, `'no'` (then a warning says the start of the run is not understood) or `'too-few'`
+   * readings to tell.
+   */
+  explained: 'yes' | 'no' | 'too-few';
+}
+
+/** The readings' scatter as the fit found it: σ² = volts² + (fractionOfReading · V)². */
+export interface DecayNoise {
+  /** The constant part, rounding included, volts. */
+  volts: number;
+  /** The part in proportion to the reading (%-of-reading noise and timing jitter), as a fraction. */
+  fractionOfReading: number;
+  /** The display resolution the readings were written at (or given), volts; 0 = none. */
+  resolutionVolts: number;
 }
 
 /** A residual of one reading used in the fit. */
@@ -121,6 +160,8 @@ export interface DecayFit {
   controlSupply: ControlSupplyPhase | null;
   /** Time span of the readings used, in time constants. */
   spanTimeConstants: number;
+  /** The readings' scatter the fit was weighted by. */
+  noise: DecayNoise;
   /** Plain-words cautions about the fit (short span, few points, systematic residuals, ...). */
   warnings: string[];
 }
@@ -128,9 +169,6 @@ export interface DecayFit {
 /** {@link fitDecay}'s answer: a fit, or a reason why there is none. */
 export type DecayFitResult = DecayFit | Unusable;
 
-/** Scatter-widths above the RC line that start a control-supply phase, and that extend it. */
-const STEEP_START_Z = 4;
-const STEEP_EXTEND_Z = 3;
 /** The 95 % interval of τ may be at most this wide, as a fraction of τ. */
 const MAX_RELATIVE_CI_WIDTH = 1;
 const MIN_R2 = 0.95;
@@ -141,6 +179,8 @@ const OFF_CURVE_ALPHA = 0.01;
 const MIN_POINTS_FOR_REJECTION = 5;
 /** Less of the decay than this (in time constants, about a 10 % fall) cannot be judged. */
 const MIN_SPAN_TIME_CONSTANTS = 0.1;
+/** A 95 % interval wider than ± this fraction of τ is worth a warning. */
+const LOOSE_HALF_WIDTH = 0.05;
 
 /**
  * Checks decay samples and throws {@link EngineInputError} naming every bad one: numbers that
@@ -225,6 +265,7 @@ export function fitDecay(
   options: DecayFitOptions = {},
 ): DecayFitResult {
   validateDecaySamples(samples);
+  const noiseInput = validateNoiseInput(options.noise);
   const leaveOutControlSupply = options.leaveOutControlSupply ?? true;
   const leaveOutOffCurve = options.leaveOutOffCurve ?? true;
   const n = samples.length;
@@ -261,17 +302,39 @@ export function fitDecay(
   let scales = residualScales(v, fitted, all);
   const zVolts = new Float64Array(n);
   const zLog = new Float64Array(n);
-  const ratio = new Float64Array(n);
   const standardise = (): void => {
     for (let i = 0; i < n; i++) {
       zVolts[i] = (v[i]! - fitted[i]!) / scales.volts;
       zLog[i] = Math.log(v[i]! / fitted[i]!) / scales.log;
-      ratio[i] = v[i]! / fitted[i]!;
     }
   };
   standardise();
-  let head = leaveOutControlSupply ? countSteepStart({ zVolts, zLog, ratio }, STEEP_START_Z, 3) : 0;
-  let offCurve: Uint8Array = new Uint8Array(n);
+
+  // The noise model: floors from what is known, a first guess from the robust scatter (half of it
+  // constant, half in proportion to the reading), refined from the residuals of each fit.
+  const resolutionVolts = noiseInput.resolutionVolts ?? readingResolutionVolts(v);
+  const floorAt = (ratePerSecond: number): NoiseModel =>
+    noiseFloor(noiseInput, resolutionVolts, ratePerSecond);
+  let noise: NoiseModel = {
+    aSquared: Math.max(floorAt(-robust.slope).aSquared, (scales.volts * scales.volts) / 2),
+    cSquared: Math.max(floorAt(-robust.slope).cSquared, (scales.log * scales.log) / 2),
+  };
+  const variance = noiseVariances(noise, v, new Float64Array(n));
+
+  // ln V less the current line, and its weights, for the knee scan.
+  const lnRelative = new Float64Array(n);
+  const logWeights = new Float64Array(n);
+  const usable = new Uint8Array(n);
+  const scanKnee = (intercept: number, slope: number, offCurve: Uint8Array): number => {
+    if (!leaveOutControlSupply) return 0;
+    for (let i = 0; i < n; i++) {
+      lnRelative[i] = lnV[i]! - (intercept + slope * t[i]!);
+      logWeights[i] = (v[i]! * v[i]!) / variance[i]!;
+      usable[i] = offCurve[i] ? 0 : 1;
+    }
+    return findControlSupplyKnee(t, lnRelative, logWeights, v, usable);
+  };
+
   /**
    * Marks readings off the curve. A reading must be far off in the robust screening (volts and log
    * volts both), and, once a least-squares fit exists, also fail a Bonferroni-corrected test of its
@@ -303,11 +366,10 @@ export function fitDecay(
   ): boolean => {
     const m = against.count;
     const e = Math.exp(-against.ratePerSecond * t[i]!);
-    const j1 = e;
-    const j2 = -against.v0Volts * t[i]! * e;
-    const inv = against.inverseNormal;
-    const leverage = j1 * j1 * inv.v0v0 + 2 * j1 * j2 * inv.v0Rate + j2 * j2 * inv.rateRate;
-    const residual = v[i]! - against.v0Volts * e;
+    const weight = 1 / variance[i]!;
+    const leverage = weight * quadraticForm(against, e, -against.v0Volts * t[i]! * e);
+    // Residual in units of the reading's own scatter (the fit is weighted by 1/σ²).
+    const residual = (v[i]! - against.v0Volts * e) * Math.sqrt(weight);
     let statistic: number;
     let degreesOfFreedom: number;
     if (inFit) {
@@ -321,13 +383,12 @@ export function fitDecay(
     } else {
       degreesOfFreedom = m - 2;
       if (degreesOfFreedom < 1) return false;
-      const variance = against.rssVoltsSquared / degreesOfFreedom;
-      if (!(variance > 0)) return true;
-      statistic = Math.abs(residual) / Math.sqrt(variance * (1 + Math.max(leverage, 0)));
+      const residualVariance = against.rssVoltsSquared / degreesOfFreedom;
+      if (!(residualVariance > 0)) return true;
+      statistic = Math.abs(residual) / Math.sqrt(residualVariance * (1 + Math.max(leverage, 0)));
     }
     return statistic > tQuantile(1 - OFF_CURVE_ALPHA / (2 * candidates), degreesOfFreedom);
   };
-  offCurve = markOffCurve(head, null, null);
 
   const candidatesFrom = (from: number): Uint8Array => {
     const mask = new Uint8Array(n);
@@ -335,60 +396,89 @@ export function fitDecay(
     return mask;
   };
 
-  // Fit, re-screen against the fit, repeat until the readings used settle.
+  // Residuals and leverages of the readings in a fit, for the noise estimate.
+  const residualsVolts = new Float64Array(n);
+  const leverage = new Float64Array(n);
+  const reestimateNoise = (against: ExponentialFit, used: Uint8Array): NoiseModel => {
+    for (let i = 0; i < n; i++) {
+      if (!used[i]) continue;
+      const e = Math.exp(-against.ratePerSecond * t[i]!);
+      residualsVolts[i] = v[i]! - against.v0Volts * e;
+      leverage[i] = quadraticForm(against, e, -against.v0Volts * t[i]! * e) / variance[i]!;
+    }
+    return estimateNoiseModel(
+      v,
+      residualsVolts,
+      leverage,
+      used,
+      floorAt(against.ratePerSecond),
+      noise,
+    );
+  };
+
+  let head = scanKnee(robust.intercept, robust.slope, markOffCurve(0, null, null));
+  let offCurve: Uint8Array = markOffCurve(head, null, null);
+
+  // Fit, re-weight, re-screen against the fit, repeat until the readings used settle.
   const include = new Uint8Array(n);
   let fit: ExponentialFit | null = null;
   let start: ExponentialParameters | null = null;
-  for (let pass = 0; pass < MAX_PASSES; pass++) {
+  const fitIncluded = (): ExponentialFit | Unusable => {
     let count = 0;
     for (let i = 0; i < n; i++) {
       include[i] = i >= head && !offCurve[i] ? 1 : 0;
       count += include[i]!;
     }
     if (count < 3) return tooFewLeft(n, head, n - head - count);
-    start = start ?? fitLogLinear(t, v, 'volts-squared', include);
+    start = start ?? fitLogLinear(t, v, variance, include);
     if (!start || !(start.ratePerSecond > 0) || !Number.isFinite(start.v0Volts)) {
       start = { v0Volts: Math.exp(robust.intercept), ratePerSecond: -robust.slope };
     }
-    fit = refineExponential(t, v, start, include);
-    if (!(fit.ratePerSecond > 0)) return noDecay();
-    start = { v0Volts: fit.v0Volts, ratePerSecond: fit.ratePerSecond };
+    const next = refineExponential(t, v, start, include, variance);
+    if (!(next.ratePerSecond > 0)) return noDecay();
+    start = { v0Volts: next.v0Volts, ratePerSecond: next.ratePerSecond };
+    return next;
+  };
+  // Each pass fits, re-weights by the noise the fit showed until the weights settle (iteratively
+  // reweighted least squares), then re-screens against the fit; the passes end when the readings
+  // used no longer change.
+  let settled = false;
+  for (let pass = 0; pass < MAX_PASSES && !settled; pass++) {
+    for (let round = 0; round < IRLS_ROUNDS; round++) {
+      const next = fitIncluded();
+      if ('status' in next) return next;
+      fit = next;
+      const reestimated = reestimateNoise(fit, include);
+      const moved =
+        Math.abs(reestimated.aSquared - noise.aSquared) > NOISE_SETTLED * noise.aSquared ||
+        Math.abs(reestimated.cSquared - noise.cSquared) >
+          NOISE_SETTLED * Math.max(noise.cSquared, 1e-300);
+      noise = reestimated;
+      noiseVariances(noise, v, variance);
+      if (!moved) break;
+    }
+    if (!fit) return noDecay();
     for (let i = 0; i < n; i++) fitted[i] = fit.v0Volts * Math.exp(-fit.ratePerSecond * t[i]!);
     // The scatter is taken over every reading after the steep start, the off-curve ones too: the
     // median shrugs them off, and measuring it on the kept readings only would make a reading,
     // once left out, look ever further off.
     scales = residualScales(v, fitted, candidatesFrom(head));
     standardise();
-    const nextHead = !leaveOutControlSupply
-      ? 0
-      : countSteepStart(
-          { zVolts, zLog, ratio },
-          head > 0 ? STEEP_EXTEND_Z : STEEP_START_Z,
-          3,
-          head,
-        );
+    const nextHead = scanKnee(Math.log(fit.v0Volts), -fit.ratePerSecond, offCurve);
     const nextOffCurve = markOffCurve(nextHead, fit, include);
     let same = nextHead === head;
     for (let i = 0; same && i < n; i++) same = nextOffCurve[i] === offCurve[i];
-    if (same) break;
+    settled = same;
     head = nextHead;
     offCurve = nextOffCurve;
-    if (pass === MAX_PASSES - 1) {
-      // Still moving after the last pass: fit once more on the final choice of readings.
-      let left = 0;
-      for (let i = 0; i < n; i++) {
-        include[i] = i >= head && !offCurve[i] ? 1 : 0;
-        left += include[i]!;
-      }
-      if (left < 3) return tooFewLeft(n, head, n - head - left);
-      fit = refineExponential(t, v, start, include);
-      if (!(fit.ratePerSecond > 0)) return noDecay();
-      for (let i = 0; i < n; i++) fitted[i] = fit.v0Volts * Math.exp(-fit.ratePerSecond * t[i]!);
-      scales = residualScales(v, fitted, candidatesFrom(head));
-    }
   }
-  if (!fit) return noDecay();
-
+  if (!settled || !fit) {
+    // Still moving after the last pass: fit once more on the final choice of readings.
+    const last = fitIncluded();
+    if ('status' in last) return last;
+    fit = last;
+    for (let i = 0; i < n; i++) fitted[i] = fit.v0Volts * Math.exp(-fit.ratePerSecond * t[i]!);
+  }
   const offCurveIndices: number[] = [];
   for (let i = head; i < n; i++) if (offCurve[i]) offCurveIndices.push(i);
   const candidates = n - head;
@@ -399,7 +489,50 @@ export function fitDecay(
     );
   }
 
-  return summarise(t, v, fitted, include, head, offCurveIndices, fit, scales, options);
+  return summarise({
+    t,
+    v,
+    fitted,
+    include,
+    head,
+    offCurveIndices,
+    fit,
+    scales,
+    noise,
+    resolutionVolts,
+    variance,
+    options,
+  });
+}
+
+/** Relative change of the noise model's parts below which the weights count as settled. */
+const NOISE_SETTLED = 0.2;
+/** Most fits of one pass while the weights settle. */
+const IRLS_ROUNDS = 4;
+
+/** Jᵢᵀ (JᵀWJ)⁻¹ Jᵢ for a reading with derivatives (∂/∂V0, ∂/∂rate) = (e, j2). */
+function quadraticForm(fit: ExponentialFit, e: number, j2: number): number {
+  const inv = fit.inverseNormal;
+  return e * e * inv.v0v0 + 2 * e * j2 * inv.v0Rate + j2 * j2 * inv.rateRate;
+}
+
+function validateNoiseInput(input: ReadingNoiseInput | undefined): ReadingNoiseInput {
+  if (input === undefined) return {};
+  const fields = ['volts', 'fractionOfReading', 'timingJitterSeconds', 'resolutionVolts'] as const;
+  const issues: InputIssue[] = [];
+  for (const field of fields) {
+    const value = input[field];
+    if (value !== undefined && !(typeof value === 'number' && Number.isFinite(value) && value >= 0))
+      issues.push({ path: `noise.${field}`, message: 'must be a number at or above zero' });
+  }
+  if (issues.length > 0) {
+    throw new EngineInputError(
+      'invalid-option',
+      `The readings' noise must be given as numbers at or above zero (${issues.map((issue) => issue.path).join(', ')}).`,
+      issues,
+    );
+  }
+  return input;
 }
 
 function tooFewLeft(total: number, head: number, offCurve: number): Unusable {
@@ -412,25 +545,37 @@ function tooFewLeft(total: number, head: number, offCurve: number): Unusable {
   );
 }
 
-function summarise(
-  t: Float64Array,
-  v: Float64Array,
-  fitted: Float64Array,
-  include: Uint8Array,
-  head: number,
-  offCurveIndices: number[],
-  fit: ExponentialFit,
-  scales: ResidualScales,
-  options: DecayFitOptions,
-): DecayFitResult {
+interface SettledFit {
+  t: Float64Array;
+  v: Float64Array;
+  fitted: Float64Array;
+  include: Uint8Array;
+  head: number;
+  offCurveIndices: number[];
+  fit: ExponentialFit;
+  scales: ResidualScales;
+  noise: NoiseModel;
+  resolutionVolts: number;
+  variance: Float64Array;
+  options: DecayFitOptions;
+}
+
+function summarise(settled: SettledFit): DecayFitResult {
+  const { t, v, fitted, include, head, offCurveIndices, fit, scales, noise, options } = settled;
   const n = t.length;
   const count = fit.count;
-  const degreesOfFreedom = count - 2;
+  // The fit is weighted by 1/σ²: s² = Σ rᵢ²/σᵢ² / (n − 2 − k) is about 1 when the noise model is
+  // right, and scales the covariance when it is not. The noise model's level is s² itself; its
+  // shape (how the scatter splits between the constant and the proportional part, k = 1) was
+  // estimated from the same residuals, so it takes a degree of freedom too, as the two curve
+  // parameters do.
+  const noiseParts = count >= MIN_READINGS_FOR_TWO_PARTS ? 1 : 0;
+  const degreesOfFreedom = Math.max(count - 2 - noiseParts, 1);
   const rate = fit.ratePerSecond;
   const tauSeconds = 1 / rate;
-  const variance = fit.rssVoltsSquared / degreesOfFreedom;
-  const rateStdError = Math.sqrt(variance * fit.inverseNormal.rateRate);
-  const v0StdErrorVolts = Math.sqrt(variance * Math.max(fit.inverseNormal.v0v0, 0));
+  const scaleSquared = fit.rssVoltsSquared / degreesOfFreedom;
+  const rateStdError = Math.sqrt(scaleSquared * fit.inverseNormal.rateRate);
+  const v0StdErrorVolts = Math.sqrt(scaleSquared * Math.max(fit.inverseNormal.v0v0, 0));
   const q = tQuantile(0.975, degreesOfFreedom);
   const rateLow = rate - q * rateStdError;
   const rateHigh = rate + q * rateStdError;
@@ -447,9 +592,14 @@ function summarise(
   }
   const mean = sum / count;
   let totalSquares = 0;
-  for (let i = 0; i < n; i++) if (include[i]) totalSquares += (v[i]! - mean) ** 2;
-  const r2 = totalSquares > 0 ? 1 - fit.rssVoltsSquared / totalSquares : 0;
-  const rmseVolts = Math.sqrt(fit.rssVoltsSquared / count);
+  let rss = 0;
+  for (let i = 0; i < n; i++) {
+    if (!include[i]) continue;
+    totalSquares += (v[i]! - mean) ** 2;
+    rss += (v[i]! - fitted[i]!) ** 2;
+  }
+  const r2 = totalSquares > 0 ? 1 - rss / totalSquares : 0;
+  const rmseVolts = Math.sqrt(rss / count);
   const spanTimeConstants = (t[lastUsed]! - t[firstUsed]!) / tauSeconds;
 
   if (!(rateLow > 0) || !Number.isFinite(rateStdError)) {
@@ -459,6 +609,7 @@ function summarise(
     );
   }
   const tauCi95: [number, number] = [1 / rateHigh, 1 / rateLow];
+  if (head > 0) widenForKnee(settled, firstUsed, degreesOfFreedom, tauCi95);
   const relativeWidth = (tauCi95[1] - tauCi95[0]) / tauSeconds;
   if (relativeWidth > MAX_RELATIVE_CI_WIDTH) {
     return unusable(
@@ -490,16 +641,29 @@ function summarise(
   const excluded: ExcludedReading[] = [];
   let controlSupply: ControlSupplyPhase | null = null;
   if (head > 0) {
-    const headT = t.subarray(0, head);
-    const headV = v.subarray(0, head);
-    const powerWatts = options.effectiveOhms
-      ? estimateControlSupplyWatts(headT, headV, tauSeconds, options.effectiveOhms)
-      : null;
+    // The lack-of-fit test of the phase takes the noise model at its word unless the RC part
+    // showed more scatter than it (never less: exact readings would make any rounding a misfit).
+    const phase = fitControlSupplyPhase(t, v, head, fit, {
+      ...noise,
+      scale: Math.max(scaleSquared, 1),
+    });
+    if (phase.explained === 'no' && head >= count) {
+      return unusable(
+        'poor-fit',
+        `The first ${head} readings fell faster than an RC decay, but not as a drive's control supply drawing constant power would make them, and they outnumber the ${count} readings after them: the start of this run is not understood, so no τ is given. Check that the drive was isolated and nothing else was loading the bus, then repeat the run with readings over two to three time constants.`,
+      );
+    }
+    const ohms = options.effectiveOhms;
+    const powerWatts =
+      phase.explained === 'yes' && ohms && ohms > 0 ? phase.powerTimesOhms / ohms : null;
     controlSupply = {
       kneeSeconds: t[firstUsed]!,
       kneeVolts: v[firstUsed]!,
       readingsBefore: head,
       powerWatts,
+      dropoutVolts: phase.explained === 'yes' ? phase.dropoutVolts : null,
+      dropoutSeconds: phase.explained === 'yes' ? phase.dropoutSeconds : null,
+      explained: phase.explained,
     };
     for (let i = 0; i < head; i++) {
       excluded.push({
@@ -512,11 +676,26 @@ function summarise(
         expectedVolts: fitted[i]!,
       });
     }
-    const power =
-      powerWatts !== null ? ` The control supply drew about ${formatNumber(powerWatts, 2)} W.` : '';
+    const drew =
+      powerWatts !== null ? ` The control supply drew about ${formatNumber(powerWatts, 2)} W` : '';
+    const dropped =
+      controlSupply.dropoutVolts !== null
+        ? `${drew ? ' and' : ' The control supply'} dropped out near ${formatVolts(controlSupply.dropoutVolts)}`
+        : '';
+    const modelled = drew || dropped ? `${drew}${dropped}.` : '';
     warnings.push(
-      `The first ${head === 1 ? 'reading' : `${head} readings`} fell faster than an RC decay while the drive's control supply was running and ${head === 1 ? 'was' : 'were'} left out; the decay is plain RC from ${formatVolts(v[firstUsed]!)} at t = ${formatNumber(t[firstUsed]!, 4)} s.${power}`,
+      `The first ${head === 1 ? 'reading' : `${head} readings`} fell faster than an RC decay while the drive's control supply was running and ${head === 1 ? 'was' : 'were'} left out; the decay is plain RC from ${formatVolts(v[firstUsed]!)} at t = ${formatNumber(t[firstUsed]!, 4)} s.${modelled}`,
     );
+    if (phase.explained === 'no') {
+      warnings.push(
+        `The ${head === 1 ? 'reading' : `${head} readings`} before the knee do not follow a control supply drawing constant power either: the start of this run is not understood, and τ rests on the ${count} readings after it. Check that the drive was isolated and nothing else was loading the bus, or repeat the run.`,
+      );
+    }
+    if (head >= count) {
+      warnings.push(
+        `More readings were left out at the start (${head}) than were used (${count}): check that the drive was isolated when the recording began.`,
+      );
+    }
   }
   const named = nameOffCurveReadings(t, v, fitted, offCurveIndices, scales);
   for (const reading of named) {
@@ -544,6 +723,17 @@ function summarise(
   if (spanTimeConstants < 0.5) {
     warnings.push(
       `The readings used cover only ${formatNumber(spanTimeConstants, 2)} time constants; τ rests on a short stretch of the curve (one to three time constants is best).`,
+    );
+  }
+  if (relativeWidth > 2 * LOOSE_HALF_WIDTH) {
+    warnings.push(
+      `τ is known only roughly: its 95 % interval runs from ${formatSeconds(tauCi95[0])} to ${formatSeconds(tauCi95[1])}. More readings over two to three time constants narrow it.`,
+    );
+  }
+  const bend = curvatureOfLogVolts(t, v, include, settled.variance);
+  if (bend !== null && Math.abs(bend) > tQuantile(1 - CURVATURE_ALPHA / 2, count - 3)) {
+    warnings.push(
+      `The readings bend away from a single exponential (ln V is ${bend < 0 ? 'steeper at the end than at the start' : 'flatter at the end than at the start'}, t = ${formatNumber(bend, 2)}): τ may be off by more than its interval says. ${bend < 0 ? 'A control supply that was still drawing power early in the run can do this; start the readings later or record more of them at the start.' : 'Check for a meter offset or a load still connected.'}`,
     );
   }
   const runs = residualRuns(v, fitted, include);
@@ -574,8 +764,120 @@ function summarise(
     residuals,
     controlSupply,
     spanTimeConstants,
+    noise: {
+      volts: Math.sqrt(noise.aSquared),
+      fractionOfReading: Math.sqrt(noise.cSquared),
+      resolutionVolts: settled.resolutionVolts,
+    },
     warnings,
   };
+}
+
+/**
+ * Where exactly the knee lies is uncertain by about a reading: a last reading of the control-supply
+ * phase that sat too close to the RC curve to be told from it stays in the fit. So the 95 %
+ * interval of τ after a control-supply phase also covers the interval of the fit without the first
+ * reading after the knee (their union).
+ */
+function widenForKnee(
+  settled: SettledFit,
+  firstUsed: number,
+  degreesOfFreedom: number,
+  tauCi95: [number, number],
+): void {
+  const { t, v, include, fit, variance } = settled;
+  if (degreesOfFreedom < 2) return;
+  const without = Uint8Array.from(include);
+  without[firstUsed] = 0;
+  const other = refineExponential(t, v, fit, without, variance);
+  if (!(other.ratePerSecond > 0)) return;
+  const scaleSquared = other.rssVoltsSquared / (degreesOfFreedom - 1);
+  const q = tQuantile(0.975, degreesOfFreedom - 1);
+  const spread = q * Math.sqrt(scaleSquared * other.inverseNormal.rateRate);
+  const rateHigh = other.ratePerSecond + spread;
+  const rateLow = other.ratePerSecond - spread;
+  if (!(rateLow > 0) || !Number.isFinite(rateHigh)) return;
+  tauCi95[0] = Math.min(tauCi95[0], 1 / rateHigh);
+  tauCi95[1] = Math.max(tauCi95[1], 1 / rateLow);
+}
+
+/** Two-sided false-alarm rate of the test that ln V bends. */
+const CURVATURE_ALPHA = 0.001;
+
+/**
+ * Student's t of the quadratic term when ln V of the readings used is fitted by a parabola in t
+ * (weights Vᵢ²/σᵢ², times centred and scaled, its own residual scale on n − 3 degrees of
+ * freedom): far from zero when the decay is not one exponential. Null below 6 readings.
+ */
+function curvatureOfLogVolts(
+  t: Float64Array,
+  v: Float64Array,
+  include: Uint8Array,
+  variance: Float64Array,
+): number | null {
+  let s0 = 0;
+  let st = 0;
+  let count = 0;
+  for (let i = 0; i < t.length; i++) {
+    if (!include[i]) continue;
+    const w = (v[i]! * v[i]!) / variance[i]!;
+    s0 += w;
+    st += w * t[i]!;
+    count++;
+  }
+  if (count < 6) return null;
+  const centre = st / s0;
+  let spread = 0;
+  for (let i = 0; i < t.length; i++)
+    if (include[i]) spread = Math.max(spread, Math.abs(t[i]! - centre));
+  if (!(spread > 0)) return null;
+  // Normal equations of y = b0 + b1·x + b2·x² with x = (t − centre)/spread.
+  const m = new Float64Array(9);
+  const r = new Float64Array(3);
+  let syy = 0;
+  for (let i = 0; i < t.length; i++) {
+    if (!include[i]) continue;
+    const w = (v[i]! * v[i]!) / variance[i]!;
+    const x = (t[i]! - centre) / spread;
+    const y = Math.log(v[i]!);
+    const basis = [1, x, x * x];
+    for (let a = 0; a < 3; a++) {
+      r[a] = r[a]! + w * basis[a]! * y;
+      for (let b = 0; b < 3; b++) m[3 * a + b] = m[3 * a + b]! + w * basis[a]! * basis[b]!;
+    }
+    syy += w * y * y;
+  }
+  const inverse = invert3(m);
+  if (!inverse) return null;
+  const beta = [0, 1, 2].map(
+    (a) => inverse[3 * a]! * r[0]! + inverse[3 * a + 1]! * r[1]! + inverse[3 * a + 2]! * r[2]!,
+  );
+  const rss = Math.max(syy - (beta[0]! * r[0]! + beta[1]! * r[1]! + beta[2]! * r[2]!), 0);
+  const scaleSquared = rss / (count - 3);
+  const standardError = Math.sqrt(scaleSquared * inverse[8]!);
+  if (!(standardError > 0)) return null;
+  return beta[2]! / standardError;
+}
+
+/** Inverse of a symmetric 3 × 3 matrix (row-major), or null when singular. */
+function invert3(m: Float64Array): Float64Array | null {
+  const [a, b, c, d, e, f, g, h, k] = m as unknown as number[];
+  const c00 = e! * k! - f! * h!;
+  const c01 = -(d! * k! - f! * g!);
+  const c02 = d! * h! - e! * g!;
+  const det = a! * c00 + b! * c01 + c! * c02;
+  if (!(Math.abs(det) > 1e-300)) return null;
+  const out = new Float64Array(9);
+  out[0] = c00 / det;
+  out[1] = -(b! * k! - c! * h!) / det;
+  out[2] = (b! * f! - c! * e!) / det;
+  out[3] = c01 / det;
+  out[4] = (a! * k! - c! * g!) / det;
+  out[5] = -(a! * f! - c! * d!) / det;
+  out[6] = c02 / det;
+  out[7] = -(a! * h! - b! * g!) / det;
+  out[8] = (a! * e! - b! * d!) / det;
+  return out;
 }
 
 /** Wald–Wolfowitz runs test on the signs of the residuals (null below 10 readings). */

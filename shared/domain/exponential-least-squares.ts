@@ -24,16 +24,20 @@ export interface ExponentialParameters {
   ratePerSecond: number;
 }
 
-/** How {@link fitLogLinear} weights each reading. */
-export type LogLinearWeighting = 'volts-squared' | 'none';
+/**
+ * How {@link fitLogLinear} weights each reading: `'volts-squared'` for constant noise in volts
+ * (var(ln V) ≈ σ²/V²), `'none'` for a plain regression on ln V, or the variance of each reading
+ * in volts² (σᵢ², e.g. from ./noise-model), which weights ln Vᵢ by Vᵢ²/σᵢ².
+ */
+export type LogLinearWeighting = 'volts-squared' | 'none' | ArrayLike<number>;
 
 /**
  * Weighted straight-line fit of ln V against t.
  *
  * @param tSeconds - times, seconds
  * @param volts - readings, volts (> 0)
- * @param weighting - `'volts-squared'` (default; constant noise in volts) or `'none'` (plain
- *   regression on ln V, as a spreadsheet trend line does)
+ * @param weighting - `'volts-squared'` (default; constant noise in volts), `'none'` (plain
+ *   regression on ln V, as a spreadsheet trend line does), or each reading's variance, volts²
  * @param include - optional mask (1 = use the reading)
  * @returns the parameters, or null with fewer than 2 distinct times
  * @example
@@ -52,7 +56,7 @@ export function fitLogLinear(
   for (let i = 0; i < tSeconds.length; i++) {
     if (include && !include[i]) continue;
     const v = volts[i]!;
-    const w = weighting === 'none' ? 1 : v * v;
+    const w = weightOf(weighting, v, i);
     sw += w;
     st += w * tSeconds[i]!;
     sy += w * Math.log(v);
@@ -65,7 +69,7 @@ export function fitLogLinear(
   for (let i = 0; i < tSeconds.length; i++) {
     if (include && !include[i]) continue;
     const v = volts[i]!;
-    const w = weighting === 'none' ? 1 : v * v;
+    const w = weightOf(weighting, v, i);
     const dt = tSeconds[i]! - tMean;
     stt += w * dt * dt;
     sty += w * dt * (Math.log(v) - yMean);
@@ -75,15 +79,24 @@ export function fitLogLinear(
   return { v0Volts: Math.exp(yMean - slope * tMean), ratePerSecond: -slope };
 }
 
+function weightOf(weighting: LogLinearWeighting, volts: number, index: number): number {
+  if (weighting === 'none') return 1;
+  if (weighting === 'volts-squared') return volts * volts;
+  return (volts * volts) / weighting[index]!;
+}
+
 /** Result of {@link refineExponential}. */
 export interface ExponentialFit extends ExponentialParameters {
-  /** Sum of squared residuals, volts². */
+  /**
+   * Sum of squared residuals, volts²; with variances given, the weighted sum Σ rᵢ²/σᵢ²
+   * (dimensionless, about count − 2 when the variances are right).
+   */
   rssVoltsSquared: number;
   /** Readings used. */
   count: number;
   /**
-   * Unscaled inverse of JᵀJ for (v0Volts, ratePerSecond); multiply by the residual variance
-   * s² = rss / (count − 2) for the covariance.
+   * Unscaled inverse of JᵀWJ for (v0Volts, ratePerSecond) (W = 1/σᵢ², or 1 without variances);
+   * multiply by s² = rss / (count − 2) for the covariance.
    */
   inverseNormal: { v0v0: number; v0Rate: number; rateRate: number };
   /** Levenberg–Marquardt steps taken. */
@@ -103,6 +116,8 @@ const MAX_ITERATIONS = 200;
  * @param volts - readings, volts
  * @param start - starting parameters (ratePerSecond > 0)
  * @param include - optional mask (1 = use the reading)
+ * @param varianceVolts2 - optional variance σᵢ² of each reading, volts²: weighted least squares
+ *   (each squared residual divided by its variance); plain least squares without
  * @returns the fitted parameters with the data for their covariance; ratePerSecond may come out
  *   ≤ 0 for data that do not decay (the caller decides)
  * @example
@@ -114,6 +129,7 @@ export function refineExponential(
   volts: ArrayLike<number>,
   start: ExponentialParameters,
   include?: ArrayLike<number>,
+  varianceVolts2?: ArrayLike<number>,
 ): ExponentialFit {
   const n = tSeconds.length;
   let reference = NaN;
@@ -148,12 +164,13 @@ export function refineExponential(
       const e = Math.exp(-rr * dt);
       const residual = volts[i]! - bb * e;
       const j2 = -bb * dt * e; // ∂model/∂λ; ∂model/∂b is e
-      sum += residual * residual;
-      s11 += e * e;
-      s12 += e * j2;
-      s22 += j2 * j2;
-      h1 += e * residual;
-      h2 += j2 * residual;
+      const w = varianceVolts2 ? 1 / varianceVolts2[i]! : 1;
+      sum += w * residual * residual;
+      s11 += w * e * e;
+      s12 += w * e * j2;
+      s22 += w * j2 * j2;
+      h1 += w * e * residual;
+      h2 += w * j2 * residual;
     }
     if (sum < Infinity) {
       a11 = s11;
