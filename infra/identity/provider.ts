@@ -11,6 +11,7 @@ import { fileURLToPath } from 'node:url';
 import express, { type ErrorRequestHandler, type Request, type Response } from 'express';
 import helmet from 'helmet';
 import Provider, { errors, type Configuration, type KoaContextWithOIDC } from 'oidc-provider';
+import { DATABASE_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from '../../api/src/db/connection-errors';
 import type { AccountStore } from './accounts';
 import type { SigningJwk } from './keys';
 import { memoryFailedAttempts, type FailedAttemptStore } from './rate-limit';
@@ -56,6 +57,11 @@ export interface IdentityProviderOptions {
   lockoutMinutes?: number;
   onSignInFailed?: (failure: SignInFailure) => void | Promise<void>;
 }
+
+/** The page while the sign-in service cannot reach its database (a PostgreSQL restart). */
+const UNAVAILABLE_TITLE = 'Sign-in is unavailable for a moment';
+const UNAVAILABLE_TEXT =
+  "The sign-in service can't reach its database; nothing is lost. Try again in a moment.";
 
 const SCOPE_TEXT: Record<string, string> = {
   openid: 'that it is you (your staff login)',
@@ -150,17 +156,25 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
       Grant: 14 * 86_400,
       Session: 12 * 3600,
     },
-    renderError: async (ctx, out) => {
+    renderError: async (ctx, out, error) => {
       ctx.type = 'html';
-      ctx.body = problemPage(
-        'Sign-in could not go on',
-        `${out.error_description ?? out.error ?? 'The request was not valid.'} Go back to Ebbline and start again.`,
-        homeOf(ctx.oidc?.client?.clientId),
-      );
+      ctx.body = isDatabaseUnavailable(error)
+        ? problemPage(UNAVAILABLE_TITLE, UNAVAILABLE_TEXT, homeOf(ctx.oidc?.client?.clientId))
+        : problemPage(
+            'Sign-in could not go on',
+            `${out.error_description ?? out.error ?? 'The request was not valid.'} Go back to Ebbline and start again.`,
+            homeOf(ctx.oidc?.client?.clientId),
+          );
     },
   };
 
   const provider = new Provider(options.issuer, configuration);
+  // PostgreSQL away: a passing 503 with Retry-After (pages and token answers alike), not a 500
+  provider.on('server_error', (ctx: KoaContextWithOIDC, err: unknown) => {
+    if (!isDatabaseUnavailable(err)) return;
+    ctx.status = 503;
+    ctx.set('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
+  });
   const lockoutMs = (options.lockoutMinutes ?? 15) * 60_000;
   const attempts = options.failedAttempts ?? memoryFailedAttempts();
   const limiterByLogin = attempts('login', {
@@ -400,6 +414,14 @@ export function createIdentityProvider(options: IdentityProviderOptions): {
       return;
     }
     const expired = err instanceof errors.SessionNotFound || err instanceof errors.InvalidRequest;
+    if (isDatabaseUnavailable(err)) {
+      res
+        .status(503)
+        .set('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS))
+        .type('html')
+        .send(problemPage(UNAVAILABLE_TITLE, UNAVAILABLE_TEXT, homeOf(undefined)));
+      return;
+    }
     res
       .status(expired ? 400 : 500)
       .type('html')
