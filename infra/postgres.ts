@@ -8,6 +8,7 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import pg from 'pg';
 
 export interface ClusterOptions {
@@ -215,18 +216,28 @@ export function databaseUrl(opts: ClusterOptions, database: string): string {
 }
 
 /** CLI: tsx infra/postgres.ts start|stop|status (the `npm start` cluster). */
-if (import.meta.url === (await import('node:url')).pathToFileURL(process.argv[1] ?? '').href) {
-  const { appClusterOptions, loadEnvFile } = await import('./local-cluster');
+async function runCli(): Promise<void> {
+  const { appClusterOptions, appDatabaseRoles, loadEnvFile } = await import('./local-cluster');
+  const { prepareDatabase } = await import('./database-roles');
   loadEnvFile();
   const opts = appClusterOptions();
   const command = process.argv[2];
   if (command === 'start') {
     startCluster(opts);
-    await ensureDatabase(opts, opts.database);
+    // both roles, as npm start makes them, so `npm run db:migrate` and `db:seed` work next
+    await prepareDatabase(opts, appDatabaseRoles(), opts.database);
   } else if (command === 'stop') stopCluster(opts);
   else if (command === 'status') log(isRunning(opts) ? `running on port ${opts.port}` : 'not running');
   else {
     console.error('usage: tsx infra/postgres.ts start|stop|status');
     process.exit(2);
   }
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
+  // not awaited here: database-roles.ts imports this module, which must finish loading first
+  runCli().catch((err: unknown) => {
+    console.error(err instanceof Error ? err.message : err);
+    process.exit(1);
+  });
 }
