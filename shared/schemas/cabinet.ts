@@ -19,7 +19,6 @@ import {
   recordId,
   storableString,
   versionField,
-  wholeNumber,
   type RecordMeta,
 } from './common';
 
@@ -47,7 +46,13 @@ const cabinetFields = {
    * The drive maker's marked wait time before opening after isolation, minutes; at least 1
    * (a wait of 0 would print "wait at least 0 min" on the label), or null when not marked.
    */
-  markedWaitMinutes: wholeNumber('marked wait time', 1, 240).nullable().default(null),
+  markedWaitMinutes: z
+    .number({ error: 'Enter the marked wait time as whole minutes.' })
+    .int('Enter the marked wait time as whole minutes.')
+    .min(1, 'The marked wait time is at least 1 minute; leave it empty when none is marked.')
+    .max(240, 'The marked wait time must be at most 240.')
+    .nullable()
+    .default(null),
   criticality: z.enum(CRITICALITIES, { error: 'Choose low, medium, high or critical.' }).default('medium'),
   environmentNotes: optionalText(1000, 'environment notes'),
   commissionedOn: optionalCalendarDate('commissioning date'),

@@ -31,7 +31,7 @@ export function dateOn(now: Date): string {
  */
 export function confirmUnlikely(issues: PlausibilityIssue[], confirmed: boolean | undefined): void {
   if (issues.length === 0 || confirmed === true) return;
-  const message = `Are you sure? ${issues.map((i) => i.message).join(' ')} Check, or save anyway.`;
+  const message = `Are you sure? ${issues.map((i) => i.message).join(' ')} Correct it, or save anyway to keep it.`;
   throw new AppError('confirmation-needed', message, issues);
 }
 

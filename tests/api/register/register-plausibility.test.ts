@@ -136,7 +136,7 @@ describe('cabinets', () => {
     expect(error.issues).toEqual([
       expect.objectContaining({
         path: 'markedWaitMinutes',
-        message: 'The marked wait time must be at least 1.',
+        message: 'The marked wait time is at least 1 minute; leave it empty when none is marked.',
       }),
     ]);
   });

@@ -20,12 +20,17 @@ describe('dcBusQuestion', () => {
     [480, 680],
     [690, 930],
     [690, 975],
-  ])('when the bus follows the rectifier arithmetic (%s V AC, %s V DC), then no question', (supply, bus) => {
-    expect(dcBusQuestion(supply, bus)).toBeNull();
-  });
+  ])(
+    'when the bus follows the rectifier arithmetic (%s V AC, %s V DC), then no question',
+    (supply, bus) => {
+      expect(dcBusQuestion(supply, bus)).toBeNull();
+    },
+  );
 
   it('when the bus is 5 V on a 400 V supply, then it asks, naming the expected range', () => {
-    expect(dcBusQuestion(400, 5)).toMatch(/5 V DC bus on a 400 V supply is unlikely: expect about 540–564 V/);
+    expect(dcBusQuestion(400, 5)).toMatch(
+      /5 V DC bus on a 400 V supply is unlikely: expect about 540–564 V/,
+    );
   });
 
   it('when the bus equals the line voltage (1.0 ×) or is twice it, then it asks', () => {
@@ -52,7 +57,9 @@ describe('bankRatingProblem', () => {
   });
 
   it('when a single 450 V can sits on a 930 V bus (690 V supply), then it is refused naming both voltages', () => {
-    expect(bankRatingProblem(450, 930, 'Bank DC1')).toMatch(/^Bank DC1 is rated 450 V, below the cabinet's 930 V DC bus/);
+    expect(bankRatingProblem(450, 930, 'Bank DC1')).toMatch(
+      /^Bank DC1 is rated 450 V, below the cabinet's 930 V DC bus/,
+    );
   });
 
   it('when the rating equals the bus, then it is fine; just below, refused', () => {
@@ -79,7 +86,9 @@ describe('baselineTauQuestion', () => {
   });
 
   it('when τ is 218 s with 1 µF on a 47 kΩ bleeder, then it asks, giving R × C', () => {
-    expect(baselineTauQuestion(218, 1, 47_000)).toMatch(/τ of 218 s does not fit 1 µF with a 47000 Ω bleeder: R × C is 0.047 s/);
+    expect(baselineTauQuestion(218, 1, 47_000)).toMatch(
+      /τ of 218 s does not fit 1 µF with a 47000 Ω bleeder: R × C is 0.047 s/,
+    );
   });
 });
 
@@ -111,6 +120,11 @@ describe('oneYearAfter', () => {
 
 describe('collectIssues', () => {
   it('when some checks found something, then only those are issues, under their fields', () => {
-    expect(collectIssues([['dcBusVolts', 'odd'], ['commissionedOn', null]])).toEqual([{ path: 'dcBusVolts', message: 'odd' }]);
+    expect(
+      collectIssues([
+        ['dcBusVolts', 'odd'],
+        ['commissionedOn', null],
+      ]),
+    ).toEqual([{ path: 'dcBusVolts', message: 'odd' }]);
   });
 });

@@ -35,7 +35,9 @@ describe('isStorableText', () => {
 
 describe('text fields', () => {
   it('when a required or optional text holds a NUL, then it is refused naming what it is', () => {
-    const result = z.object({ name: requiredText(20, 'area name'), notes: optionalText(20, 'notes') }).safeParse({ name: 'A\u0000', notes: '\uD800' });
+    const result = z
+      .object({ name: requiredText(20, 'area name'), notes: optionalText(20, 'notes') })
+      .safeParse({ name: 'A\u0000', notes: '\uD800' });
     expect(result.success).toBe(false);
     expect(result.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
       ['name', expect.stringContaining('area name holds a character that cannot be stored')],
@@ -45,22 +47,32 @@ describe('text fields', () => {
 
   it('when every text field of the cabinet schema gets a lone surrogate, then each is refused', () => {
     const texts = ['tag', 'location', 'driveMake', 'driveModel', 'environmentNotes'];
-    const result = cabinetInputSchema.safeParse(Object.fromEntries(texts.map((f) => [f, 'X\uDFFF'])));
+    const result = cabinetInputSchema.safeParse(
+      Object.fromEntries(texts.map((f) => [f, 'X\uDFFF'])),
+    );
     const paths = result.error!.issues.map((i) => i.path.join('.'));
     for (const field of texts) expect(paths).toContain(field);
   });
 });
 
 describe('calendarDate', () => {
-  it.each(['0000-01-01', '1899-12-31', '2201-01-01', '9999-12-31'])('when the date is %s, then it is refused naming the years allowed', (date) => {
-    const result = calendarDate('install date').safeParse(date);
-    expect(result.success).toBe(false);
-    expect(result.error!.issues[0]!.message).toBe('The install date must fall between 1900 and 2200.');
-  });
+  it.each(['0000-01-01', '1899-12-31', '2201-01-01', '9999-12-31'])(
+    'when the date is %s, then it is refused naming the years allowed',
+    (date) => {
+      const result = calendarDate('install date').safeParse(date);
+      expect(result.success).toBe(false);
+      expect(result.error!.issues[0]!.message).toBe(
+        'The install date must fall between 1900 and 2200.',
+      );
+    },
+  );
 
-  it.each(['1900-01-01', '2026-12-02', '2200-12-31'])('when the date is %s, then it is taken', (date) => {
-    expect(calendarDate().parse(date)).toBe(date);
-  });
+  it.each(['1900-01-01', '2026-12-02', '2200-12-31'])(
+    'when the date is %s, then it is taken',
+    (date) => {
+      expect(calendarDate().parse(date)).toBe(date);
+    },
+  );
 
   it('when the date does not exist or is not a date, then it is refused', () => {
     expect(calendarDate().safeParse('2025-02-30').success).toBe(false);
@@ -93,9 +105,12 @@ describe('update schemas', () => {
     ['cabinet', cabinetUpdateSchema],
     ['bank', bankUpdateSchema],
     ['spare', spareUpdateSchema],
-  ] as const)('when a %s change names only its version, then it fills in no other field', (_name, schema) => {
-    expect(schema.parse({ version: 3 })).toEqual({ version: 3 });
-  });
+  ] as const)(
+    'when a %s change names only its version, then it fills in no other field',
+    (_name, schema) => {
+      expect(schema.parse({ version: 3 })).toEqual({ version: 3 });
+    },
+  );
 
   it('when a bank design change names only its version, then only the (empty) change note is added', () => {
     expect(bankDesignUpdateSchema.parse({ version: 3 })).toEqual({ version: 3, changeNote: '' });
