@@ -292,7 +292,7 @@ export function findHeader<T>(
  *
  * @throws EngineInputError('invalid-csv')
  * @example
- * checkRowWidth(['0', '560', '5'], 2, 7, ',') // throws: 'Row 7 has 3 cells but the header has 2 columns. ...'
+ * checkRowWidth(['0', '560', '5'], 2, 7, ',') // throws: 'Row 7, column 3: "5" stands beyond the header's 2 columns (the row has 3 cells). ...'
  */
 export function checkRowWidth(
   cells: readonly string[],
@@ -305,8 +305,8 @@ export function checkRowWidth(
       const hint = separator === ',' ? ' Decimal commas need a semicolon-separated file.' : '';
       throw new EngineInputError(
         'invalid-csv',
-        `Row ${rowNumber} has ${cells.length} cells but the header has ${headerCells} columns.${hint}`,
-        [{ path: `row ${rowNumber}`, message: 'more cells than the header' }],
+        `Row ${rowNumber}, column ${i + 1}: "${cells[i]}" stands beyond the header's ${headerCells} columns (the row has ${cells.length} cells).${hint}`,
+        [{ path: `row ${rowNumber}, column ${i + 1}`, message: 'more cells than the header' }],
       );
     }
   }

@@ -102,7 +102,9 @@ describe('parseDecaySamplesCsv: bad files', () => {
   });
 
   it('when a comma-separated file has a decimal comma, then the row is refused rather than misread', () => {
-    expect(() => parseDecaySamplesCsv('t,v\n0,560,5\n')).toThrow(/Row 2 has 3 cells.*semicolon/);
+    expect(() => parseDecaySamplesCsv('t,v\n0,560,5\n')).toThrow(
+      'Row 2, column 3: "5" stands beyond the header\'s 2 columns (the row has 3 cells). Decimal commas need a semicolon-separated file.',
+    );
   });
 
   it('when there is no header, then the message says the first row already holds readings', () => {
