@@ -36,7 +36,10 @@ export function RootLayout() {
   if (me.isError) {
     return (
       <CenteredPage>
-        <ErrorPanel title="Ebbline could not check your sign-in">{me.error.message}</ErrorPanel>
+        {/* a 503 (database away, a restart) passes: the query asks again by itself */}
+        <ErrorPanel title={me.error instanceof ApiError && me.error.status === 503 ? 'Ebbline is unavailable for a moment' : 'Ebbline could not check your sign-in'}>
+          {me.error.message}
+        </ErrorPanel>
       </CenteredPage>
     );
   }
