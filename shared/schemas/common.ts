@@ -14,6 +14,7 @@ export const versionField = z
  * Text PostgreSQL cannot store: a NUL character (text columns refuse it) or half of a UTF-16
  * surrogate pair (not a character at all; JSON's `\ud800` escape decodes to one).
  */
+// eslint-disable-next-line no-control-regex -- finding NUL is the point
 const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
 /** True when PostgreSQL can store `text` as it is. */
