@@ -293,7 +293,7 @@ export function fitDecay(
     );
 
   const robust = robustLine(t, lnV, weights);
-  if (!robust || !(robust.slope < 0) || !(v[n - 1]! < v[0]!)) return noDecay();
+  if (!robust || !(robust.slope < 0) || !fallsOverall(v)) return noDecay();
 
   // Screening against the robust line.
   const fitted = new Float64Array(n);
@@ -509,6 +509,19 @@ export function fitDecay(
 const NOISE_SETTLED = 0.2;
 /** Most fits of one pass while the weights settle. */
 const IRLS_ROUNDS = 4;
+
+/**
+ * True when the run ends lower than it starts: the median of the last three readings below the
+ * median of the first three (with fewer than six readings, the last below the first), so one
+ * mistyped first or last reading cannot turn a decay into "no decay".
+ */
+function fallsOverall(v: Float64Array): boolean {
+  const n = v.length;
+  if (n < 6) return v[n - 1]! < v[0]!;
+  const middle = (a: number, b: number, c: number): number =>
+    Math.max(Math.min(a, b), Math.min(Math.max(a, b), c));
+  return middle(v[n - 3]!, v[n - 2]!, v[n - 1]!) < middle(v[0]!, v[1]!, v[2]!);
+}
 
 /** Jᵢᵀ (JᵀWJ)⁻¹ Jᵢ for a reading with derivatives (∂/∂V0, ∂/∂rate) = (e, j2). */
 function quadraticForm(fit: ExponentialFit, e: number, j2: number): number {

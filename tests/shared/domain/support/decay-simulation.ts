@@ -256,7 +256,7 @@ function loggerRun(random: () => number, kind: SimulatedRunKind): SimulatedRun {
   const physics = physicsOf(random, pick(random, [1e6, 10e6]), kind === 'logger-control-supply');
   const tau = trueTauSeconds(physics);
   const knee = kneeSecondsOf(physics);
-  const count = Math.round(logUniform(random, 300, 4000));
+  const count = Math.round(logUniform(random, 200, 3000));
   const span = uniform(random, 1.5, 4);
   const step = (span * tau) / count;
   const noiseVolts = logUniform(random, 0.02, 0.5);
@@ -287,7 +287,7 @@ function loggerRun(random: () => number, kind: SimulatedRunKind): SimulatedRun {
  * - `typo`: the same with one mistyped reading;
  * - `short`: handheld over only 0.25–0.8 τ;
  * - `control-supply`: handheld with a constant-power control supply (3–60 W) above its dropout;
- * - `logger` / `logger-control-supply`: 300–4000 samples over 1.5–4 τ on an exact clock, noise in
+ * - `logger` / `logger-control-supply`: 200–3000 samples over 1.5–4 τ on an exact clock, noise in
  *   volts, a 1 or 10 MΩ input, without and with a control supply.
  *
  * @example
