@@ -59,6 +59,8 @@ function toAppError(err: unknown): AppError | null {
     const message = first ? `${first.path || 'body'}: ${first.message}` : 'Invalid input.';
     return AppError.badRequest(message, issues);
   }
+  // a path parameter with a broken %-escape (the router could not decode it)
+  if (err instanceof URIError) return new AppError('bad-request', 'The address holds a broken %-escape.');
   // body-parser's errors carry a status and `expose`
   const e = err as { status?: number; expose?: boolean; type?: string; message?: string };
   if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500 && e.expose) {
