@@ -4,6 +4,8 @@
  *
  * The usual entry points:
  * - {@link judgeDecayRun}: samples + bank design + baseline + cabinet + conditions → the verdict.
+ * - {@link bankEngineInputs}: a bank as the register keeps it → the design, baseline and cabinet
+ *   that {@link judgeDecayRun} takes (the browser's check and the API use the same one).
  * - {@link fitDecay}: samples → τ with its interval (the fit alone, e.g. for a live preview).
  * - {@link forecastEndOfLife}: a bank's ratio history → end-of-life date, RUL, next visit.
  * - {@link estimateArrheniusLife} / {@link lifeUsed}: life from temperature.
@@ -72,6 +74,8 @@ export type {
   VerdictFinding,
   VerdictFindingCode,
 } from './verdict';
+export { bankEngineInputs } from './bank-engine-inputs';
+export type { BankEngineInputs, BankRecordForEngine, DesignRevisionFigures } from './bank-engine-inputs';
 export { timeToVoltsSeconds, estimateDischargeSafety, iec60204Sentence } from './discharge-safety';
 export type {
   SafeAfterSeconds,

@@ -5,6 +5,7 @@
  */
 import { Op, type Includeable, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import type { BaselineSource } from '../../../shared/constants/register';
+import type { BankRecordForEngine } from '../../../shared/domain/bank-engine-inputs';
 import { bankCapacitanceMicrofarads, tauSecondsOf } from '../../../shared/domain/capacitance';
 import type { BankData, BankListQuery, BankReplacementData, BankUpdate } from '../../../shared/schemas/bank';
 import { AppError } from '../errors';
@@ -115,6 +116,32 @@ export async function getBankLineage(bank: Bank): Promise<Bank[]> {
     later = found.replacedByBankId;
   }
   return chain;
+}
+
+/**
+ * A bank loaded with its cabinet and its design's current revision (`getBank`), in the parts a
+ * decay run on it is judged with: `bankEngineInputs` (shared/domain) turns it into the engine's
+ * inputs exactly as the browser's check does with the bank's answer, which shows the same parts.
+ */
+export function bankRecordForEngine(bank: Bank): BankRecordForEngine {
+  const current = bank.bankDesign?.currentVersion;
+  return {
+    technology: current?.technology ?? 'electrolytic',
+    designFigures: current
+      ? {
+          unitCapacitanceMicrofarads: current.unitCapacitanceMicrofarads,
+          seriesCount: current.seriesCount,
+          parallelCount: current.parallelCount,
+          bleederOhms: current.bleederOhms,
+          tempCoefficientPercentPerKelvin: current.tempCoefficientPercentPerKelvin,
+          watchRatio: current.watchRatio,
+          endOfLifeRatio: current.endOfLifeRatio,
+        }
+      : null,
+    baseline: { capacitanceMicrofarads: bank.baselineCapacitanceMicrofarads, source: bank.baselineSource },
+    cabinetDcBusVolts: bank.cabinet?.dcBusVolts ?? null,
+    cabinetMarkedWaitMinutes: bank.cabinet?.markedWaitMinutes ?? null,
+  };
 }
 
 /** The nameplate baseline of a design revision: C = p × C_unit / s, τ = R_bleed × C. */

@@ -1,11 +1,14 @@
 import type { Bank as BankJson, BankDetail, BankLineageEntry } from '../../../../shared/schemas/bank';
 import { bankCapacitanceMicrofarads } from '../../../../shared/domain/capacitance';
 import type { Bank } from '../../models/bank';
+import { bankRecordForEngine } from '../../services/banks';
 
 /** A bank as the API returns it; the query includes its cabinet, area, site and design. */
 export function presentBank(bank: Bank): BankJson {
   const design = bank.bankDesign;
   const current = design?.currentVersion;
+  // the parts a decay run is judged with come from the one mapping the server judges with too
+  const forEngine = bankRecordForEngine(bank);
   return {
     id: bank.id,
     cabinetId: bank.cabinetId,
@@ -16,22 +19,12 @@ export function presentBank(bank: Bank): BankJson {
     bankDesignId: bank.bankDesignId,
     bankDesignCode: design?.code ?? '',
     bankDesignName: design?.name ?? '',
-    technology: current?.technology ?? 'electrolytic',
+    technology: forEngine.technology,
     designRevision: current?.revision ?? 0,
     nominalCapacitanceMicrofarads: current ? bankCapacitanceMicrofarads(current) : 0,
-    designFigures: current
-      ? {
-          unitCapacitanceMicrofarads: current.unitCapacitanceMicrofarads,
-          seriesCount: current.seriesCount,
-          parallelCount: current.parallelCount,
-          bleederOhms: current.bleederOhms,
-          tempCoefficientPercentPerKelvin: current.tempCoefficientPercentPerKelvin,
-          watchRatio: current.watchRatio,
-          endOfLifeRatio: current.endOfLifeRatio,
-        }
-      : null,
-    cabinetDcBusVolts: bank.cabinet?.dcBusVolts ?? null,
-    cabinetMarkedWaitMinutes: bank.cabinet?.markedWaitMinutes ?? null,
+    designFigures: forEngine.designFigures,
+    cabinetDcBusVolts: forEngine.cabinetDcBusVolts,
+    cabinetMarkedWaitMinutes: forEngine.cabinetMarkedWaitMinutes,
     position: bank.position,
     serialNumber: bank.serialNumber,
     installedOn: bank.installedOn,

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { bankDecayFacts } from '../../../../../web/src/features/decay-check/utils/bank-facts';
+import { bankEngineInputs } from '../../../../../shared/domain/bank-engine-inputs';
 import { readReadingRows } from '../../../../../web/src/features/decay-check/utils/readings';
 import { runDecayCheck } from '../../../../../web/src/features/decay-check/utils/run-check';
 import { bankJson } from '../bank-json';
 
-const facts = bankDecayFacts(bankJson())!;
+const facts = bankEngineInputs(bankJson())!;
 const NAMEPLATE_TAU = 44_000 * 7050e-6; // 310.2 s, the bus on its own
 const TIMES = [0, 30, 60, 90, 120, 180, 240, 300, 360, 420];
 const decay = (tau: number) => TIMES.map((t) => ({ time: String(t), volts: (560 * Math.exp(-t / tau)).toFixed(1) }));

@@ -3,10 +3,9 @@ import type { Bank } from '../../../../../shared/schemas/bank';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { Field, inputClass, TextArea, UnitInput } from '../../../components/ui/field';
-import { formatPercentFigure } from '../../../../../shared/domain';
+import { formatPercentFigure, type BankEngineInputs } from '../../../../../shared/domain';
 import { formatMicrofarads, formatOhms, formatSeconds, formatVolts } from '../../../lib/units';
 import { useDecayCheck } from '../hooks/use-decay-check';
-import type { BankDecayFacts } from '../utils/bank-facts';
 import { seconds } from '../utils/figures';
 import { leftOutRows, type LeftOutMark } from '../utils/left-out-rows';
 import { readPastedReadings, type ReadingIssue, type ReadingRow } from '../utils/readings';
@@ -14,7 +13,7 @@ import type { DecayCheckOutcome } from '../utils/run-check';
 import { DecayVerdictView } from './decay-verdict';
 
 /** What the check is judged with, in one paragraph, so an engineer can see where each figure comes from. */
-function JudgedWith({ bank, facts }: { bank: Bank; facts: BankDecayFacts }) {
+function JudgedWith({ bank, facts }: { bank: Bank; facts: BankEngineInputs }) {
   const { design, baseline, cabinet } = facts;
   const c = design.construction;
   const k = bank.designFigures?.tempCoefficientPercentPerKelvin ?? 0;

@@ -1,6 +1,6 @@
 import { useDeferredValue, useMemo, useState } from 'react';
+import { bankEngineInputs } from '../../../../../shared/domain';
 import type { Bank } from '../../../../../shared/schemas/bank';
-import { bankDecayFacts } from '../utils/bank-facts';
 import { readConditions, readReadingRows, type ConditionInputs, type ReadingRow } from '../utils/readings';
 import { runDecayCheck } from '../utils/run-check';
 
@@ -14,7 +14,7 @@ const FIRST_ROWS = 4;
 export function useDecayCheck(bank: Bank) {
   const [rows, setRows] = useState<ReadingRow[]>(() => Array.from({ length: FIRST_ROWS }, () => EMPTY_ROW));
   const [inputs, setInputs] = useState<ConditionInputs>({ bankTempC: '', meterInputMegohms: '', measuredBleederKilohms: '' });
-  const facts = useMemo(() => bankDecayFacts(bank), [bank]);
+  const facts = useMemo(() => bankEngineInputs(bank), [bank]);
   // a fast typist is never held up by the fit
   const typedRows = useDeferredValue(rows);
   const typedInputs = useDeferredValue(inputs);

@@ -1,5 +1,10 @@
-import { EngineInputError, judgeDecayRun, type DecayVerdict, type RunConditions } from '../../../../../shared/domain';
-import type { BankDecayFacts } from './bank-facts';
+import {
+  EngineInputError,
+  judgeDecayRun,
+  type BankEngineInputs,
+  type DecayVerdict,
+  type RunConditions,
+} from '../../../../../shared/domain';
 import type { ReadRows } from './readings';
 
 /** What the panel shows for the readings typed so far. */
@@ -21,7 +26,7 @@ export type DecayCheckOutcome =
  * runDecayCheck(facts, readReadingRows(rows), {})
  * // { kind: 'verdict', verdict: { tauSeconds: 331, health: 'healthy', ... }, rowNumbers: [1, 2, ...] }
  */
-export function runDecayCheck(facts: BankDecayFacts, readings: ReadRows, conditions: RunConditions): DecayCheckOutcome {
+export function runDecayCheck(facts: BankEngineInputs, readings: ReadRows, conditions: RunConditions): DecayCheckOutcome {
   if (readings.samples.length === 0) return { kind: 'empty' };
   try {
     const result = judgeDecayRun({ samples: readings.samples, ...facts, conditions });
