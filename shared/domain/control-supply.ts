@@ -117,6 +117,10 @@ export function estimateControlSupplyWatts(
  */
 const SCAN_ALPHA = 0.01;
 const MAX_CANDIDATE_ALPHA = 0.001;
+/** The reading just before the knee lies this many scatter-widths above the RC line, or the knee may move earlier. */
+const EDGE_Z = 2.5;
+/** How many readings further back than the latest passing knee an edge is looked for. */
+const EDGE_SEARCH = 20;
 /** Each reading before the knee must lie above the RC line by at least this one-sided quantile. */
 const EARLIER_ALPHA = 0.1;
 /**
@@ -207,6 +211,7 @@ export function findControlSupplyKnee(
   };
   const ratioPlausible = (j: number): boolean =>
     lnVolts[j]! - (intercept + slope * (tSeconds[j]! - reference)) < Math.log(MAX_PHASE_RATIO);
+  let found = 0;
   for (let h = n - 1; h >= 1; h--) {
     if (usable[h]) {
       const w = logWeights[h]!;
@@ -220,6 +225,7 @@ export function findControlSupplyKnee(
       syy += w * y * y;
       count++;
     }
+    if (found > 0 && found - h > EDGE_SEARCH) break;
     if (count < 3) continue;
     if (volts[h]! < lowestKneeVolts) continue;
     xMean = s1 / s0;
@@ -239,6 +245,7 @@ export function findControlSupplyKnee(
     // measured against the same uncertain line.
     const each = eachCritical(degreesOfFreedom);
     let all = true;
+    const lastAbove = above(h - 1);
     let sumW = 0;
     let sumWdx = 0;
     let sumWd = 0;
@@ -250,11 +257,16 @@ export function findControlSupplyKnee(
       sumWdx += w * (x - xMean);
       sumWd += w * (lnVolts[j]! - (intercept + slope * x));
     }
-    if (!all) continue;
     const spread = Math.sqrt(sumW + (sumW * sumW) / s0 + (sumWdx * sumWdx) / sxx);
-    if (sumWd / (scale * spread) > kneeCritical(degreesOfFreedom)) return h;
+    const passes = all && sumWd / (scale * spread) > kneeCritical(degreesOfFreedom);
+    if (!passes) continue;
+    // The latest passing h may have taken readings after the knee that sat above the curve by
+    // chance. The knee is the latest passing h whose reading just before lies clearly above the
+    // line (looking a few readings further back); without one, the latest passing h.
+    if (lastAbove > EDGE_Z) return h;
+    if (found === 0) found = h;
   }
-  return 0;
+  return found;
 }
 
 /** The constant-power model fitted to the readings before the knee (see {@link fitControlSupplyPhase}). */
