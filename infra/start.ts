@@ -17,7 +17,9 @@ import { localIssuer, usesLocalProvider } from './identity/settings';
 
 const t0 = performance.now();
 const note = (message: string) =>
-  process.stdout.write(`[ebbline] ${message} (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`);
+  process.stdout.write(
+    `[ebbline] ${message} (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`,
+  );
 /** Notes a finished step; a stop that began meanwhile ends the start here (nothing more starts). */
 const step = (message: string) => {
   if (stopping) throw new Error('stopped while starting');
@@ -76,7 +78,12 @@ try {
   if (flagSet(process.env.SKIP_WEB_BUILD)) {
     step(`serving the web app already built in ${webDistDir}`);
   } else {
-    await build({ configFile: 'vite.config.ts', logLevel: 'warn', mode: 'production', build: { outDir: path.resolve(webDistDir) } });
+    await build({
+      configFile: 'vite.config.ts',
+      logLevel: 'warn',
+      mode: 'production',
+      build: { outDir: path.resolve(webDistDir) },
+    });
     step(`built the web app into ${webDistDir}`);
   }
 
@@ -99,7 +106,11 @@ try {
   const { seedDemo } = await import('./seed/index');
   const seeded = await seedDemo();
   const words = (key: string) => key.replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`);
-  step(`demo scenario ready (${Object.entries(seeded).map(([k, v]) => `${v} ${words(k)}`).join(', ')})`);
+  step(
+    `demo scenario ready (${Object.entries(seeded)
+      .map(([k, v]) => `${v} ${words(k)}`)
+      .join(', ')})`,
+  );
 
   if (localProvider) {
     const { startIdentityProvider } = await import('./identity/index');

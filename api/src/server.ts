@@ -28,7 +28,11 @@ function refuseWhileStopping(req: http.IncomingMessage, res: http.ServerResponse
     'cache-control': 'no-store',
     connection: 'close',
   });
-  res.end(api ? JSON.stringify({ error: { code: 'stopping', message: STOPPING_MESSAGE } }) : STOPPING_MESSAGE);
+  res.end(
+    api
+      ? JSON.stringify({ error: { code: 'stopping', message: STOPPING_MESSAGE } })
+      : STOPPING_MESSAGE,
+  );
 }
 
 /** Starts the API (and the built web app) on config.HOST:config.PORT. */
@@ -67,12 +71,19 @@ export async function startServer(): Promise<RunningServer> {
         draining = true;
         markStopping();
         if (inFlight.size > 0) {
-          logger.info({ inFlight: inFlight.size, graceMs }, 'stopping: letting the requests in flight finish');
+          logger.info(
+            { inFlight: inFlight.size, graceMs },
+            'stopping: letting the requests in flight finish',
+          );
           await new Promise<void>((resolve) => {
             drained = resolve;
             setTimeout(resolve, graceMs).unref();
           });
-          if (inFlight.size > 0) logger.warn({ cut: inFlight.size }, 'requests still open after the grace period are cut');
+          if (inFlight.size > 0)
+            logger.warn(
+              { cut: inFlight.size },
+              'requests still open after the grace period are cut',
+            );
         }
         const closed = new Promise<void>((resolve) => server.close(() => resolve()));
         // what is left is idle keep-alive connections, or requests past the grace period

@@ -14,9 +14,18 @@ import { afterAll, describe, expect, it, onTestFailed } from 'vitest';
 import { PROJECT_ROOT } from '../../infra/local-cluster';
 import { isRunning, stopCluster } from '../../infra/postgres';
 import { holdRequest } from '../support/held-request';
-import { freePort, processExists, startProcess, waitUntil, type RunningProcess } from '../support/processes';
+import {
+  freePort,
+  processExists,
+  startProcess,
+  waitUntil,
+  type RunningProcess,
+} from '../support/processes';
 
-const dataDir = path.resolve(PROJECT_ROOT, `${process.env.PG_TEST_DATA_DIR || '.data/pg-test'}-stop`);
+const dataDir = path.resolve(
+  PROJECT_ROOT,
+  `${process.env.PG_TEST_DATA_DIR || '.data/pg-test'}-stop`,
+);
 const identityDir = `${dataDir}-identity`;
 const ports = { app: await freePort(), idp: await freePort(), pg: await freePort() };
 const baseUrl = `http://localhost:${ports.app}`;
@@ -24,7 +33,15 @@ const baseUrl = `http://localhost:${ports.app}`;
 /** The start command's environment: its own ports and folders, nothing of the test run's database. */
 function startEnv(): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = { ...process.env };
-  for (const name of ['DATABASE_URL', 'MIGRATION_DATABASE_URL', 'OIDC_ISSUER', 'APP_URL', 'NODE_ENV', 'PORT']) delete env[name];
+  for (const name of [
+    'DATABASE_URL',
+    'MIGRATION_DATABASE_URL',
+    'OIDC_ISSUER',
+    'APP_URL',
+    'NODE_ENV',
+    'PORT',
+  ])
+    delete env[name];
   return {
     ...env,
     PORT: String(ports.app),
@@ -44,7 +61,11 @@ function startEnv(): NodeJS.ProcessEnv {
  * can answer: 401 invalid-token proves PostgreSQL still answered, 503 that it was gone.
  */
 const holdSiteRequest = () =>
-  holdRequest(`${baseUrl}/api/sites`, { name: 'Held works', code: 'HW', address: '', timeZone: 'Europe/London' }, { authorization: 'Bearer not-a-token' });
+  holdRequest(
+    `${baseUrl}/api/sites`,
+    { name: 'Held works', code: 'HW', address: '', timeZone: 'Europe/London' },
+    { authorization: 'Bearer not-a-token' },
+  );
 
 function portAccepts(port: number): Promise<boolean> {
   return new Promise((resolve) => {
@@ -76,7 +97,12 @@ function processGroupMembers(pgid: number): number[] {
 
 /** The pid of npm's child (the start orchestrator, a plain node process). */
 function childOf(pid: number): number | undefined {
-  const children = fs.readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8').trim().split(/\s+/).filter(Boolean).map(Number);
+  const children = fs
+    .readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8')
+    .trim()
+    .split(/\s+/)
+    .filter(Boolean)
+    .map(Number);
   return children[0];
 }
 
@@ -97,21 +123,30 @@ describe('npm start, stopped by SIGTERM', () => {
   ])(
     'when sent to %s, then readiness turns 503, the requests in flight finish, and nothing is left running',
     async (_target, sendSigterm) => {
-      running = startProcess('npm', ['start'], { cwd: PROJECT_ROOT, env: startEnv(), detached: true });
+      running = startProcess('npm', ['start'], {
+        cwd: PROJECT_ROOT,
+        env: startEnv(),
+        detached: true,
+      });
       const npm = running;
       onTestFailed(() => {
         console.error(`npm start's output:\n${npm.output().slice(-6000)}`);
       });
       const npmPid = npm.child.pid!;
       started.push(npmPid);
-      await waitUntil(async () => npm.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200, {
-        timeoutMs: 150_000,
-        what: 'npm start serving /api/health',
-        intervalMs: 200,
-      });
+      await waitUntil(
+        async () => npm.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200,
+        {
+          timeoutMs: 150_000,
+          what: 'npm start serving /api/health',
+          intervalMs: 200,
+        },
+      );
       const serverPid = childOf(npmPid)!;
       started.push(serverPid);
-      const postmasterPid = Number(fs.readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+      const postmasterPid = Number(
+        fs.readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0],
+      );
       expect(processExists(serverPid) && processExists(postmasterPid)).toBe(true);
 
       const held = await Promise.all([holdSiteRequest(), holdSiteRequest(), holdSiteRequest()]);
@@ -121,7 +156,12 @@ describe('npm start, stopped by SIGTERM', () => {
       const health = await waitUntil(
         async () => {
           const res = await fetch(`${baseUrl}/api/health`);
-          return res.status === 503 ? { body: (await res.json()) as { status: string }, retryAfter: res.headers.get('retry-after') } : false;
+          return res.status === 503
+            ? {
+                body: (await res.json()) as { status: string },
+                retryAfter: res.headers.get('retry-after'),
+              }
+            : false;
         },
         { timeoutMs: 30_000, what: 'readiness answering 503' },
       );

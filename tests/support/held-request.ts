@@ -11,7 +11,11 @@ export interface HeldRequest {
 }
 
 /** Starts `POST url` with a JSON body and holds it after its first bytes. */
-export async function holdRequest(url: string, body: unknown, headers: Record<string, string> = {}): Promise<HeldRequest> {
+export async function holdRequest(
+  url: string,
+  body: unknown,
+  headers: Record<string, string> = {},
+): Promise<HeldRequest> {
   const text = JSON.stringify(body);
   const req = http.request(url, {
     method: 'POST',

@@ -26,7 +26,11 @@ export interface RunningProcess {
 }
 
 /** Spawns `command` with its output kept in memory rather than mixed into the test's. */
-export function startProcess(command: string, args: string[], options: SpawnOptions): RunningProcess {
+export function startProcess(
+  command: string,
+  args: string[],
+  options: SpawnOptions,
+): RunningProcess {
   const child = spawn(command, args, { ...options, stdio: ['ignore', 'pipe', 'pipe'] });
   let output = '';
   child.stdout?.on('data', (chunk: Buffer) => (output += chunk.toString()));
@@ -60,7 +64,9 @@ export async function waitUntil<T>(
       last = err;
     }
     if (Date.now() > deadline) {
-      throw new Error(`${what}: not reached within ${timeoutMs} ms${last ? ` (last error: ${String(last)})` : ''}`);
+      throw new Error(
+        `${what}: not reached within ${timeoutMs} ms${last ? ` (last error: ${String(last)})` : ''}`,
+      );
     }
     await new Promise((resolve) => setTimeout(resolve, intervalMs));
   }

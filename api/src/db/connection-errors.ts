@@ -51,7 +51,10 @@ export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
   if (!err || typeof err !== 'object' || depth > 5) return false;
   if (err instanceof ConnectionError) return true;
   const e = err as ErrorLike;
-  if (typeof e.code === 'string' && (UNAVAILABLE_SQLSTATE.test(e.code) || UNAVAILABLE_ERRNO.has(e.code))) {
+  if (
+    typeof e.code === 'string' &&
+    (UNAVAILABLE_SQLSTATE.test(e.code) || UNAVAILABLE_ERRNO.has(e.code))
+  ) {
     return true;
   }
   if (typeof e.message === 'string' && UNAVAILABLE_MESSAGE.test(e.message)) return true;
@@ -72,5 +75,7 @@ export const DATABASE_RETRY_AFTER_SECONDS = 2;
  * broken client away and connects afresh on the next query, so noting it is all there is to do.
  */
 export function survivePoolErrors(pool: EventEmitter, name: string): void {
-  pool.on('error', (err: unknown) => logger.warn({ pool: name, err }, 'an idle database connection was lost'));
+  pool.on('error', (err: unknown) =>
+    logger.warn({ pool: name, err }, 'an idle database connection was lost'),
+  );
 }

@@ -56,19 +56,26 @@ let server: RunningProcess | undefined;
 
 beforeAll(async () => {
   // as npm start and npm test do it: the migrations load .ts files, which need tsx's loader
-  const migration = startProcess(process.execPath, ['--import', 'tsx', 'api/src/db/migrate-cli.ts'], {
-    cwd: PROJECT_ROOT,
-    env: { ...process.env, LOG_LEVEL: 'warn' },
-  });
+  const migration = startProcess(
+    process.execPath,
+    ['--import', 'tsx', 'api/src/db/migrate-cli.ts'],
+    {
+      cwd: PROJECT_ROOT,
+      env: { ...process.env, LOG_LEVEL: 'warn' },
+    },
+  );
   if ((await migration.exited) !== 0) throw new Error(`migrating failed:\n${migration.output()}`);
   server = startProcess(process.execPath, ['--import', 'tsx', 'api/src/server.ts'], {
     cwd: PROJECT_ROOT,
     env: { ...process.env, NODE_ENV: 'test', LOG_LEVEL: 'warn', WEB_DIST_DIR: '' },
   });
-  await waitUntil(async () => server!.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200, {
-    timeoutMs: 60_000,
-    what: 'the server answering /api/health',
-  }).catch((err: Error) => {
+  await waitUntil(
+    async () => server!.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200,
+    {
+      timeoutMs: 60_000,
+      what: 'the server answering /api/health',
+    },
+  ).catch((err: Error) => {
     throw new Error(`${err.message}\n${server!.output()}`);
   });
   await startTestIdentityProvider();
@@ -90,19 +97,41 @@ describe('when PostgreSQL stops and starts again under load', () => {
     });
     const session = await signInOverHttp(baseUrl, 'tomas', 'tidewater-plan');
     const headers = { cookie: session.cookie, origin: baseUrl };
-    const writeHeaders = { ...headers, 'content-type': 'application/json', 'x-csrf-token': session.csrfToken };
+    const writeHeaders = {
+      ...headers,
+      'content-type': 'application/json',
+      'x-csrf-token': session.csrfToken,
+    };
     let written = 0;
-    const requests: Array<{ name: string; send: () => { sent: Promise<Response>; siteName?: string } }> = [
+    const requests: Array<{
+      name: string;
+      send: () => { sent: Promise<Response>; siteName?: string };
+    }> = [
       { name: 'GET /api/me', send: () => ({ sent: fetch(`${baseUrl}/api/me`, { headers }) }) },
-      { name: 'GET /api/sites', send: () => ({ sent: fetch(`${baseUrl}/api/sites`, { headers }) }) },
+      {
+        name: 'GET /api/sites',
+        send: () => ({ sent: fetch(`${baseUrl}/api/sites`, { headers }) }),
+      },
       { name: 'GET /api/health', send: () => ({ sent: fetch(`${baseUrl}/api/health`) }) },
       {
         name: 'POST /api/sites',
         send: () => {
           written += 1;
           const siteName = `Outage works ${written}`;
-          const body = { name: siteName, code: `W${written.toString(36).toUpperCase()}`, address: '', timeZone: 'Europe/London' };
-          return { sent: fetch(`${baseUrl}/api/sites`, { method: 'POST', headers: writeHeaders, body: JSON.stringify(body) }), siteName };
+          const body = {
+            name: siteName,
+            code: `W${written.toString(36).toUpperCase()}`,
+            address: '',
+            timeZone: 'Europe/London',
+          };
+          return {
+            sent: fetch(`${baseUrl}/api/sites`, {
+              method: 'POST',
+              headers: writeHeaders,
+              body: JSON.stringify(body),
+            }),
+            siteName,
+          };
         },
       },
     ];
@@ -121,8 +150,7 @@ describe('when PostgreSQL stops and starts again under load', () => {
           answer.status = res.status;
           answer.retryAfter = res.headers.get('retry-after');
           const body = (await res.json().catch(() => undefined)) as
-            | { error?: { code?: string; message?: string }; name?: string }
-            | undefined;
+            { error?: { code?: string; message?: string }; name?: string } | undefined;
           answer.code = body?.error?.code;
           answer.message = body?.error?.message;
         } catch (err) {
@@ -132,10 +160,14 @@ describe('when PostgreSQL stops and starts again under load', () => {
       }
     };
     const workers = [0, 1, 2, 3].map(worker);
-    const answered = (after: number, check: (a: Answer) => boolean) => answers.filter((a) => a.startedAt >= after && check(a));
+    const answered = (after: number, check: (a: Answer) => boolean) =>
+      answers.filter((a) => a.startedAt >= after && check(a));
 
     // some writes acknowledged before the stop
-    await waitUntil(() => answered(0, (a) => a.status === 201).length >= 3, { timeoutMs: 20_000, what: 'writes before the stop' });
+    await waitUntil(() => answered(0, (a) => a.status === 201).length >= 3, {
+      timeoutMs: 20_000,
+      what: 'writes before the stop',
+    });
 
     stopCluster(cluster); // pg_ctl stop -m fast, with four requests in flight
     const downSince = Date.now();
@@ -157,22 +189,35 @@ describe('when PostgreSQL stops and starts again under load', () => {
         const me = await fetch(`${baseUrl}/api/me`, { headers });
         return me.status === 200 ? Date.now() : false;
       },
-      { timeoutMs: 5_000, what: 'the same session working again within 5 s of PostgreSQL accepting connections', intervalMs: 25 },
+      {
+        timeoutMs: 5_000,
+        what: 'the same session working again within 5 s of PostgreSQL accepting connections',
+        intervalMs: 25,
+      },
     );
     // keep the load on a little after recovery, then stop it
-    await waitUntil(() => answered(back, (a) => a.name === 'POST /api/sites' && a.status === 201).length >= 2, {
-      timeoutMs: 20_000,
-      what: 'writes acknowledged after the restart',
-    });
+    await waitUntil(
+      () => answered(back, (a) => a.name === 'POST /api/sites' && a.status === 201).length >= 2,
+      {
+        timeoutMs: 20_000,
+        what: 'writes acknowledged after the restart',
+      },
+    );
     loadRunning = false;
     await Promise.all(workers);
 
     const during = answers.filter((a) => a.startedAt >= downSince && a.startedAt < downUntil);
     expect(during.length).toBeGreaterThan(0);
     for (const answer of during) {
-      expect(answer, `${answer.name} while PostgreSQL was stopped (${answer.message}); server output:\n${server!.output().slice(-3000)}`).toMatchObject({ status: 503, retryAfter: expect.stringMatching(/^\d+$/) });
+      expect(
+        answer,
+        `${answer.name} while PostgreSQL was stopped (${answer.message}); server output:\n${server!.output().slice(-3000)}`,
+      ).toMatchObject({ status: 503, retryAfter: expect.stringMatching(/^\d+$/) });
       if (answer.name !== 'GET /api/health') {
-        expect(answer).toMatchObject({ code: 'database-unavailable', message: DATABASE_UNAVAILABLE_MESSAGE });
+        expect(answer).toMatchObject({
+          code: 'database-unavailable',
+          message: DATABASE_UNAVAILABLE_MESSAGE,
+        });
       }
     }
     // around the stop and the start: the normal answer or 503, never a 500 and never a cut connection
@@ -186,7 +231,10 @@ describe('when PostgreSQL stops and starts again under load', () => {
     const db = new pg.Client({ connectionString: urls.databaseUrl });
     await db.connect();
     try {
-      const { rows } = await db.query<{ name: string }>('SELECT name FROM sites WHERE name = ANY($1)', [acknowledged]);
+      const { rows } = await db.query<{ name: string }>(
+        'SELECT name FROM sites WHERE name = ANY($1)',
+        [acknowledged],
+      );
       expect(rows.map((r) => r.name).sort()).toEqual([...acknowledged].sort());
     } finally {
       await db.end();

@@ -18,7 +18,8 @@ let issuer: string;
 let server: http.Server;
 
 /** What node-postgres throws while PostgreSQL is stopped. */
-const refused = () => Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5433'), { code: 'ECONNREFUSED' });
+const refused = () =>
+  Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5433'), { code: 'ECONNREFUSED' });
 /** Records in memory that can be made unreachable, as the PostgreSQL store is in an outage. */
 let databaseDown = false;
 const records = memoryStore();
@@ -88,7 +89,10 @@ afterAll(async () => {
 describe('the sign-in service while its database is away', () => {
   it('when a browser starts a sign-in, then 503 with Retry-After and a page that says to try again in a moment', async () => {
     databaseDown = true;
-    const res = await fetch(authorizeUrl(), { redirect: 'manual', headers: { accept: 'text/html' } });
+    const res = await fetch(authorizeUrl(), {
+      redirect: 'manual',
+      headers: { accept: 'text/html' },
+    });
     expect(res.status).toBe(503);
     expect(res.headers.get('retry-after')).toMatch(/^\d+$/);
     expect(await res.text()).toContain('reach its database');
@@ -101,7 +105,9 @@ describe('the sign-in service while its database is away', () => {
     jar.take(begun.headers.getSetCookie());
     expect(begun.status).toBe(303);
     databaseDown = true;
-    const res = await fetch(new URL(begun.headers.get('location')!, issuer), { headers: { cookie: jar.header(), accept: 'text/html' } });
+    const res = await fetch(new URL(begun.headers.get('location')!, issuer), {
+      headers: { cookie: jar.header(), accept: 'text/html' },
+    });
     expect(res.status).toBe(503);
     expect(res.headers.get('retry-after')).toMatch(/^\d+$/);
     expect(await res.text()).toContain('reach its database');
