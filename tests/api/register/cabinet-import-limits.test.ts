@@ -68,6 +68,17 @@ describe('the problem list', () => {
   });
 });
 
+describe('a large good file', () => {
+  it('when 600 good rows are imported (several statements), then every cabinet is stored with its audit entry, in one go', async () => {
+    const [cabinets, audit] = [await countRows('cabinets'), await countRows('audit_entries')];
+    const res = await upload('/api/cabinets/import', csvOf(600, (i) => `LIM,Line 1,LIM-BULK-${String(i).padStart(4, '0')},,,,400,,,,,,,`), 'bulk.csv');
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ committed: true, createdCount: 600, rowCount: 600, problemCount: 0, problemsNotListed: 0 });
+    expect(res.body.rows).toHaveLength(IMPORT_ROWS_LISTED);
+    expect([await countRows('cabinets'), await countRows('audit_entries')]).toEqual([cabinets + 600, audit + 600]);
+  });
+});
+
 describe('the row limit', () => {
   it('when the file has a million one-character rows, then the preview answers 413 naming the limit, in a small answer', async () => {
     const file = millionRows();
