@@ -1,6 +1,6 @@
 /**
  * `npm start` stops cleanly on SIGTERM, sent to its whole process group (as a terminal's Ctrl-C
- * or a service manager does) or to npm alone: readiness answers 503 at once, the requests in
+ * or a service manager does) or to npm alone, and when npm dies outright: readiness answers 503 at once, the requests in
  * flight finish while PostgreSQL still answers them, then everything ends and nothing is left:
  * no server, no sign-in service, no PostgreSQL.
  *
@@ -116,12 +116,17 @@ afterAll(() => {
   for (const dir of [dataDir, identityDir]) fs.rmSync(dir, { recursive: true, force: true });
 }, 60_000);
 
-describe('npm start, stopped by SIGTERM', () => {
+describe('npm start, stopped by a signal', () => {
   it.each([
-    ['the whole process group', (npmPid: number) => process.kill(-npmPid, 'SIGTERM')],
-    ['npm alone', (npmPid: number) => process.kill(npmPid, 'SIGTERM')],
+    [
+      'SIGTERM goes to the whole process group',
+      (npmPid: number) => process.kill(-npmPid, 'SIGTERM'),
+    ],
+    ['SIGTERM goes to npm alone', (npmPid: number) => process.kill(npmPid, 'SIGTERM')],
+    // npm gone without passing anything on: the orchestrator notices that its parent is gone
+    ['npm is killed outright (SIGKILL)', (npmPid: number) => process.kill(npmPid, 'SIGKILL')],
   ])(
-    'when sent to %s, then readiness turns 503, the requests in flight finish, and nothing is left running',
+    'when %s, then readiness turns 503, the requests in flight finish, and nothing is left running',
     async (_target, sendSigterm) => {
       running = startProcess('npm', ['start'], {
         cwd: PROJECT_ROOT,
