@@ -47,21 +47,13 @@ export type ErrorCode = (typeof ERROR_CODES)[number];
  */
 export class AppError extends Error {
   override name = 'AppError';
-  /** Stable kebab-case code, e.g. "not-found". */
-  readonly code: string;
-  readonly issues?: FieldIssue[];
-  /** Only for the deprecated form that names a status (a code without a mapping yet). */
-  readonly fallbackStatus?: number;
-
-  constructor(code: ErrorCode, message: string, issues?: FieldIssue[]);
-  /** @deprecated Name a code of `ERROR_CODES` instead: the error middleware maps codes to statuses. */
-  constructor(code: string, status: number, message: string, issues?: FieldIssue[]);
-  constructor(code: string, statusOrMessage: number | string, messageOrIssues?: string | FieldIssue[], issues?: FieldIssue[]) {
-    const legacy = typeof statusOrMessage === 'number';
-    super(legacy ? String(messageOrIssues) : statusOrMessage);
-    this.code = code;
-    this.issues = legacy ? issues : (messageOrIssues as FieldIssue[] | undefined);
-    if (legacy) this.fallbackStatus = statusOrMessage;
+  constructor(
+    /** Stable kebab-case code, e.g. "not-found". */
+    readonly code: ErrorCode,
+    message: string,
+    readonly issues?: FieldIssue[],
+  ) {
+    super(message);
   }
 
   static badRequest(message: string, issues?: FieldIssue[]): AppError {

@@ -36,9 +36,9 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'confirmation-needed': 422,
 };
 
-/** The status an AppError answers with: its code's, else (deprecated form) the one it names, else 500. */
+/** The status an AppError answers with: its code's. */
 export function httpStatusOf(error: AppError): number {
-  return HTTP_STATUS_OF_CODE[error.code as ErrorCode] ?? error.fallbackStatus ?? 500;
+  return HTTP_STATUS_OF_CODE[error.code];
 }
 
 /** Unknown /api paths answer in the standard error shape rather than Express's HTML. */

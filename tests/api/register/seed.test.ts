@@ -63,6 +63,20 @@ describe('the demo register', () => {
     expect(missing.n).toBe(0);
   });
 
+  it('when seeded, then its audit entries are written in its one unit of work: one instant, each naming the demo person it acts as', async () => {
+    const entries = await one<{ instants: number; people: string }>(
+      `SELECT count(DISTINCT at)::int AS instants, string_agg(DISTINCT actor_name, ',' ORDER BY actor_name) AS people FROM audit_entries`,
+    );
+    expect(entries.instants).toBe(1);
+    const [planner, engineer] = await Promise.all([
+      one<{ name: string }>(`SELECT name FROM users WHERE email = 'tomas@brackenmoor.example'`),
+      one<{ name: string }>(`SELECT name FROM users WHERE email = 'ines@brackenmoor.example'`),
+    ]);
+    expect(entries.people.split(',').sort()).toEqual([planner.name, engineer.name].sort());
+    const stamped = await one<{ n: number }>(`SELECT count(*)::int AS n FROM banks b JOIN audit_entries a ON a.entity_id = b.id AND a.action = 'create' WHERE b.baseline_set_at <> a.at`);
+    expect(stamped.n).toBe(0);
+  });
+
   it('when seeded again, then nothing is added (idempotent by natural keys)', async () => {
     const again = await seedDemo();
     expect(again).toMatchObject({ sites: 0, areas: 0, cabinets: 0, bankDesigns: 0, banks: 0, spares: 0 });

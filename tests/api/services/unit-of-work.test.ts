@@ -10,6 +10,7 @@ import { AppError, ERROR_CODES } from '../../../api/src/errors';
 import { errorHandler, HTTP_STATUS_OF_CODE } from '../../../api/src/middleware/error-handler';
 import { createBank } from '../../../api/src/services/banks';
 import { retireCabinet } from '../../../api/src/services/cabinets';
+import { updatePerson } from '../../../api/src/services/people';
 import { createSite, updateSite } from '../../../api/src/services/sites';
 import { withUnitOfWork } from '../../../api/src/services/unit-of-work';
 import { countRows, createActor, makeArea, makeCabinet, makeDesign, makeSite } from '../../support/register';
@@ -83,6 +84,33 @@ describe('withUnitOfWork', () => {
       createSite(uow, { name: `${site.name} again`, code: site.code, address: '', timeZone: 'UTC' }),
     ).catch((err: unknown) => err);
     expect(clash).toMatchObject({ code: 'duplicate', issues: [{ path: 'code' }] });
+  });
+});
+
+describe('people changes in a unit of work', () => {
+  const origin = { ip: '127.0.0.1', userAgent: 'unit-of-work test' };
+
+  it('when an admin changes a person’s roles, then the sign-in log entry is written with the change, at its instant, naming the admin', async () => {
+    const admin = await createActor(['admin']);
+    const person = await createActor(['technician']);
+    const at = new Date('2032-01-02T03:04:05.000Z');
+    const changed = await withUnitOfWork(admin.actor, (uow) => updatePerson(uow, person.user.id, { roles: ['planner'] }, origin), { now: at });
+    expect(changed.roles).toEqual(['planner']);
+    const entries = await rows<{ kind: string; created_at: Date; actor_id: string }>(
+      `SELECT kind, created_at, actor_id FROM access_events WHERE user_id = :id`,
+      { id: person.user.id },
+    );
+    expect(entries).toEqual([{ kind: 'roles-changed', created_at: at, actor_id: admin.actor.id }]);
+  });
+
+  it('when the change is refused, then neither the person nor the log changes', async () => {
+    const admin = await createActor(['admin']);
+    const logBefore = await countRows('access_events');
+    const refusal = withUnitOfWork(admin.actor, (uow) => updatePerson(uow, admin.user.id, { roles: ['planner'], active: false }, origin));
+    await expect(refusal).rejects.toMatchObject({ code: 'conflict' });
+    expect(await countRows('access_events')).toBe(logBefore);
+    const [me] = await rows<{ roles: string[]; active: boolean }>(`SELECT roles, active FROM users WHERE id = :id`, { id: admin.user.id });
+    expect(me).toEqual({ roles: ['admin'], active: true });
   });
 });
 
