@@ -20,7 +20,8 @@ beforeAll(async () => {
   cabinetId = (await makeCabinet(planner.actor, area.id)).id;
   designId = (await makeDesign(reliability.actor)).id;
   filmDesignId = (
-    await makeDesign(reliability.actor, { technology: 'film', unitCapacitanceMicrofarads: 1000, seriesCount: 1, parallelCount: 1, bleederOhms: 100_000 })
+    // a single 900 V film unit: rated above the 540 V bus of the test cabinets
+    await makeDesign(reliability.actor, { technology: 'film', unitCapacitanceMicrofarads: 1000, unitRatedVolts: 900, seriesCount: 1, parallelCount: 1, bleederOhms: 100_000 })
   ).id;
 });
 
