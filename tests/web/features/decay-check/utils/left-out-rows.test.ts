@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ExcludedReading } from '../../../../../shared/domain';
 import { leftOutRows } from '../../../../../web/src/features/decay-check/utils/left-out-rows';
-import { microfarads, seconds, todayOn } from '../../../../../web/src/features/decay-check/utils/figures';
+import { microfarads, ohms, seconds, todayOn } from '../../../../../web/src/features/decay-check/utils/figures';
 
 const reading = (index: number, code: ExcludedReading['code'], reason: string): ExcludedReading => ({
   index,
@@ -37,6 +37,9 @@ describe('figures of the decay check', () => {
     expect(seconds(45.27)).toBe('45.3 s');
     expect(seconds(376.4)).toBe('376 s (6.3 min)');
     expect(microfarads(1522.4)).toBe('1,520 µF');
+    expect(ohms(147_783)).toBe('148 kΩ');
+    expect(ohms(10_000_000)).toBe('10 MΩ');
+    expect(ohms(470)).toBe('470 Ω');
   });
 
   it('when today is asked, then the local calendar date', () => {

@@ -12,8 +12,8 @@ import type { HealthName } from '../../../../../shared/constants/health';
 import { Badge } from '../../../components/ui/badge';
 import { DetailList } from '../../../components/ui/detail-list';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
-import { formatOhms, formatVolts } from '../../../lib/units';
-import { microfarads, seconds, todayOn } from '../utils/figures';
+import { formatVolts } from '../../../lib/units';
+import { microfarads, ohms, seconds, todayOn } from '../utils/figures';
 import { DecayPlot } from './decay-plot';
 
 const HEALTH_TONE: Record<HealthName, { badge: 'ok' | 'warn' | 'danger'; box: string }> = {
@@ -163,8 +163,8 @@ export function DecayVerdictView({
             label: 'Discharge resistance',
             value: (
               <span className="text-sm">
-                bleeder {formatOhms(resistance.bleederOhms)} ({resistance.bleederSource === 'measured' ? 'measured' : 'design'}) ∥ meter{' '}
-                {resistance.meterInputOhms === null ? 'none' : formatOhms(resistance.meterInputOhms)} = {formatOhms(resistance.effectiveOhms)}
+                bleeder {ohms(resistance.bleederOhms)} ({resistance.bleederSource === 'measured' ? 'measured' : 'design'}) ∥ meter{' '}
+                {resistance.meterInputOhms === null ? 'none' : ohms(resistance.meterInputOhms)} = {ohms(resistance.effectiveOhms)}
               </span>
             ),
           },

@@ -20,6 +20,18 @@ export function microfarads(value: number): string {
   return `${formatFigure(value)} µF`;
 }
 
+/**
+ * Ohms to three significant figures with a prefix.
+ *
+ * @example
+ * ohms(147_783) // '148 kΩ'
+ */
+export function ohms(value: number): string {
+  if (value >= 1e6) return `${formatFigure(value / 1e6)} MΩ`;
+  if (value >= 1e3) return `${formatFigure(value / 1e3)} kΩ`;
+  return `${formatFigure(value)} Ω`;
+}
+
 /** Today as an ISO date in the browser's own calendar (the date of the next check counts from it). */
 export function todayOn(now = new Date()): string {
   const pad = (n: number) => String(n).padStart(2, '0');
