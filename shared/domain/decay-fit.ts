@@ -180,7 +180,7 @@ const MIN_POINTS_FOR_REJECTION = 5;
 /** Less of the decay than this (in time constants, about a 10 % fall) cannot be judged. */
 const MIN_SPAN_TIME_CONSTANTS = 0.1;
 /** A 95 % interval wider than ± this fraction of τ is worth a warning. */
-const LOOSE_HALF_WIDTH = 0.05;
+const LOOSE_HALF_WIDTH = 0.04;
 
 /**
  * Checks decay samples and throws {@link EngineInputError} naming every bad one: numbers that
@@ -418,6 +418,23 @@ export function fitDecay(
 
   let head = scanKnee(robust.intercept, robust.slope, markOffCurve(0, null, null));
   let offCurve: Uint8Array = markOffCurve(head, null, null);
+  // A first estimate of the noise from the robust line's residuals of the readings to be fitted,
+  // so that the first least-squares fit is already about rightly weighted.
+  {
+    const first = new Uint8Array(n);
+    let count = 0;
+    for (let i = head; i < n; i++) {
+      if (offCurve[i]) continue;
+      first[i] = 1;
+      residualsVolts[i] = v[i]! - fitted[i]!;
+      leverage[i] = 2 / (n - head);
+      count++;
+    }
+    if (count >= 3) {
+      noise = estimateNoiseModel(v, residualsVolts, leverage, first, floorAt(-robust.slope), noise);
+      noiseVariances(noise, v, variance);
+    }
+  }
 
   // Fit, re-weight, re-screen against the fit, repeat until the readings used settle.
   const include = new Uint8Array(n);
@@ -853,23 +870,37 @@ function curvatureOfLogVolts(
     const w = (v[i]! * v[i]!) / variance[i]!;
     const x = (t[i]! - centre) / spread;
     const y = Math.log(v[i]!);
-    const basis = [1, x, x * x];
-    for (let a = 0; a < 3; a++) {
-      r[a] = r[a]! + w * basis[a]! * y;
-      for (let b = 0; b < 3; b++) m[3 * a + b] = m[3 * a + b]! + w * basis[a]! * basis[b]!;
-    }
+    const x2 = x * x;
+    r[0] = r[0]! + w * y;
+    r[1] = r[1]! + w * x * y;
+    r[2] = r[2]! + w * x2 * y;
+    m[0] = m[0]! + w;
+    m[1] = m[1]! + w * x;
+    m[2] = m[2]! + w * x2;
+    m[4] = m[4]! + w * x2;
+    m[5] = m[5]! + w * x2 * x;
+    m[8] = m[8]! + w * x2 * x2;
     syy += w * y * y;
   }
+  m[3] = m[1]!;
+  m[6] = m[2]!;
+  m[7] = m[5]!;
   const inverse = invert3(m);
   if (!inverse) return null;
-  const beta = [0, 1, 2].map(
-    (a) => inverse[3 * a]! * r[0]! + inverse[3 * a + 1]! * r[1]! + inverse[3 * a + 2]! * r[2]!,
-  );
-  const rss = Math.max(syy - (beta[0]! * r[0]! + beta[1]! * r[1]! + beta[2]! * r[2]!), 0);
+  let fittedSquares = 0;
+  let quadratic = 0;
+  for (let a = 0; a < 3; a++) {
+    const beta =
+      inverse[3 * a]! * r[0]! + inverse[3 * a + 1]! * r[1]! + inverse[3 * a + 2]! * r[2]!;
+    fittedSquares += beta * r[a]!;
+    if (a === 2) quadratic = beta;
+  }
+  const rss = Math.max(syy - fittedSquares, 0);
+
   const scaleSquared = rss / (count - 3);
   const standardError = Math.sqrt(scaleSquared * inverse[8]!);
   if (!(standardError > 0)) return null;
-  return beta[2]! / standardError;
+  return quadratic / standardError;
 }
 
 /** Inverse of a symmetric 3 × 3 matrix (row-major), or null when singular. */

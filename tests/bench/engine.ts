@@ -3,8 +3,10 @@
  *   1. a 20-point handheld decay fit (fits per second on one core),
  *   2. a 100,000-sample logger file parsed and fitted (milliseconds),
  *   3. a 10-year trend forecast (milliseconds),
- * and, for comparison, the same 20-point fit by ml-levenberg-marquardt (the general-purpose
- * package the engine's own Levenberg–Marquardt is checked against). All data are invented.
+ * and, for comparison, the same 20-point runs fitted bare in plain JavaScript (the ceiling: no
+ * screening, weights or interval) and by ml-levenberg-marquardt (the general-purpose package the
+ * engine's own Levenberg–Marquardt is checked against), measured in the same run. All data are
+ * invented.
  */
 
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
@@ -59,6 +61,53 @@ const handheldRounds = time(15, 3, () => {
 });
 const fitsPerRound = 10 * handheldRuns.length;
 const handheldMs = median(handheldRounds) / fitsPerRound;
+
+// Ceiling: a bare fit of the same runs in plain JavaScript: a log-linear start and Gauss–Newton
+// steps on the volts, no screening, no weights, no interval. What the engine adds (robust
+// screening, the knee scan, noise weighting, the interval) is the ratio to this.
+function plainFit(run: { tSeconds: number; volts: number }[]): number {
+  let sw = 0,
+    st = 0,
+    sy = 0,
+    stt = 0,
+    sty = 0;
+  for (const { tSeconds, volts } of run) {
+    const w = volts * volts;
+    const y = Math.log(volts);
+    sw += w;
+    st += w * tSeconds;
+    sy += w * y;
+    stt += w * tSeconds * tSeconds;
+    sty += w * tSeconds * y;
+  }
+  let rate = -(sty - (st * sy) / sw) / (stt - (st * st) / sw);
+  let v0 = Math.exp((sy + rate * st) / sw);
+  for (let step = 0; step < 8; step++) {
+    let a11 = 0,
+      a12 = 0,
+      a22 = 0,
+      g1 = 0,
+      g2 = 0;
+    for (const { tSeconds, volts } of run) {
+      const e = Math.exp(-rate * tSeconds);
+      const j2 = -v0 * tSeconds * e;
+      const r = volts - v0 * e;
+      a11 += e * e;
+      a12 += e * j2;
+      a22 += j2 * j2;
+      g1 += e * r;
+      g2 += j2 * r;
+    }
+    const det = a11 * a22 - a12 * a12;
+    v0 += (a22 * g1 - a12 * g2) / det;
+    rate += (a11 * g2 - a12 * g1) / det;
+  }
+  return 1 / rate;
+}
+const plainRounds = time(15, 3, () => {
+  for (let repeat = 0; repeat < 10; repeat++) for (const run of handheldRuns) sink += plainFit(run);
+});
+const plainMs = median(plainRounds) / fitsPerRound;
 
 // Reference: the same fit by ml-levenberg-marquardt with analytic derivatives, from the same start.
 const referenceRuns = handheldRuns.slice(0, 50);
@@ -152,6 +201,9 @@ console.log(
 );
 console.log(
   `  10-year trend forecast:           ${format(median(forecastRounds))} ms (21 runs, both models, 90 % interval)`,
+);
+console.log(
+  `  ceiling: a bare plain-JavaScript fit of the same runs: ${format(plainMs * 1000)} µs per fit = ${format(1000 / plainMs)} fits per second; the engine takes ${format(handheldMs / plainMs)}× as long`,
 );
 console.log(
   `  reference: ml-levenberg-marquardt 20-point fit: ${format(referenceMs * 1000)} µs per fit = ${format(1000 / referenceMs)} fits per second`,
