@@ -79,10 +79,14 @@ export function bankEngineInputs(bank: BankRecordForEngine): BankEngineInputs | 
   };
   // a coefficient of zero is a design without one: nothing to normalise with
   if (figures.tempCoefficientPercentPerKelvin !== 0) {
-    design.capacitanceTemperature = { kind: 'coefficient', perKelvin: figures.tempCoefficientPercentPerKelvin / 100 };
+    design.capacitanceTemperature = {
+      kind: 'coefficient',
+      perKelvin: figures.tempCoefficientPercentPerKelvin / 100,
+    };
   }
   const cabinet: CabinetFacts = {};
-  if (bank.cabinetDcBusVolts !== null && bank.cabinetDcBusVolts > 0) cabinet.nominalBusVolts = bank.cabinetDcBusVolts;
+  if (bank.cabinetDcBusVolts !== null && bank.cabinetDcBusVolts > 0)
+    cabinet.nominalBusVolts = bank.cabinetDcBusVolts;
   // a marked wait of 0 min means none is marked
   if (bank.cabinetMarkedWaitMinutes !== null && bank.cabinetMarkedWaitMinutes > 0) {
     cabinet.markedWaitSeconds = bank.cabinetMarkedWaitMinutes * 60;

@@ -10,7 +10,10 @@ import { sequelize } from '../db/sequelize';
 import { User } from './user';
 
 /** A message a write left for a later job (alerts, mail), written in the write's transaction. */
-export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
+export class OutboxMessage extends Model<
+  InferAttributes<OutboxMessage>,
+  InferCreationAttributes<OutboxMessage>
+> {
   /** bigint: PostgreSQL's driver gives it as a string. */
   declare id: CreationOptional<string>;
   declare topic: string;

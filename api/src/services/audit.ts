@@ -39,7 +39,10 @@ const AUDIT_CHUNK_ROWS = 5000;
  * Appends many entries (an import, the seed, a cabinet retired with its banks) with one
  * `INSERT … SELECT unnest(…)` per 5,000 entries, in the unit of work's transaction.
  */
-export async function recordAuditBatch(uow: UnitOfWork<Actor>, entries: readonly AuditRecordInput[]): Promise<void> {
+export async function recordAuditBatch(
+  uow: UnitOfWork<Actor>,
+  entries: readonly AuditRecordInput[],
+): Promise<void> {
   for (let start = 0; start < entries.length; start += AUDIT_CHUNK_ROWS) {
     const chunk = entries.slice(start, start + AUDIT_CHUNK_ROWS);
     const actors = chunk.map((entry) => (entry.actor === undefined ? uow.actor : entry.actor));

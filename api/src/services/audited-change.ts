@@ -18,7 +18,10 @@ export interface AuditedKind<M extends Model> {
 }
 
 /** A kind whose snapshot is its own columns `attributes` (see audited-fields). */
-export function auditedColumns<M extends Model>(entityType: RegisterEntityType, attributes: readonly string[]): AuditedKind<M> {
+export function auditedColumns<M extends Model>(
+  entityType: RegisterEntityType,
+  attributes: readonly string[],
+): AuditedKind<M> {
   return { entityType, snapshot: (record) => snapshotOf(record, attributes) };
 }
 
@@ -40,7 +43,14 @@ export async function recordCreation<M extends Model & { id: string }>(
   record: M,
   summary: string,
 ): Promise<void> {
-  await recordAudit(uow, { entityType: kind.entityType, entityId: record.id, action: 'create', summary, before: null, after: kind.snapshot(record) });
+  await recordAudit(uow, {
+    entityType: kind.entityType,
+    entityId: record.id,
+    action: 'create',
+    summary,
+    before: null,
+    after: kind.snapshot(record),
+  });
 }
 
 /**

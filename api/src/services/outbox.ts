@@ -31,7 +31,9 @@ export async function enqueueOutboxMessage(
   payload: Record<string, unknown>,
 ): Promise<OutboxMessage> {
   if (!OUTBOX_TOPIC_PATTERN.test(topic)) {
-    throw new Error(`outbox topic "${topic}" is not dotted kebab-case words such as "decay-run.recorded"`);
+    throw new Error(
+      `outbox topic "${topic}" is not dotted kebab-case words such as "decay-run.recorded"`,
+    );
   }
   return OutboxMessage.create(
     { topic, payload, actorId: uow.actor?.id ?? null, enqueuedAt: uow.now },

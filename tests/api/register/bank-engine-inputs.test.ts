@@ -8,7 +8,14 @@ import { createApp } from '../../../api/src/app';
 import { bankEngineInputs } from '../../../shared/domain/bank-engine-inputs';
 import { bankRecordForEngine, getBank, setBankBaseline } from '../../../api/src/services/banks';
 import { withUnitOfWork } from '../../../api/src/services/unit-of-work';
-import { createActor, makeArea, makeBank, makeCabinet, makeDesign, makeSite } from '../../support/register';
+import {
+  createActor,
+  makeArea,
+  makeBank,
+  makeCabinet,
+  makeDesign,
+  makeSite,
+} from '../../support/register';
 
 const app = createApp();
 let engineer: Awaited<ReturnType<typeof createActor>>;
@@ -29,14 +36,24 @@ describe('bankEngineInputs on both sides', () => {
   it('when a bank has a nameplate baseline, then the server and the browser judge with the same inputs', async () => {
     const site = await makeSite(engineer.actor);
     const area = await makeArea(engineer.actor, site.id);
-    const cabinet = await makeCabinet(engineer.actor, area.id, { supplyVolts: 480, dcBusVolts: 650, markedWaitMinutes: 15 });
-    const design = await makeDesign(engineer.actor, { tempCoefficientPercentPerKelvin: 0.3, bleederOhms: 39_000 });
+    const cabinet = await makeCabinet(engineer.actor, area.id, {
+      supplyVolts: 480,
+      dcBusVolts: 650,
+      markedWaitMinutes: 15,
+    });
+    const design = await makeDesign(engineer.actor, {
+      tempCoefficientPercentPerKelvin: 0.3,
+      bleederOhms: 39_000,
+    });
     const bank = await makeBank(engineer.actor, cabinet.id, design.id);
     const { server, browser } = await bothSides(bank.id);
     expect(server).not.toBeNull();
     expect(browser).toEqual(server);
     expect(server).toMatchObject({
-      design: { bleederOhms: 39_000, capacitanceTemperature: { kind: 'coefficient', perKelvin: 0.003 } },
+      design: {
+        bleederOhms: 39_000,
+        capacitanceTemperature: { kind: 'coefficient', perKelvin: 0.003 },
+      },
       baseline: { source: 'nameplate' },
       cabinet: { nominalBusVolts: 650, markedWaitSeconds: 900 },
     });
@@ -49,11 +66,20 @@ describe('bankEngineInputs on both sides', () => {
     const design = await makeDesign(engineer.actor);
     const bank = await makeBank(engineer.actor, cabinet.id, design.id);
     await withUnitOfWork(engineer.actor, (uow) =>
-      setBankBaseline(uow, bank.id, { version: bank.version, source: 'manual', tauSeconds: 300, capacitanceMicrofarads: 6800, note: 'measured' }),
+      setBankBaseline(uow, bank.id, {
+        version: bank.version,
+        source: 'manual',
+        tauSeconds: 300,
+        capacitanceMicrofarads: 6800,
+        note: 'measured',
+      }),
     );
     const { server, browser } = await bothSides(bank.id);
     expect(browser).toEqual(server);
-    expect(server).toMatchObject({ baseline: { capacitanceMicrofarads: 6800, source: 'decay-run' }, cabinet: { nominalBusVolts: 540 } });
+    expect(server).toMatchObject({
+      baseline: { capacitanceMicrofarads: 6800, source: 'decay-run' },
+      cabinet: { nominalBusVolts: 540 },
+    });
     expect(server!.cabinet.markedWaitSeconds).toBeUndefined();
   });
 });

@@ -23,7 +23,12 @@ describe('enqueueOutboxMessage', () => {
     const site = await withUnitOfWork(
       planner.actor,
       async (uow) => {
-        const created = await createSite(uow, { name: 'Outbox Works', code: 'OBX', address: '', timeZone: 'UTC' });
+        const created = await createSite(uow, {
+          name: 'Outbox Works',
+          code: 'OBX',
+          address: '',
+          timeZone: 'UTC',
+        });
         await enqueueOutboxMessage(uow, 'site.added', { siteId: created.id });
         return created;
       },
@@ -31,7 +36,12 @@ describe('enqueueOutboxMessage', () => {
     );
     expect(await countRows('outbox_messages')).toBe(before + 1);
     const message = await OutboxMessage.findOne({ where: { topic: 'site.added' } });
-    expect(message).toMatchObject({ payload: { siteId: site.id }, actorId: planner.actor.id, attempts: 0, processedAt: null });
+    expect(message).toMatchObject({
+      payload: { siteId: site.id },
+      actorId: planner.actor.id,
+      attempts: 0,
+      processedAt: null,
+    });
     expect(message!.enqueuedAt.toISOString()).toBe(now.toISOString());
   });
 
@@ -40,7 +50,12 @@ describe('enqueueOutboxMessage', () => {
     const sitesBefore = await countRows('sites');
     await expect(
       withUnitOfWork(planner.actor, async (uow) => {
-        const created = await createSite(uow, { name: 'Never Works', code: 'NVR', address: '', timeZone: 'UTC' });
+        const created = await createSite(uow, {
+          name: 'Never Works',
+          code: 'NVR',
+          address: '',
+          timeZone: 'UTC',
+        });
         await enqueueOutboxMessage(uow, 'site.added', { siteId: created.id });
         throw new Error('the write fails after enqueueing');
       }),
@@ -56,7 +71,10 @@ describe('enqueueOutboxMessage', () => {
       return [first.id, second.id];
     });
     expect(BigInt(ids[1]!)).toBeGreaterThan(BigInt(ids[0]!));
-    const [rows] = await sequelize.query(`SELECT topic, actor_id FROM outbox_messages WHERE id IN (:ids) ORDER BY id`, { replacements: { ids } });
+    const [rows] = await sequelize.query(
+      `SELECT topic, actor_id FROM outbox_messages WHERE id IN (:ids) ORDER BY id`,
+      { replacements: { ids } },
+    );
     expect(rows).toEqual([
       { topic: 'test.first', actor_id: null },
       { topic: 'test.second', actor_id: null },
@@ -65,18 +83,33 @@ describe('enqueueOutboxMessage', () => {
 
   it('when the topic is not dotted kebab-case words, then it is refused and nothing is left', async () => {
     const before = await countRows('outbox_messages');
-    for (const topic of ['', 'alert', 'Alert.Raised', 'alert..raised', 'alert.raised ', 'alert raised.x']) {
-      await expect(withUnitOfWork(null, (uow) => enqueueOutboxMessage(uow, topic, {})), topic).rejects.toThrow(/outbox topic/);
+    for (const topic of [
+      '',
+      'alert',
+      'Alert.Raised',
+      'alert..raised',
+      'alert.raised ',
+      'alert raised.x',
+    ]) {
+      await expect(
+        withUnitOfWork(null, (uow) => enqueueOutboxMessage(uow, topic, {})),
+        topic,
+      ).rejects.toThrow(/outbox topic/);
     }
     expect(await countRows('outbox_messages')).toBe(before);
   });
 
   it('when a job has acted on a message, then the app may mark it processed (ordinary rights, unlike the audit trail)', async () => {
-    const message = await withUnitOfWork(null, (uow) => enqueueOutboxMessage(uow, 'test.processed', { n: 1 }));
+    const message = await withUnitOfWork(null, (uow) =>
+      enqueueOutboxMessage(uow, 'test.processed', { n: 1 }),
+    );
     await message.update({ processedAt: new Date('2030-02-03T05:00:00Z'), attempts: 1 });
-    const [rows] = await sequelize.query(`SELECT count(*)::int AS n FROM outbox_messages WHERE processed_at IS NULL AND id = :id`, {
-      replacements: { id: message.id },
-    });
+    const [rows] = await sequelize.query(
+      `SELECT count(*)::int AS n FROM outbox_messages WHERE processed_at IS NULL AND id = :id`,
+      {
+        replacements: { id: message.id },
+      },
+    );
     expect(rows).toEqual([{ n: 0 }]);
   });
 });

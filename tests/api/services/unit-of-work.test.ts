@@ -13,7 +13,14 @@ import { retireCabinet } from '../../../api/src/services/cabinets';
 import { updatePerson } from '../../../api/src/services/people';
 import { createSite, updateSite } from '../../../api/src/services/sites';
 import { withUnitOfWork } from '../../../api/src/services/unit-of-work';
-import { countRows, createActor, makeArea, makeCabinet, makeDesign, makeSite } from '../../support/register';
+import {
+  countRows,
+  createActor,
+  makeArea,
+  makeCabinet,
+  makeDesign,
+  makeSite,
+} from '../../support/register';
 
 let planner: Awaited<ReturnType<typeof createActor>>;
 
@@ -36,13 +43,25 @@ describe('withUnitOfWork', () => {
     const at = new Date('2031-05-06T07:08:09.123Z');
     const bank = await withUnitOfWork(
       planner.actor,
-      (uow) => createBank(uow, { cabinetId: cabinet.id, bankDesignId: design.id, position: 'DC1', serialNumber: '', installedOn: '2020-01-15', notes: '' }),
+      (uow) =>
+        createBank(uow, {
+          cabinetId: cabinet.id,
+          bankDesignId: design.id,
+          position: 'DC1',
+          serialNumber: '',
+          installedOn: '2020-01-15',
+          notes: '',
+        }),
       { now: at },
     );
     expect(bank.baselineSetAt.toISOString()).toBe(at.toISOString());
 
     const retiredAt = new Date('2031-05-07T10:00:00.000Z');
-    const retired = await withUnitOfWork(planner.actor, (uow) => retireCabinet(uow, cabinet.id, cabinet.version), { now: retiredAt });
+    const retired = await withUnitOfWork(
+      planner.actor,
+      (uow) => retireCabinet(uow, cabinet.id, cabinet.version),
+      { now: retiredAt },
+    );
     expect(retired.retiredAt?.toISOString()).toBe(retiredAt.toISOString());
     const entries = await rows<{ entity_type: string; action: string; at: Date; actor_id: string }>(
       `SELECT entity_type, action, at, actor_id FROM audit_entries WHERE entity_id IN (:ids) ORDER BY at, entity_type`,
@@ -55,7 +74,10 @@ describe('withUnitOfWork', () => {
       `cabinet retire ${retiredAt.toISOString()}`,
     ]);
     expect(new Set(entries.map((e) => e.actor_id))).toEqual(new Set([planner.actor.id]));
-    const [bankRow] = await rows<{ retired_at: Date }>(`SELECT retired_at FROM banks WHERE id = :id`, { id: bank.id });
+    const [bankRow] = await rows<{ retired_at: Date }>(
+      `SELECT retired_at FROM banks WHERE id = :id`,
+      { id: bank.id },
+    );
     expect(bankRow!.retired_at.toISOString()).toBe(retiredAt.toISOString());
   });
 
@@ -64,7 +86,12 @@ describe('withUnitOfWork', () => {
     const auditBefore = await countRows('audit_entries');
     const thrown = new AppError('conflict', 'stopped on purpose');
     const outcome = withUnitOfWork(planner.actor, async (uow) => {
-      await createSite(uow, { name: 'Rolled Back Works', code: 'RBW', address: '', timeZone: 'UTC' });
+      await createSite(uow, {
+        name: 'Rolled Back Works',
+        code: 'RBW',
+        address: '',
+        timeZone: 'UTC',
+      });
       throw thrown;
     });
     await expect(outcome).rejects.toBe(thrown);
@@ -74,14 +101,19 @@ describe('withUnitOfWork', () => {
 
   it('when a service refuses, then its error carries a code and the fields, never an HTTP status', async () => {
     const site = await makeSite(planner.actor);
-    const refusal = await withUnitOfWork(planner.actor, (uow) => updateSite(uow, site.id, { version: site.version + 5, name: 'Later' })).catch(
-      (err: unknown) => err,
-    );
+    const refusal = await withUnitOfWork(planner.actor, (uow) =>
+      updateSite(uow, site.id, { version: site.version + 5, name: 'Later' }),
+    ).catch((err: unknown) => err);
     expect(refusal).toBeInstanceOf(AppError);
     expect(refusal).toMatchObject({ code: 'stale-version' });
     expect(refusal).not.toHaveProperty('status');
     const clash = await withUnitOfWork(planner.actor, (uow) =>
-      createSite(uow, { name: `${site.name} again`, code: site.code, address: '', timeZone: 'UTC' }),
+      createSite(uow, {
+        name: `${site.name} again`,
+        code: site.code,
+        address: '',
+        timeZone: 'UTC',
+      }),
     ).catch((err: unknown) => err);
     expect(clash).toMatchObject({ code: 'duplicate', issues: [{ path: 'code' }] });
   });
@@ -94,7 +126,11 @@ describe('people changes in a unit of work', () => {
     const admin = await createActor(['admin']);
     const person = await createActor(['technician']);
     const at = new Date('2032-01-02T03:04:05.000Z');
-    const changed = await withUnitOfWork(admin.actor, (uow) => updatePerson(uow, person.user.id, { roles: ['planner'] }, origin), { now: at });
+    const changed = await withUnitOfWork(
+      admin.actor,
+      (uow) => updatePerson(uow, person.user.id, { roles: ['planner'] }, origin),
+      { now: at },
+    );
     expect(changed.roles).toEqual(['planner']);
     const entries = await rows<{ kind: string; created_at: Date; actor_id: string }>(
       `SELECT kind, created_at, actor_id FROM access_events WHERE user_id = :id`,
@@ -106,10 +142,15 @@ describe('people changes in a unit of work', () => {
   it('when the change is refused, then neither the person nor the log changes', async () => {
     const admin = await createActor(['admin']);
     const logBefore = await countRows('access_events');
-    const refusal = withUnitOfWork(admin.actor, (uow) => updatePerson(uow, admin.user.id, { roles: ['planner'], active: false }, origin));
+    const refusal = withUnitOfWork(admin.actor, (uow) =>
+      updatePerson(uow, admin.user.id, { roles: ['planner'], active: false }, origin),
+    );
     await expect(refusal).rejects.toMatchObject({ code: 'conflict' });
     expect(await countRows('access_events')).toBe(logBefore);
-    const [me] = await rows<{ roles: string[]; active: boolean }>(`SELECT roles, active FROM users WHERE id = :id`, { id: admin.user.id });
+    const [me] = await rows<{ roles: string[]; active: boolean }>(
+      `SELECT roles, active FROM users WHERE id = :id`,
+      { id: admin.user.id },
+    );
     expect(me).toEqual({ roles: ['admin'], active: true });
   });
 });
@@ -126,10 +167,19 @@ describe('the error middleware', () => {
   }
 
   it('when an error carries a code, then the answer has that code’s status and the shape { error: { code, message, issues } }', async () => {
-    const expected: Record<string, number> = { 'validation-failed': 400, unauthenticated: 401, forbidden: 403, 'not-found': 404, 'stale-version': 409, duplicate: 409 };
+    const expected: Record<string, number> = {
+      'validation-failed': 400,
+      unauthenticated: 401,
+      forbidden: 403,
+      'not-found': 404,
+      'stale-version': 409,
+      duplicate: 409,
+    };
     for (const [code, status] of Object.entries(expected)) {
       const issues = [{ path: 'name', message: 'Enter a name.' }];
-      const res = await request(throwing(new AppError(code as (typeof ERROR_CODES)[number], 'Said plainly.', issues))).get('/');
+      const res = await request(
+        throwing(new AppError(code as (typeof ERROR_CODES)[number], 'Said plainly.', issues)),
+      ).get('/');
       expect(res.status, code).toBe(status);
       expect(res.body).toEqual({ error: { code, message: 'Said plainly.', issues } });
     }
