@@ -816,7 +816,9 @@ function widenForKnee(
   tauCi95: [number, number],
 ): void {
   const { t, v, include, fit, variance } = settled;
-  if (degreesOfFreedom < 2) return;
+  // With many readings (a logger) one reading cannot move τ by its interval, and the knee is
+  // found to within a sample: no second fit is needed.
+  if (degreesOfFreedom < 2 || fit.count > KNEE_WIDENING_MAX_READINGS) return;
   const without = Uint8Array.from(include);
   without[firstUsed] = 0;
   const other = refineExponential(t, v, fit, without, variance);
@@ -830,6 +832,9 @@ function widenForKnee(
   tauCi95[0] = Math.min(tauCi95[0], 1 / rateHigh);
   tauCi95[1] = Math.max(tauCi95[1], 1 / rateLow);
 }
+
+/** Above this many readings in the fit the interval is not widened for the knee's position. */
+const KNEE_WIDENING_MAX_READINGS = 200;
 
 /** Two-sided false-alarm rate of the test that ln V bends. */
 const CURVATURE_ALPHA = 0.001;
