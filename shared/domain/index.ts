@@ -23,7 +23,15 @@ export type {
   ExcludedReading,
   ControlSupplyPhase,
   DecayResidual,
+  DecayNoise,
 } from './decay-fit';
+export {
+  readingResolutionVolts,
+  noiseFloor,
+  noiseVariances,
+  estimateNoiseModel,
+} from './noise-model';
+export type { ReadingNoiseInput, NoiseModel } from './noise-model';
 export { fitLogLinear, refineExponential } from './exponential-least-squares';
 export type {
   ExponentialParameters,
@@ -34,8 +42,10 @@ export {
   controlSupplyDecayVolts,
   controlSupplyKneeSeconds,
   estimateControlSupplyWatts,
+  findControlSupplyKnee,
+  fitControlSupplyPhase,
 } from './control-supply';
-export type { ControlSupplyDecay } from './control-supply';
+export type { ControlSupplyDecay, ControlSupplyPhaseFit } from './control-supply';
 export { findTypingSlip, isOnCurve, OFF_CURVE_Z } from './outliers';
 export type { ExclusionCode, TypingSlip, ResidualScales } from './outliers';
 export {
