@@ -54,7 +54,7 @@ export function readingResolutionVolts(volts: ArrayLike<number>): number {
     const value = Math.abs(volts[i]!);
     while (decimals <= 6) {
       const scaled = value * 10 ** decimals;
-      if (Math.abs(scaled - Math.round(scaled)) <= 1e-6 * Math.max(1, scaled)) break;
+      if (Math.abs(scaled - Math.round(scaled)) <= 1e-11 * Math.max(1, scaled)) break;
       decimals++;
     }
     if (decimals > 6) return 0;
