@@ -15,7 +15,7 @@ import { PROJECT_ROOT } from '../../infra/local-cluster';
 import { isRunning, stopCluster } from '../../infra/postgres';
 import { holdRequest } from '../support/held-request';
 import {
-  freePort,
+  freePorts,
   processExists,
   startProcess,
   waitUntil,
@@ -27,7 +27,8 @@ const dataDir = path.resolve(
   `${process.env.PG_TEST_DATA_DIR || '.data/pg-test'}-stop`,
 );
 const identityDir = `${dataDir}-identity`;
-const ports = { app: await freePort(), idp: await freePort(), pg: await freePort() };
+const [appPort, idpPort, pgPort] = await freePorts(3);
+const ports = { app: appPort!, idp: idpPort!, pg: pgPort! };
 const baseUrl = `http://localhost:${ports.app}`;
 
 /** The start command's environment: its own ports and folders, nothing of the test run's database. */
@@ -139,14 +140,16 @@ describe('npm start, stopped by a signal', () => {
       });
       const npmPid = npm.child.pid!;
       started.push(npmPid);
-      await waitUntil(
-        async () => npm.alive() && (await fetch(`${baseUrl}/api/health`)).status === 200,
-        {
+      await Promise.race([
+        waitUntil(async () => (await fetch(`${baseUrl}/api/health`)).status === 200, {
           timeoutMs: 150_000,
           what: 'npm start serving /api/health',
           intervalMs: 200,
-        },
-      );
+        }),
+        npm.exited.then((code) => {
+          throw new Error(`npm start ended (${code}) before it served /api/health`);
+        }),
+      ]);
       const serverPid = childOf(npmPid)!;
       started.push(serverPid);
       const postmasterPid = Number(

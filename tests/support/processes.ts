@@ -6,13 +6,26 @@ import { spawn, type ChildProcess, type SpawnOptions } from 'node:child_process'
 import fs from 'node:fs';
 import net from 'node:net';
 
-/** A loopback port that was free a moment ago (the OS picks it; tests pass it on at once). */
+/**
+ * Loopback ports that were free a moment ago, all different (the OS picks them; all are held
+ * until the last is picked, so two calls cannot get the same one). Pass them on at once.
+ */
+export async function freePorts(count: number): Promise<number[]> {
+  const servers = Array.from({ length: count }, () => net.createServer());
+  await Promise.all(
+    servers.map((server) => new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))),
+  );
+  const ports = servers.map((server) => (server.address() as net.AddressInfo).port);
+  await Promise.all(
+    servers.map((server) => new Promise<void>((resolve) => server.close(() => resolve()))),
+  );
+  return ports;
+}
+
+/** One loopback port that was free a moment ago. */
 export async function freePort(): Promise<number> {
-  const server = net.createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as net.AddressInfo;
-  await new Promise<void>((resolve) => server.close(() => resolve()));
-  return port;
+  const [port] = await freePorts(1);
+  return port!;
 }
 
 export interface RunningProcess {
