@@ -281,6 +281,20 @@ describe('a corpus of hostile bodies never gets a 5xx and stores nothing when re
               ),
           ),
       },
+      // a good file now and then, so that a commit goes through and later rows clash with it
+      {
+        weight: 1,
+        arbitrary: fc
+          .integer({ min: 1, max: 3 })
+          .map((count) =>
+            [
+              header.join(','),
+              ...Array.from({ length: count }, () => validRow(nextSerial())).map((r) =>
+                header.map((c) => cell(r[c])).join(','),
+              ),
+            ].join('\r\n'),
+          ),
+      },
       { weight: 1, arbitrary: fc.string({ maxLength: 400 }) },
       {
         weight: 1,
