@@ -138,21 +138,23 @@ const LOWEST_KNEE_FRACTION = 0.3;
 /** A reading this many times the RC line is a typing slip, not physics. */
 const MAX_PHASE_RATIO = 7;
 
-/** One-sided Student's t quantiles 1 − alpha, by degrees of freedom, computed once per scan. */
-function criticalValues(alpha: number, size: number): (degreesOfFreedom: number) => number {
-  const known = new Float64Array(size + 1);
-  return (degreesOfFreedom) => {
-    const df = Math.max(1, Math.min(Math.floor(degreesOfFreedom), size));
-    if (known[df] === 0) {
-      if (df > 200) {
-        const z = normalQuantile(1 - alpha);
-        known[df] = z + (z * z * z + z) / (4 * df);
-      } else {
-        known[df] = tQuantile(1 - alpha, df);
-      }
-    }
-    return known[df]!;
-  };
+/** Quantiles already computed, by false-alarm rate (a pure cache: same input, same output). */
+const criticalCache = new Map<number, Float64Array>();
+
+/**
+ * One-sided Student's t quantile 1 − alpha on `degreesOfFreedom`; beyond 200 degrees of freedom,
+ * the value at 201 (within 0.1 % of the normal quantile there).
+ */
+function criticalValue(alpha: number, degreesOfFreedom: number): number {
+  let known = criticalCache.get(alpha);
+  if (!known) {
+    if (criticalCache.size > 1000) criticalCache.clear();
+    known = new Float64Array(202);
+    criticalCache.set(alpha, known);
+  }
+  const df = Math.max(1, Math.min(Math.floor(degreesOfFreedom), 201));
+  if (known[df] === 0) known[df] = tQuantile(1 - alpha, df);
+  return known[df]!;
 }
 
 /**
@@ -187,8 +189,7 @@ export function findControlSupplyKnee(
   if (n < 4) return 0;
   const lowestKneeVolts = LOWEST_KNEE_FRACTION * volts[0]!;
   const candidateAlpha = Math.min(MAX_CANDIDATE_ALPHA, SCAN_ALPHA / (n - 3));
-  const kneeCritical = criticalValues(candidateAlpha, n + PRIOR_DEGREES_OF_FREEDOM);
-  const eachCritical = criticalValues(EARLIER_ALPHA, n + PRIOR_DEGREES_OF_FREEDOM);
+
   const reference = tSeconds[n - 1]!;
   let s0 = 0;
   let s1 = 0;
@@ -243,7 +244,7 @@ export function findControlSupplyKnee(
     // do several mildly steep ones. Their weighted sum of distances T = Σ wⱼ·dⱼ is tested with its
     // full variance s²·(Σ wⱼ + (Σ wⱼ)²/S₀ + (Σ wⱼ·Δxⱼ)²/Sₓₓ), which counts that all of them are
     // measured against the same uncertain line.
-    const each = eachCritical(degreesOfFreedom);
+    const each = criticalValue(EARLIER_ALPHA, degreesOfFreedom);
     let all = true;
     const lastAbove = above(h - 1);
     let sumW = 0;
@@ -258,7 +259,8 @@ export function findControlSupplyKnee(
       sumWd += w * (lnVolts[j]! - (intercept + slope * x));
     }
     const spread = Math.sqrt(sumW + (sumW * sumW) / s0 + (sumWdx * sumWdx) / sxx);
-    const passes = all && sumWd / (scale * spread) > kneeCritical(degreesOfFreedom);
+    const passes =
+      all && sumWd / (scale * spread) > criticalValue(candidateAlpha, degreesOfFreedom);
     if (!passes) continue;
     // The latest passing h may have taken readings after the knee that sat above the curve by
     // chance. The knee is the latest passing h whose reading just before lies clearly above the
