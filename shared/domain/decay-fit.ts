@@ -416,6 +416,8 @@ export function fitDecay(
     );
   };
 
+  let highestVolts = 0;
+  for (let i = 0; i < n; i++) if (v[i]! > highestVolts) highestVolts = v[i]!;
   let head = scanKnee(robust.intercept, robust.slope, markOffCurve(0, null, null));
   let offCurve: Uint8Array = markOffCurve(head, null, null);
   // A first estimate of the noise from the robust line's residuals of the readings to be fitted,
@@ -466,13 +468,19 @@ export function fitDecay(
       if ('status' in next) return next;
       fit = next;
       const reestimated = reestimateNoise(fit, include);
+      // Only the shape of the noise (how it splits between the constant and the proportional
+      // part) moves the fit; a change of its level alone scales every weight alike, so the fit
+      // is carried over to the new level instead of repeated.
       const moved =
-        Math.abs(reestimated.aSquared - noise.aSquared) > NOISE_SETTLED * noise.aSquared ||
-        Math.abs(reestimated.cSquared - noise.cSquared) >
-          NOISE_SETTLED * Math.max(noise.cSquared, 1e-300);
+        Math.abs(noiseShape(reestimated, highestVolts) - noiseShape(noise, highestVolts)) >
+        NOISE_SETTLED;
+      const level = noiseLevel(reestimated, highestVolts) / noiseLevel(noise, highestVolts);
       noise = reestimated;
       noiseVariances(noise, v, variance);
-      if (!moved) break;
+      if (!moved) {
+        fit = atNoiseLevel(fit, level);
+        break;
+      }
     }
     if (!fit) return noDecay();
     for (let i = 0; i < n; i++) fitted[i] = fit.v0Volts * Math.exp(-fit.ratePerSecond * t[i]!);
@@ -522,8 +530,8 @@ export function fitDecay(
   });
 }
 
-/** Relative change of the noise model's parts below which the weights count as settled. */
-const NOISE_SETTLED = 0.2;
+/** Change of the noise model's shape (see noiseShape) below which the weights count as settled. */
+const NOISE_SETTLED = 0.05;
 /** Most fits of one pass while the weights settle. */
 const IRLS_ROUNDS = 4;
 
@@ -538,6 +546,34 @@ function fallsOverall(v: Float64Array): boolean {
   const middle = (a: number, b: number, c: number): number =>
     Math.max(Math.min(a, b), Math.min(Math.max(a, b), c));
   return middle(v[n - 3]!, v[n - 2]!, v[n - 1]!) < middle(v[0]!, v[1]!, v[2]!);
+}
+
+/** σ² at the highest reading, volts². */
+function noiseLevel(model: NoiseModel, highestVolts: number): number {
+  return model.aSquared + model.cSquared * highestVolts * highestVolts;
+}
+
+/** The proportional part's share of σ² at the highest reading (0 = all constant, 1 = all in proportion). */
+function noiseShape(model: NoiseModel, highestVolts: number): number {
+  return (model.cSquared * highestVolts * highestVolts) / noiseLevel(model, highestVolts);
+}
+
+/**
+ * The same fit with every variance multiplied by `level`: the parameters stay, the weighted sum
+ * of squares divides by it and the unscaled covariance multiplies by it.
+ */
+function atNoiseLevel(fit: ExponentialFit, level: number): ExponentialFit {
+  if (!(level > 0) || !Number.isFinite(level)) return fit;
+  const inverse = fit.inverseNormal;
+  return {
+    ...fit,
+    rssVoltsSquared: fit.rssVoltsSquared / level,
+    inverseNormal: {
+      v0v0: inverse.v0v0 * level,
+      v0Rate: inverse.v0Rate * level,
+      rateRate: inverse.rateRate * level,
+    },
+  };
 }
 
 /** Jᵢᵀ (JᵀWJ)⁻¹ Jᵢ for a reading with derivatives (∂/∂V0, ∂/∂rate) = (e, j2). */
