@@ -275,10 +275,16 @@ export function fitDecay(
       `Only ${n} reading${n === 1 ? '' : 's'}; at least 3 are needed to fit a decay (5 or more over two to three time constants is better).`,
     );
   }
-  const t = new Float64Array(n);
-  const v = new Float64Array(n);
-  const lnV = new Float64Array(n);
-  const weights = new Float64Array(n);
+  // One block of memory for the working arrays: a fit runs thousands of times a second, and each
+  // separate typed array is an allocation of its own.
+  const block = new Float64Array(12 * n);
+  const slot = (k: number): Float64Array => block.subarray(k * n, (k + 1) * n);
+  const masks = new Uint8Array(4 * n);
+  const mask = (k: number): Uint8Array => masks.subarray(k * n, (k + 1) * n);
+  const t = slot(0);
+  const v = slot(1);
+  const lnV = slot(2);
+  const weights = slot(3);
   for (let i = 0; i < n; i++) {
     t[i] = samples[i]!.tSeconds;
     v[i] = samples[i]!.volts;
@@ -296,12 +302,12 @@ export function fitDecay(
   if (!robust || !(robust.slope < 0) || !fallsOverall(v)) return noDecay();
 
   // Screening against the robust line.
-  const fitted = new Float64Array(n);
+  const fitted = slot(4);
   for (let i = 0; i < n; i++) fitted[i] = Math.exp(robust.intercept + robust.slope * t[i]!);
-  const all = new Uint8Array(n).fill(1);
+  const all = mask(0).fill(1);
   let scales = residualScales(v, fitted, all);
-  const zVolts = new Float64Array(n);
-  const zLog = new Float64Array(n);
+  const zVolts = slot(5);
+  const zLog = slot(6);
   const standardise = (): void => {
     for (let i = 0; i < n; i++) {
       zVolts[i] = (v[i]! - fitted[i]!) / scales.volts;
@@ -319,12 +325,12 @@ export function fitDecay(
     aSquared: Math.max(floorAt(-robust.slope).aSquared, (scales.volts * scales.volts) / 2),
     cSquared: Math.max(floorAt(-robust.slope).cSquared, (scales.log * scales.log) / 2),
   };
-  const variance = noiseVariances(noise, v, new Float64Array(n));
+  const variance = noiseVariances(noise, v, slot(7));
 
   // ln V less the current line, and its weights, for the knee scan.
-  const lnRelative = new Float64Array(n);
-  const logWeights = new Float64Array(n);
-  const usable = new Uint8Array(n);
+  const lnRelative = slot(8);
+  const logWeights = slot(9);
+  const usable = mask(1);
   const scanKnee = (intercept: number, slope: number, offCurve: Uint8Array): number => {
     if (!leaveOutControlSupply) return 0;
     for (let i = 0; i < n; i++) {
@@ -397,8 +403,8 @@ export function fitDecay(
   };
 
   // Residuals and leverages of the readings in a fit, for the noise estimate.
-  const residualsVolts = new Float64Array(n);
-  const leverage = new Float64Array(n);
+  const residualsVolts = slot(10);
+  const leverage = slot(11);
   const reestimateNoise = (against: ExponentialFit, used: Uint8Array): NoiseModel => {
     for (let i = 0; i < n; i++) {
       if (!used[i]) continue;
@@ -423,7 +429,7 @@ export function fitDecay(
   // A first estimate of the noise from the robust line's residuals of the readings to be fitted,
   // so that the first least-squares fit is already about rightly weighted.
   {
-    const first = new Uint8Array(n);
+    const first = mask(2);
     let count = 0;
     for (let i = head; i < n; i++) {
       if (offCurve[i]) continue;
@@ -439,7 +445,7 @@ export function fitDecay(
   }
 
   // Fit, re-weight, re-screen against the fit, repeat until the readings used settle.
-  const include = new Uint8Array(n);
+  const include = mask(3);
   let fit: ExponentialFit | null = null;
   let start: ExponentialParameters | null = null;
   const fitIncluded = (): ExponentialFit | Unusable => {
@@ -517,6 +523,7 @@ export function fitDecay(
   return summarise({
     t,
     v,
+    lnV,
     fitted,
     include,
     head,
@@ -614,6 +621,7 @@ function tooFewLeft(total: number, head: number, offCurve: number): Unusable {
 interface SettledFit {
   t: Float64Array;
   v: Float64Array;
+  lnV: Float64Array;
   fitted: Float64Array;
   include: Uint8Array;
   head: number;
@@ -796,7 +804,7 @@ function summarise(settled: SettledFit): DecayFitResult {
       `τ is known only roughly: its 95 % interval runs from ${formatSeconds(tauCi95[0])} to ${formatSeconds(tauCi95[1])}. More readings over two to three time constants narrow it.`,
     );
   }
-  const bend = curvatureOfLogVolts(t, v, include, settled.variance);
+  const bend = curvatureOfLogVolts(t, v, settled.lnV, include, settled.variance);
   if (bend !== null && Math.abs(bend) > tQuantile(1 - CURVATURE_ALPHA / 2, count - 3)) {
     warnings.push(
       `The readings bend away from a single exponential (ln V is ${bend < 0 ? 'steeper at the end than at the start' : 'flatter at the end than at the start'}, t = ${formatNumber(bend, 2)}): τ may be off by more than its interval says. ${bend < 0 ? 'A control supply that was still drawing power early in the run can do this; start the readings later or record more of them at the start.' : 'Check for a meter offset or a load still connected.'}`,
@@ -883,6 +891,7 @@ const CURVATURE_ALPHA = 0.001;
 function curvatureOfLogVolts(
   t: Float64Array,
   v: Float64Array,
+  lnV: Float64Array,
   include: Uint8Array,
   variance: Float64Array,
 ): number | null {
@@ -910,7 +919,7 @@ function curvatureOfLogVolts(
     if (!include[i]) continue;
     const w = (v[i]! * v[i]!) / variance[i]!;
     const x = (t[i]! - centre) / spread;
-    const y = Math.log(v[i]!);
+    const y = lnV[i]!;
     const x2 = x * x;
     r[0] = r[0]! + w * y;
     r[1] = r[1]! + w * x * y;
