@@ -23,14 +23,18 @@ interface VitestReport {
   numPassedTests: number;
   numFailedTests: number;
   numPendingTests?: number;
-  testResults: Array<{ name: string; status: string; message?: string; assertionResults: unknown[] }>;
+  testResults: Array<{ name: string; status: string; message?: string; assertionResults: Array<{ status: string }> }>;
 }
 
 /** Counts every test of every project; a file that failed to load counts as one failure. */
 function summarise(): { passed: number; failed: number; skipped: number } {
   if (!fs.existsSync(reportFile)) return { passed: 0, failed: 1, skipped: 0 };
   const report = JSON.parse(fs.readFileSync(reportFile, 'utf8')) as VitestReport;
-  const brokenFiles = report.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0);
+  // a file that failed without a failed test (it did not load, or a hook failed and its tests
+  // were skipped) still failed: it counts as one
+  const brokenFiles = report.testResults.filter(
+    (f) => f.status === 'failed' && !f.assertionResults.some((a) => a.status === 'failed'),
+  );
   for (const file of brokenFiles) console.error(`[test] could not run ${path.relative(PROJECT_ROOT, file.name)}: ${file.message ?? ''}`);
   return {
     passed: report.numPassedTests,

@@ -34,6 +34,9 @@ const baseUrl = `http://localhost:${ports.app}`;
 /** The start command's environment: its own ports and folders, nothing of the test run's database. */
 function startEnv(): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = { ...process.env };
+  // the browser tests' global setup puts its own sign-in service's settings (IDP_ISSUER, …) into
+  // the run's environment: none of them may reach this start command
+  for (const name of Object.keys(env)) if (name.startsWith('IDP_')) delete env[name];
   for (const name of [
     'DATABASE_URL',
     'MIGRATION_DATABASE_URL',
