@@ -26,6 +26,24 @@ export async function postCreated(
   return res.body as Answered;
 }
 
+/**
+ * Asserts the outcome of simultaneous writes of one unique value: exactly one `winner` status,
+ * and every other answer a 409 `duplicate` naming `field` (never a 500).
+ */
+export function expectOneWinnerRestDuplicate(
+  answers: Array<{ status: number; body: { error?: unknown } }>,
+  winner: 200 | 201,
+  field: string,
+): void {
+  expect(answers.map((r) => r.status).sort()).toEqual([
+    winner,
+    ...Array(answers.length - 1).fill(409),
+  ]);
+  for (const refused of answers.filter((r) => r.status === 409)) {
+    expect(refused.body.error).toMatchObject({ code: 'duplicate', issues: [{ path: field }] });
+  }
+}
+
 /** Reads the version of the record at `path`, for the corpus and the change properties. */
 export function targetAt(app: Express, headers: Record<string, string>, path: string) {
   return async () => ({
