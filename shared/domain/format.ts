@@ -85,7 +85,7 @@ export function formatFigure(value: number, significant = 3): string {
  * A 95 % (or any) interval at the precision of the figure it belongs to: both ends with the
  * decimals that `like` (the estimate) shows at `significant` figures, so the interval reads
  * alike its figure; the unit once, at the end. When both ends round to the same figure, the
- * interval is narrower than the last digit shown and is written as that one figure.
+ * interval is narrower than the last digit shown, and says so beside that one figure.
  *
  * @param low - lower end, in the unit shown
  * @param high - upper end, in the unit shown
@@ -93,7 +93,7 @@ export function formatFigure(value: number, significant = 3): string {
  * @param options.unit - unit after the upper end, e.g. 's', '%', 'µF'
  * @example
  * formatInterval(98.43, 103.21, { like: 100.8, unit: '%' }) // '98 to 103 %'
- * formatInterval(224.983, 225.03, { like: 225.0, unit: 's' }) // '225 s at both ends'
+ * formatInterval(224.983, 225.03, { like: 225.0, unit: 's' }) // '225 s (narrower than 1 s)'
  * formatInterval(1488.2, 1561.7, { like: 1522.4, unit: 'µF' }) // '1,490 to 1,560 µF'
  */
 export function formatInterval(
@@ -114,7 +114,10 @@ export function formatInterval(
   if (/\.0+$/.test(lowText) && /\.0+$/.test(highText))
     [lowText, highText] = [lowText.replace(/\.0+$/, ''), highText.replace(/\.0+$/, '')];
   const withUnit = (text: string) => (unit ? `${text} ${unit}` : text);
-  if (lowText === highText) return `${withUnit(lowText)} at both ends`;
+  if (lowText === highText) {
+    const stepText = fixedGrouped(step, decimals, 21);
+    return `${withUnit(lowText)} (narrower than ${withUnit(stepText)})`;
+  }
   return withUnit(`${lowText} to ${highText}`);
 }
 

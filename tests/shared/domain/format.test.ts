@@ -54,11 +54,16 @@ describe('formatInterval', () => {
     expect(formatInterval(0.01234, 0.01301, { like: 0.0125 })).toBe('0.0123 to 0.0130');
   });
 
-  it('when both ends round to the same figure (the report’s 101.665 % to 101.692 %), then it is said once', () => {
+  it('when both ends round to the same figure (the report’s 101.665 % to 101.692 %), then it is said once, with how narrow it is', () => {
     expect(formatInterval(101.665, 101.692, { like: 101.68, unit: '%' })).toBe(
-      '102 % at both ends',
+      '102 % (narrower than 1 %)',
     );
-    expect(formatInterval(224.983, 225.03, { like: 225, unit: 's' })).toBe('225 s at both ends');
+    expect(formatInterval(224.983, 225.03, { like: 225, unit: 's' })).toBe(
+      '225 s (narrower than 1 s)',
+    );
+    expect(formatInterval(4.5312, 4.5348, { like: 4.534, unit: 'min' })).toBe(
+      '4.53 min (narrower than 0.01 min)',
+    );
   });
 
   it('when the ends come reversed or without an estimate, then low to high at the precision of the larger end', () => {
