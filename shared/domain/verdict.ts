@@ -416,7 +416,7 @@ export function judgeDecayRun(facts: DecayRunFacts): DecayVerdictResult {
     findings.push({
       code: 'control-supply-phase',
       severity: 'info',
-      message: `The control supply was running at the start: ${phase.readingsBefore === 1 ? 'one reading' : `${phase.readingsBefore} readings`} before ${formatVolts(phase.kneeVolts)} at t = ${formatNumber(phase.kneeSeconds, 4)} s ${phase.readingsBefore === 1 ? 'was' : 'were'} left out${phase.powerWatts !== null ? ` (about ${formatNumber(phase.powerWatts, 2)} W drawn)` : ''}. A baseline is only comparable with the same drive options and I/O connected.`,
+      message: `The control supply was running at the start: ${phase.readingsBefore === 1 ? 'one reading' : `${phase.readingsBefore} readings`} before ${formatVolts(phase.kneeVolts)} at t = ${formatNumber(phase.kneeSeconds, 4)} s ${phase.readingsBefore === 1 ? 'was' : 'were'} left out${phase.powerWatts !== null ? ` (about ${formatNumber(phase.powerWatts, 2)} W drawn${phase.dropoutVolts !== null ? `, the supply dropping out near ${formatVolts(phase.dropoutVolts)}` : ''})` : ''}. A baseline is only comparable with the same drive options and I/O connected.`,
     });
   }
   const slips = fit.excluded.filter((reading) => reading.code !== 'control-supply-phase');

@@ -60,5 +60,8 @@ describe('runDecayCheck on a run with a control-supply phase', () => {
     expect(phase.dropoutVolts! / dropout).toBeCloseTo(1, 1);
     expect(Math.abs(outcome.verdict.tauSeconds / TAU_WITH_METER - 1)).toBeLessThan(0.01);
     expect(outcome.verdict.health).toBe('healthy');
+    // the finding a person reads names both figures
+    const finding = outcome.verdict.findings.find((f) => f.code === 'control-supply-phase')!;
+    expect(finding.message).toMatch(/about \d+(\.\d)? W drawn, the supply dropping out near 3\d\d V/);
   });
 });
