@@ -62,6 +62,8 @@ describe('runDecayCheck on a run with a control-supply phase', () => {
     expect(outcome.verdict.health).toBe('healthy');
     // the finding a person reads names both figures
     const finding = outcome.verdict.findings.find((f) => f.code === 'control-supply-phase')!;
-    expect(finding.message).toMatch(/about \d+(\.\d)? W drawn, the supply dropping out near 3\d\d V/);
+    expect(finding.message).toMatch(
+      /about \d+(\.\d)? W drawn, the supply dropping out near 3\d\d V/,
+    );
   });
 });
