@@ -108,6 +108,17 @@ export interface ImportProblem {
   reason: string;
 }
 
+/**
+ * One question about one row: a value that may be right but is unlikely (a DC bus far from the
+ * supply's rectifier arithmetic, a date more than a year ahead), in the words the register's
+ * forms use. The import stores such a row only once the person confirms it.
+ */
+export interface ImportQuestion {
+  row: number;
+  column: string;
+  message: string;
+}
+
 /** One row of the preview, as read, with its problems. */
 export interface ImportPreviewRow {
   row: number;
@@ -118,6 +129,8 @@ export interface ImportPreviewRow {
   newArea: boolean;
   values: Record<string, string>;
   problems: ImportProblem[];
+  /** Unlikely values of the row, to confirm before it is imported. */
+  questions: ImportQuestion[];
 }
 
 /** What the import found in a file; `committed` is true once it stored the rows. */
@@ -132,6 +145,12 @@ export interface ImportPreview {
   problems: ImportProblem[];
   /** Problems found but not listed in `problems`: problemCount − problems.length. */
   problemsNotListed: number;
+  /** Unlikely values found in the whole file, each to confirm before the import stores it. */
+  questionCount: number;
+  /** The first questions in row order (at most IMPORT_PROBLEMS_LISTED). */
+  questions: ImportQuestion[];
+  /** Questions found but not listed in `questions`: questionCount − questions.length. */
+  questionsNotListed: number;
   /** The first rows of the file (at most IMPORT_ROWS_LISTED), each with its own problems. */
   rows: ImportPreviewRow[];
   /** New areas the import would create, as "site code / area". */

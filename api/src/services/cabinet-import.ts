@@ -12,6 +12,7 @@ import {
   type ImportPreview,
   type ImportPreviewRow,
   type ImportProblem,
+  type ImportQuestion,
 } from '../../../shared/schemas/cabinet-import';
 import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
@@ -21,6 +22,7 @@ import { Site } from '../models/site';
 import { recordAuditBatch, type AuditRecordInput } from './audit';
 import { readCsvInChunks, yieldToEventLoop } from './csv-in-chunks';
 import { AREA_AUDITED, CABINET_AUDITED } from './audited-fields';
+import { cabinetQuestions, dateOn } from './register-checks';
 import { snapshotOf } from './register-records';
 import type { UnitOfWork } from './unit-of-work';
 
@@ -64,6 +66,7 @@ interface ReadRow {
   values: Record<string, string>;
   data: CabinetImportRow | null;
   problems: ImportProblem[];
+  questions: ImportQuestion[];
   areaId: string | null;
   siteId: string | null;
   newArea: boolean;
@@ -75,6 +78,15 @@ interface ReadFile {
   fileProblems: ImportProblem[];
   ignoredColumns: string[];
   newAreas: Map<string, { siteId: string; name: string }>;
+}
+
+/** The file's column of each cabinet field the register's plausibility checks question. */
+const COLUMN_OF_FIELD: Record<string, string> = { dcBusVolts: 'dc_bus_volts', commissionedOn: 'commissioned_on' };
+
+/** The questions the cabinet form would ask about a row's values (the same rules, the same words). */
+function rowQuestions(row: number, data: CabinetImportRow, asOfOn: string): ImportQuestion[] {
+  const figures = { supplyVolts: data.supply_volts, dcBusVolts: data.dc_bus_volts ?? null, commissionedOn: data.commissioned_on ?? null };
+  return cabinetQuestions(figures, 'all', asOfOn).map((issue) => ({ row, column: COLUMN_OF_FIELD[issue.path] ?? issue.path, message: issue.message }));
 }
 
 /** Rows checked between two turns of the event loop (a few milliseconds of schema checks). */
@@ -92,7 +104,7 @@ function tooManyRows(): AppError {
  * Parsing and checking go in slices that let other requests run between them.
  * @throws AppError `file-too-large` as soon as the file passes IMPORT_MAX_ROWS data rows
  */
-async function readRows(file: ImportFile): Promise<ReadFile> {
+async function readRows(file: ImportFile, asOfOn: string): Promise<ReadFile> {
   const csv = await readCsvInChunks(decode(file.bytes), { maxRows: IMPORT_MAX_ROWS, transformHeader: columnName });
   if (csv.overRowLimit) throw tooManyRows();
   const fields = csv.fields;
@@ -114,7 +126,8 @@ async function readRows(file: ImportFile): Promise<ReadFile> {
       const problems: ImportProblem[] = result.success
         ? []
         : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
-      rows.push({ row, values, data: result.success ? result.data : null, problems, areaId: null, siteId: null, newArea: false });
+      const questions = result.success ? rowQuestions(row, result.data, asOfOn) : [];
+      rows.push({ row, values, data: result.success ? result.data : null, problems, questions, areaId: null, siteId: null, newArea: false });
     }
   }
   for (const error of csv.errors) {
@@ -202,6 +215,23 @@ function order(column: string): number {
   return i < 0 ? -1 : i;
 }
 
+/** The refusal of a commit whose unlikely values are not confirmed: the rows and columns, the first ones listed. */
+function questionsUnconfirmed(questions: ImportQuestion[]): AppError {
+  const rowsAsked = new Set(questions.map((q) => q.row)).size;
+  const listed = questions.slice(0, IMPORT_PROBLEMS_LISTED);
+  const more = questions.length > listed.length ? ` The first ${listed.length} are listed; ${questions.length - listed.length} more are not.` : '';
+  return new AppError(
+    'confirmation-needed',
+    `Are you sure? ${questions.length} unlikely value(s) on ${rowsAsked} row(s); nothing was imported. Correct them in the file, or confirm them to import it as it is.${more}`,
+    listed.map((q) => ({ path: `row ${q.row}, column ${q.column}`, message: q.message })),
+  );
+}
+
+/** Every question of the file, in row order. */
+function allQuestions(read: ReadFile): ImportQuestion[] {
+  return read.rows.flatMap((r) => r.questions);
+}
+
 /** Every problem of the file, in row order. */
 function allProblems(read: ReadFile): ImportProblem[] {
   return [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
@@ -210,6 +240,7 @@ function allProblems(read: ReadFile): ImportProblem[] {
 /** The preview: counts of everything, the first problems and rows one by one (the answer stays small). */
 function toPreview(read: ReadFile, committed: boolean, createdCount: number): ImportPreview {
   const problems = allProblems(read);
+  const questions = allQuestions(read);
   const siteCodeOf = new Map(read.rows.filter((r) => r.siteId).map((r) => [r.siteId!, r.data!.site_code]));
   const rows: ImportPreviewRow[] = read.rows.slice(0, IMPORT_ROWS_LISTED).map((r) => ({
     row: r.row,
@@ -219,6 +250,7 @@ function toPreview(read: ReadFile, committed: boolean, createdCount: number): Im
     newArea: r.newArea,
     values: r.values,
     problems: r.problems,
+    questions: r.questions,
   }));
   return {
     fileName: read.fileName,
@@ -227,6 +259,9 @@ function toPreview(read: ReadFile, committed: boolean, createdCount: number): Im
     problemCount: problems.length,
     problems: problems.slice(0, IMPORT_PROBLEMS_LISTED),
     problemsNotListed: Math.max(0, problems.length - IMPORT_PROBLEMS_LISTED),
+    questionCount: questions.length,
+    questions: questions.slice(0, IMPORT_PROBLEMS_LISTED),
+    questionsNotListed: Math.max(0, questions.length - IMPORT_PROBLEMS_LISTED),
     rows,
     newAreas: [...read.newAreas.values()].map((a) => `${siteCodeOf.get(a.siteId) ?? ''} / ${a.name}`),
     ignoredColumns: read.ignoredColumns,
@@ -263,26 +298,35 @@ function insertCabinets(rows: ReadRow[], areaIdByKey: Map<string, string>, trans
   );
 }
 
-/** Reads a file and says what importing it would do, storing nothing. */
-export async function previewCabinetImport(file: ImportFile): Promise<ImportPreview> {
-  return toPreview(await checkAgainstRegister(await readRows(file)), false, 0);
+/**
+ * Reads a file and says what importing it would do, storing nothing: its problems, and its
+ * unlikely values as questions.
+ * @param asOfOn - today (`YYYY-MM-DD`), for the question about dates more than a year ahead
+ */
+export async function previewCabinetImport(file: ImportFile, asOfOn: string): Promise<ImportPreview> {
+  return toPreview(await checkAgainstRegister(await readRows(file, asOfOn)), false, 0);
 }
 
 /**
  * Imports every row of the file in the unit of work: new areas first, then the cabinets, each
- * with its audit entry. When any row has a problem nothing is stored.
+ * with its audit entry. When any row has a problem, or an unlikely value the request does not
+ * confirm, nothing is stored.
+ * @param confirmed - the person has checked the file's unlikely values and keeps them
  * @throws AppError `import-rejected` listing the first IMPORT_PROBLEMS_LISTED problems (path "row N, column C")
+ * @throws AppError `confirmation-needed` listing the first IMPORT_PROBLEMS_LISTED questions, unless `confirmed`
  * @throws AppError `file-too-large` when the file has more than IMPORT_MAX_ROWS rows
  */
-export async function importCabinets(uow: UnitOfWork, file: ImportFile): Promise<ImportPreview> {
+export async function importCabinets(uow: UnitOfWork, file: ImportFile, confirmed = false): Promise<ImportPreview> {
   const { transaction } = uow;
   // the file is read before the table lock, so the lock is held only for the register checks and the writes
-  const rowsRead = await readRows(file);
+  const rowsRead = await readRows(file, dateOn(uow.now));
   // a table lock keeps two imports (or an import and a form) from taking the same tag at once
   await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
   const read = await checkAgainstRegister(rowsRead, transaction);
   const problems = allProblems(read);
   if (problems.length > 0) throw importRejected(problems);
+  const questions = allQuestions(read);
+  if (questions.length > 0 && !confirmed) throw questionsUnconfirmed(questions);
   const audit: AuditRecordInput[] = [];
   const areaIdByKey = new Map<string, string>();
   for (const [key, area] of read.newAreas) {
@@ -302,12 +346,14 @@ export async function importCabinets(uow: UnitOfWork, file: ImportFile): Promise
   for (let start = 0; start < read.rows.length; start += ROWS_PER_STATEMENT) {
     cabinets.push(...(await insertCabinets(read.rows.slice(start, start + ROWS_PER_STATEMENT), areaIdByKey, transaction)));
   }
-  for (const cabinet of cabinets) {
+  // bulkCreate returns the cabinets in the order of the rows
+  for (const [i, cabinet] of cabinets.entries()) {
+    const asked = read.rows[i]?.questions.map((q) => q.column) ?? [];
     audit.push({
       entityType: 'cabinet',
       entityId: cabinet.id,
       action: 'import',
-      summary: `Imported cabinet ${cabinet.tag} from ${file.name}`,
+      summary: `Imported cabinet ${cabinet.tag} from ${file.name}${asked.length ? ` (unlikely ${asked.join(' and ')} confirmed)` : ''}`,
       before: null,
       after: snapshotOf(cabinet, CABINET_AUDITED),
     });

@@ -6,6 +6,7 @@ import { listAuditEntries } from '../../services/audit';
 import { createBank, getBankLineage, listBanks } from '../../services/banks';
 import { cabinetImportTemplate, importCabinets, previewCabinetImport } from '../../services/cabinet-import';
 import { createCabinet, getCabinet, getCabinetLabel, listCabinets, retireCabinet, updateCabinet } from '../../services/cabinets';
+import { dateOn } from '../../services/register-checks';
 import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
 import { bankPolicy } from '../banks/policy';
@@ -38,12 +39,14 @@ cabinetsRouter.get('/import/template', requireRole(...cabinetPolicy.import), (_r
 
 cabinetsRouter.post('/import/preview', requireRole(...cabinetPolicy.import), csvUpload, async (req, res) => {
   const file = req.file!;
-  res.json(await previewCabinetImport({ name: file.originalname, bytes: file.buffer }));
+  res.json(await previewCabinetImport({ name: file.originalname, bytes: file.buffer }, dateOn(new Date())));
 });
 
 cabinetsRouter.post('/import', requireRole(...cabinetPolicy.import), csvUpload, async (req, res) => {
   const file = req.file!;
-  res.status(201).json(await withUnitOfWork(actingUser(req), (uow) => importCabinets(uow, { name: file.originalname, bytes: file.buffer })));
+  // the multipart form's `confirmed=true` keeps the file's unlikely values, as `confirmed: true` does in a form's body
+  const confirmed = (req.body as Record<string, unknown> | undefined)?.confirmed === 'true';
+  res.status(201).json(await withUnitOfWork(actingUser(req), (uow) => importCabinets(uow, { name: file.originalname, bytes: file.buffer }, confirmed)));
 });
 
 cabinetsRouter.get('/:cabinetId', requireRole(...cabinetPolicy.read), async (req, res) => {
