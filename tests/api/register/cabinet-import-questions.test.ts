@@ -35,7 +35,7 @@ const upload = (path: string, bytes: Buffer, filename: string, fields: Record<st
   return req.attach('file', bytes, { filename, contentType: 'text/csv' });
 };
 
-const stored = async () => [await countRows('cabinets'), await countRows('areas'), await countRows('audit_entries')];
+const stored = async (): Promise<[number, number, number]> => [await countRows('cabinets'), await countRows('areas'), await countRows('audit_entries')];
 
 /** A file with an ordinary row, a 5 V bus, a commissioning date years ahead, and a new area. */
 const questionedFile = (serial: string) =>
@@ -77,7 +77,8 @@ describe('POST /api/cabinets/import/preview: unlikely values', () => {
 describe('POST /api/cabinets/import: unlikely values', () => {
   it('when the request does not confirm them, then 422 confirmation-needed naming rows and columns, and nothing is stored', async () => {
     const before = await stored();
-    for (const fields of [{}, { confirmed: 'false' }, { confirmed: 'yes' }]) {
+    const unconfirming: Array<Record<string, string>> = [{}, { confirmed: 'false' }, { confirmed: 'yes' }];
+    for (const fields of unconfirming) {
       const res = await upload('/api/cabinets/import', questionedFile('20'), 'unconfirmed.csv', fields);
       expect(res.status, JSON.stringify(fields)).toBe(422);
       expect(res.body.error.code).toBe('confirmation-needed');
