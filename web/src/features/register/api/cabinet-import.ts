@@ -13,6 +13,8 @@ export interface UploadOptions {
   mode: 'preview' | 'commit';
   /** The session's CSRF token, sent as X-CSRF-Token. */
   csrfToken: string | null;
+  /** The person has checked the file's unlikely values and keeps them (commit only). */
+  confirmed?: boolean;
   /** Fraction of the file sent so far, 0 to 1. */
   onProgress?: (fraction: number) => void;
 }
@@ -21,7 +23,7 @@ export interface UploadOptions {
  * Uploads the CSV with XMLHttpRequest (fetch cannot report upload progress) to
  * POST /api/cabinets/import/preview or POST /api/cabinets/import. Throws ApiError like apiFetch.
  */
-export function uploadCabinetRegister({ file, mode, csrfToken, onProgress }: UploadOptions): Promise<ImportPreview> {
+export function uploadCabinetRegister({ file, mode, csrfToken, confirmed, onProgress }: UploadOptions): Promise<ImportPreview> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', mode === 'preview' ? '/api/cabinets/import/preview' : '/api/cabinets/import');
@@ -48,6 +50,7 @@ export function uploadCabinetRegister({ file, mode, csrfToken, onProgress }: Upl
       reject(new ApiError(xhr.status, error?.code ?? `http-${xhr.status}`, error?.message ?? `The server answered ${xhr.status}.`, error?.issues));
     };
     const form = new FormData();
+    if (confirmed) form.append('confirmed', 'true');
     form.append('file', file);
     xhr.send(form);
   });

@@ -9,6 +9,7 @@ import { ErrorPanel } from '../../../components/ui/error-panel';
 import { ProgressBar } from '../../../components/ui/progress-bar';
 import { ApiError } from '../../../lib/api-client';
 import { CABINET_IMPORT_TEMPLATE_URL, useUploadCabinetRegister } from '../api/cabinet-import';
+import { ImportQuestions } from './cabinet-import-questions';
 import { ReadOnlyNote, useRegisterPermissions } from './permissions';
 import { RecordHeader } from './record-parts';
 
@@ -90,6 +91,8 @@ function RowsTable({ preview }: { preview: ImportPreview }) {
               <td className="min-w-64 whitespace-normal px-3 py-2">
                 {r.problems.length ? (
                   <span className="text-eol-600">{r.problems.map((p) => `${p.column}: ${p.reason}`).join('; ')}</span>
+                ) : r.questions.length ? (
+                  <span className="text-watch-600">are you sure? {r.questions.map((q) => q.column).join(', ')}</span>
                 ) : (
                   <span className="text-ok-600">ready</span>
                 )}
@@ -116,17 +119,22 @@ export function CabinetImportScreen() {
   const [localProblem, setLocalProblem] = useState<string | null>(null);
   const [progress, setProgress] = useState(0);
   const [preview, setPreview] = useState<ImportPreview | null>(null);
+  // the unlikely values of this preview are checked; a new preview asks again
+  const [questionsChecked, setQuestionsChecked] = useState(false);
   const upload = useUploadCabinetRegister();
 
   const send = (chosen: File, mode: 'preview' | 'commit') => {
     setProgress(0);
     upload.mutate(
-      { file: chosen, mode, csrfToken: can.csrfToken, onProgress: setProgress },
+      { file: chosen, mode, csrfToken: can.csrfToken, confirmed: mode === 'commit' && questionsChecked, onProgress: setProgress },
       {
-        onSuccess: (result) => setPreview(result),
+        onSuccess: (result) => {
+          if (!result.committed) setQuestionsChecked(false);
+          setPreview(result);
+        },
         onError: (error) => {
-          // a commit refused for problems found since the preview: show them as the preview does
-          if (error instanceof ApiError && error.code === 'import-rejected') send(chosen, 'preview');
+          // a commit refused for problems or questions found since the preview: show them as the preview does
+          if (error instanceof ApiError && (error.code === 'import-rejected' || error.code === 'confirmation-needed')) send(chosen, 'preview');
         },
       },
     );
@@ -211,7 +219,7 @@ export function CabinetImportScreen() {
             <ProgressBar fraction={progress} label={progress < 1 ? `Uploading ${file?.name ?? ''}` : 'Checking every row…'} />
           </div>
         ) : null}
-        {upload.isError && !(upload.error instanceof ApiError && upload.error.code === 'import-rejected') ? (
+        {upload.isError && !(upload.error instanceof ApiError && (upload.error.code === 'import-rejected' || upload.error.code === 'confirmation-needed')) ? (
           <div className="mt-4">
             <ErrorPanel title="The file could not be read">{upload.error.message}</ErrorPanel>
           </div>
@@ -224,21 +232,31 @@ export function CabinetImportScreen() {
             <Badge>{preview.rowCount} rows</Badge>
             <Badge tone="ok">{preview.validCount} ready</Badge>
             {preview.problemCount ? <Badge tone="danger">{preview.problemCount} problems</Badge> : null}
+            {preview.questionCount ? <Badge tone="warn">{preview.questionCount} to check</Badge> : null}
             {preview.newAreas.length ? <Badge tone="spark">new areas: {preview.newAreas.join(', ')}</Badge> : null}
             {preview.ignoredColumns.length ? <Badge tone="muted">left out: {preview.ignoredColumns.join(', ')}</Badge> : null}
           </div>
           <div className="space-y-4">
             {preview.problemCount ? <ProblemsTable preview={preview} /> : null}
+            {preview.questionCount ? (
+              <ImportQuestions preview={preview} checked={questionsChecked} onCheckedChange={setQuestionsChecked} />
+            ) : null}
             <RowsTable preview={preview} />
           </div>
           <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-tide-100 pt-4">
-            <Button variant="primary" disabled={preview.problemCount > 0 || upload.isPending || !file} onClick={() => file && send(file, 'commit')}>
+            <Button
+              variant="primary"
+              disabled={preview.problemCount > 0 || (preview.questionCount > 0 && !questionsChecked) || upload.isPending || !file}
+              onClick={() => file && send(file, 'commit')}
+            >
               Import {preview.rowCount} cabinet{preview.rowCount === 1 ? '' : 's'}
             </Button>
             <span className="text-sm text-tide-800">
               {preview.problemCount
                 ? 'Fix the rows above in your file and choose it again.'
-                : 'All rows go in together, or none do.'}
+                : preview.questionCount && !questionsChecked
+                  ? 'Check the unlikely values above: correct them in your file, or tick the box to keep them.'
+                  : 'All rows go in together, or none do.'}
             </span>
           </div>
         </Card>
