@@ -18,6 +18,9 @@
  *   --marked-wait-s S           wait time marked on the cabinet, seconds
  *   --measured-bleeder-ohms R   bleeder resistance measured with the bus discharged
  *   --technology T              electrolytic (default) or film: default health limits
+ *   --meter-noise-volts A       the meter's own constant noise, volts (a floor for the fit's weights)
+ *   --meter-noise-percent B     the meter's noise in proportion to the reading, % (e.g. 0.1)
+ *   --timing-jitter-s D         scatter of the moment each reading was taken, seconds (handheld: ~0.5)
  *
  * Bad input or unusable data: exit status 2, one message on stderr, nothing on stdout.
  */
@@ -36,7 +39,7 @@ import { CAPACITOR_TECHNOLOGIES, type CapacitorTechnology } from '../../../share
 import { DISCHARGE_CAUTION_TEXT } from '../../../shared/constants/safety';
 
 const USAGE =
-  'usage: npm run -s fit -- FILE.csv --bleeder-ohms R [--meter-ohms M] [--time-column C] [--volts-column C] [--temp-c T] [--temp-coeff-per-k A] [--baseline-uf C] [--nominal-volts V] [--marked-wait-s S] [--measured-bleeder-ohms R] [--technology electrolytic|film]';
+  'usage: npm run -s fit -- FILE.csv --bleeder-ohms R [--meter-ohms M] [--time-column C] [--volts-column C] [--temp-c T] [--temp-coeff-per-k A] [--baseline-uf C] [--nominal-volts V] [--marked-wait-s S] [--measured-bleeder-ohms R] [--technology electrolytic|film] [--meter-noise-volts A] [--meter-noise-percent B] [--timing-jitter-s D]';
 
 const VALUE_OPTIONS = [
   'bleeder-ohms',
@@ -50,6 +53,9 @@ const VALUE_OPTIONS = [
   'technology',
   'time-column',
   'volts-column',
+  'meter-noise-volts',
+  'meter-noise-percent',
+  'timing-jitter-s',
 ] as const;
 
 function fitCommand(argv: string[], io: CliIo): void {
@@ -98,6 +104,20 @@ function fitCommand(argv: string[], io: CliIo): void {
   if (!CAPACITOR_TECHNOLOGIES.includes(technology))
     throw new UsageError(`--technology must be electrolytic or film, got "${values.technology}"`);
 
+  // what is known of the meter's scatter: floors under the noise the fit estimates itself
+  const noiseVolts = optionalNumber(values['meter-noise-volts'], '--meter-noise-volts', 'positive');
+  const noisePercent = optionalNumber(
+    values['meter-noise-percent'],
+    '--meter-noise-percent',
+    'positive',
+  );
+  const jitterSeconds = optionalNumber(values['timing-jitter-s'], '--timing-jitter-s', 'positive');
+  const noise = {
+    ...(noiseVolts !== undefined ? { volts: noiseVolts } : {}),
+    ...(noisePercent !== undefined ? { fractionOfReading: noisePercent / 100 } : {}),
+    ...(jitterSeconds !== undefined ? { timingJitterSeconds: jitterSeconds } : {}),
+  };
+
   const csv = readSamples(readInputBytes(file, io), {
     ...(values['time-column'] !== undefined ? { timeColumn: values['time-column'] } : {}),
     ...(values['volts-column'] !== undefined ? { voltsColumn: values['volts-column'] } : {}),
@@ -123,6 +143,7 @@ function fitCommand(argv: string[], io: CliIo): void {
       ...(tempC !== undefined ? { bankTempC: tempC } : {}),
       ...(measuredBleeder !== undefined ? { measuredBleederOhms: measuredBleeder } : {}),
     },
+    ...(Object.keys(noise).length ? { fitOptions: { noise } } : {}),
   };
   const verdict = judgeDecayRun(facts);
   if (verdict.status !== 'ok') throw new UsageError(`unusable decay run: ${verdict.reason}`);
@@ -169,6 +190,8 @@ function fitCommand(argv: string[], io: CliIo): void {
     bleederSource: verdict.resistance.bleederSource,
     meterInputOhms: verdict.resistance.meterInputOhms,
     rmseVolts: fit.rmseVolts,
+    // the readings' scatter the fit weighted by (estimated, never below what was given)
+    noise: fit.noise,
     r2: fit.r2,
     pointsUsed: fit.pointsUsed,
     pointsTotal: fit.pointsTotal,

@@ -26,6 +26,32 @@ function json(args: string[]): Record<string, unknown> {
 
 const handheld = FIXTURES.handheld;
 
+describe('fit main, the meter noise options', () => {
+  const base = [fixture('handheld-20.csv'), '--bleeder-ohms', String(handheld.bleederOhms)];
+  const halfWidth = (out: Record<string, unknown>) => {
+    const [low, high] = out.tauCi95 as [number, number];
+    return (high - low) / 2;
+  };
+
+  it('when the meter is said to scatter 2 % of the reading, then the fit weighs by at least that and τ’s interval widens', () => {
+    const plain = json(base);
+    const noisy = json([...base, '--meter-noise-percent', '2', '--timing-jitter-s', '0.5']);
+    expect((noisy.noise as { fractionOfReading: number }).fractionOfReading).toBeGreaterThanOrEqual(
+      0.02,
+    );
+    expect(halfWidth(noisy)).toBeGreaterThan(halfWidth(plain));
+    // the estimate itself stays on the bank's τ (the fixture's generating fact)
+    expect(Math.abs((noisy.tauSeconds as number) / handheld.tauSeconds - 1)).toBeLessThan(0.02);
+  });
+
+  it('when a noise option is not a positive number, then exit 2 naming the option', () => {
+    const result = fit(...base, '--meter-noise-volts', 'abc');
+    expect(result.status).toBe(2);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(/--meter-noise-volts must be a positive number, got "abc"/);
+  });
+});
+
 describe('fit main', () => {
   it('when a handheld file is fitted with its bleeder and baseline, then τ, C, ratio and health match the bank it came from', () => {
     const out = json([
