@@ -16,6 +16,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare roles: CreationOptional<string[]>;
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
+  /** Hours a week the person is available for visits (0–80). */
+  declare availableHoursPerWeek: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -29,6 +31,15 @@ User.init(
     roles: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     lastSignInAt: { type: DataTypes.DATE },
+    availableHoursPerWeek: {
+      type: DataTypes.DECIMAL(5, 1),
+      allowNull: false,
+      defaultValue: 37.5,
+      // PostgreSQL's numeric arrives as text: hours are a plain number everywhere else
+      get() {
+        return Number(this.getDataValue('availableHoursPerWeek'));
+      },
+    },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
