@@ -11,3 +11,6 @@ export { Bank } from './bank';
 export { Spare } from './spare';
 export { AuditEntry } from './audit-entry';
 export { OutboxMessage } from './outbox-message';
+export { Visit } from './visit';
+export { VisitBank } from './visit-bank';
+export { VisitTechnician } from './visit-technician';
