@@ -5,6 +5,8 @@ export interface FieldIssue {
   /** Dotted path of the field, e.g. "banks.0.bleederOhms". */
   path: string;
   message: string;
+  /** What kind of problem, where a field can have several (a planning warning's kind). */
+  kind?: string;
 }
 
 /**
@@ -36,6 +38,8 @@ export const ERROR_CODES = [
   'identity-provider-unreachable',
   'database-unavailable',
   'confirmation-needed',
+  'override-needed',
+  'visit-state',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

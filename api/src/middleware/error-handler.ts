@@ -34,6 +34,10 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'database-unavailable': 503,
   // the value may be right: the client asks the person and sends it again with `confirmed: true`
   'confirmation-needed': 422,
+  // a visit's planning warnings: saved when the body overrides each with a reason
+  'override-needed': 422,
+  // the visit's state does not allow the action ("A logged visit can't be started.")
+  'visit-state': 409,
 };
 
 /** The status an AppError answers with: its code's. */
