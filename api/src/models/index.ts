@@ -11,6 +11,7 @@ export { Bank } from './bank';
 export { Spare } from './spare';
 export { AuditEntry } from './audit-entry';
 export { OutboxMessage } from './outbox-message';
+export { ShutdownWindow } from './shutdown-window';
 export { Visit } from './visit';
 export { VisitBank } from './visit-bank';
 export { VisitTechnician } from './visit-technician';
