@@ -184,7 +184,8 @@ export async function storedState(): Promise<Record<string, string>> {
         `(SELECT count(*) || ':' || coalesce(sum(version), 0) || ':' || coalesce(max(updated_at)::text, '') FROM ${t}) AS ${t}`,
     ),
     ...counted.map((t) => `(SELECT count(*)::text FROM ${t}) AS ${t}`),
-    `(SELECT coalesce(string_agg(id || array_to_string(roles, ',') || active::text, ';' ORDER BY id), '') FROM users) AS people`,
+    `(SELECT coalesce(string_agg(id || array_to_string(roles, ',') || active::text || available_hours_per_week::text, ';' ORDER BY id), '') FROM users) AS people`,
+    `(SELECT coalesce(string_agg(user_id || ':' || site_id, ';' ORDER BY user_id, site_id), '') FROM person_sites) AS person_sites`,
   ];
   const [rows] = await sequelize.query(`SELECT ${columns.join(', ')}`);
   return (rows as Array<Record<string, string>>)[0]!;

@@ -1,10 +1,13 @@
-import { Op, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
 import { isRole, type Role } from '../../../shared/constants/roles';
-import type { PeopleQuery, PersonUpdate } from '../../../shared/schemas/person';
+import type { PeopleQuery, PersonSiteRef, PersonUpdate } from '../../../shared/schemas/person';
 import { endSessionsOfUser } from '../auth/session';
+import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
+import { PersonSite } from '../models/person-site';
 import { User } from '../models/user';
 import { recordAccessEvent, type RequestOrigin } from './access-events';
+import { recordAudit } from './audit';
 import type { UnitOfWork } from './unit-of-work';
 
 /** What a verified ID token says about the person signing in. */
@@ -153,6 +156,65 @@ export async function listPeople(query: PeopleQuery): Promise<User[]> {
   });
 }
 
+/** One person, or `not-found`. */
+export async function getPerson(userId: string): Promise<User> {
+  const user = await User.findByPk(userId);
+  if (!user) throw AppError.notFound('The person');
+  return user;
+}
+
+/**
+ * The sites each of `userIds` works at (rows of `person_sites`), by site name; a person with
+ * no rows maps to an empty list.
+ */
+export async function sitesOfPeople(
+  userIds: readonly string[],
+  transaction?: Transaction,
+): Promise<Map<string, PersonSiteRef[]>> {
+  const bySite = new Map<string, PersonSiteRef[]>(userIds.map((id) => [id, []]));
+  if (userIds.length === 0) return bySite;
+  const rows = await sequelize.query<PersonSiteRef & { userId: string }>(
+    `SELECT ps.user_id AS "userId", s.id, s.name, s.code, s.time_zone AS "timeZone"
+       FROM person_sites ps JOIN sites s ON s.id = ps.site_id
+      WHERE ps.user_id = ANY($1::uuid[])
+      ORDER BY lower(s.name), s.id`,
+    { bind: [userIds], type: QueryTypes.SELECT, transaction },
+  );
+  for (const { userId, ...site } of rows) bySite.get(userId)?.push(site);
+  return bySite;
+}
+
+/**
+ * Checks that every id of `siteIds` names a site in use, or one the person already works at
+ * (a site retired since stays until it is taken off).
+ * @throws AppError `validation-failed` naming `siteIds.<i>` for each unknown or retired site
+ */
+async function assertSitesUsable(
+  siteIds: readonly string[],
+  heldIds: ReadonlySet<string>,
+  transaction: Transaction,
+): Promise<void> {
+  if (siteIds.length === 0) return;
+  const found = await sequelize.query<{ id: string; retired: boolean }>(
+    'SELECT id, retired_at IS NOT NULL AS retired FROM sites WHERE id = ANY($1::uuid[])',
+    { bind: [siteIds], type: QueryTypes.SELECT, transaction },
+  );
+  const retired = new Map(found.map((row) => [row.id, row.retired]));
+  const issues = siteIds.flatMap((id, index) => {
+    const isRetired = retired.get(id);
+    if (isRetired === undefined) {
+      return [{ path: `siteIds.${index}`, message: 'There is no site with this id.' }];
+    }
+    if (isRetired && !heldIds.has(id)) {
+      return [{ path: `siteIds.${index}`, message: 'This site is retired: choose a site in use.' }];
+    }
+    return [];
+  });
+  if (issues.length > 0) {
+    throw AppError.badRequest(issues[0]!.message, issues);
+  }
+}
+
 /** The active admins, for a person waiting for access to ask. */
 export async function listAdmins(): Promise<User[]> {
   return User.findAll({
@@ -163,11 +225,14 @@ export async function listAdmins(): Promise<User[]> {
 
 /**
  * An admin (the unit of work's actor) changes a person's roles and/or deactivates or
- * reactivates them, in the unit of work with its sign-in log entries. Deactivation ends the
- * person's sessions once the change is committed; their API tokens stop working because
- * tokens act only for active owners.
- * @throws AppError `not-found`; `conflict` when the change would leave no active admin, or an
- *   admin would deactivate themselves
+ * reactivates them, in the unit of work with its sign-in log entries; and/or sets the sites
+ * they work at (`siteIds` replaces the list) and their hours a week available for visits, with
+ * an audit entry naming what was and what is. Only what the change names moves. Deactivation
+ * ends the person's sessions once the change is committed; their API tokens stop working
+ * because tokens act only for active owners.
+ * @throws AppError `not-found`; `validation-failed` naming `siteIds.<i>` for an unknown or
+ *   retired site; `conflict` when the change would leave no active admin, or an admin would
+ *   deactivate themselves
  */
 export async function updatePerson(
   uow: UnitOfWork,
@@ -226,8 +291,61 @@ export async function updatePerson(
       transaction,
     );
   }
+  await changeSitesAndHours(uow, user, change);
   const updated = await user.update({ roles: afterRoles, active: afterActive }, { transaction });
   // the sessions live in the session store's own pool: ended only once the deactivation holds
   if (!updated.active) transaction.afterCommit(() => endSessionsOfUser(updated.id).then(() => undefined));
   return updated;
+}
+
+/** Sets the person's sites and weekly hours that `change` names, with one audit entry when either moved. */
+async function changeSitesAndHours(uow: UnitOfWork, user: User, change: PersonUpdate): Promise<void> {
+  const { transaction } = uow;
+  if (change.siteIds === undefined && change.availableHoursPerWeek === undefined) return;
+  const heldSites = (await sitesOfPeople([user.id], transaction)).get(user.id) ?? [];
+  const heldIds = heldSites.map((site) => site.id);
+  const before: Record<string, unknown> = {};
+  const after: Record<string, unknown> = {};
+
+  if (change.siteIds !== undefined) {
+    await assertSitesUsable(change.siteIds, new Set(heldIds), transaction);
+    const sameSites =
+      change.siteIds.length === heldIds.length && change.siteIds.every((id) => heldIds.includes(id));
+    if (!sameSites) {
+      await PersonSite.destroy({ where: { userId: user.id }, transaction });
+      await PersonSite.bulkCreate(
+        change.siteIds.map((siteId) => ({ userId: user.id, siteId })),
+        { transaction },
+      );
+      const nowSites = (await sitesOfPeople([user.id], transaction)).get(user.id) ?? [];
+      before.sites = heldSites.map((site) => site.name);
+      before.siteIds = heldIds;
+      after.sites = nowSites.map((site) => site.name);
+      after.siteIds = nowSites.map((site) => site.id);
+    }
+  }
+
+  const hours = change.availableHoursPerWeek;
+  if (hours !== undefined && hours !== user.availableHoursPerWeek) {
+    before.availableHoursPerWeek = user.availableHoursPerWeek;
+    after.availableHoursPerWeek = hours;
+    await user.update({ availableHoursPerWeek: hours }, { transaction });
+  }
+
+  const moved = Object.keys(after);
+  if (moved.length === 0) return;
+  const said = [
+    after.sites !== undefined
+      ? `sites ${(after.sites as string[]).join(', ') || 'none'}`
+      : null,
+    after.availableHoursPerWeek !== undefined ? `${hours} h a week available for visits` : null,
+  ].filter((part) => part !== null);
+  await recordAudit(uow, {
+    entityType: 'person',
+    entityId: user.id,
+    action: 'update',
+    summary: `Changed ${user.name}: ${said.join('; ')}`,
+    before,
+    after,
+  });
 }

@@ -10,6 +10,7 @@ import { createApp } from '../../../api/src/app';
 import { User } from '../../../api/src/models/user';
 import { ROLES } from '../../../shared/constants/roles';
 import { createCaller } from '../../support/auth';
+import { createActor, makeSite } from '../../support/register';
 import { assertChangesOnlyWhatTheyName } from '../../support/change-property';
 import { assertCorpusHolds, type CorpusTarget } from '../../support/hostile-bodies';
 import { startTestIdentityProvider } from '../../support/identity';
@@ -35,12 +36,20 @@ async function personById(id: string): Promise<Record<string, unknown>> {
 }
 
 describe('a change changes only what it names', () => {
-  it('when a change to a person names roles or active alone, then the other stays as it was', async () => {
+  it('when a change to a person names roles, active, sites or hours alone, then the others stay as they were', async () => {
     const person = (await createCaller(['planner'])).user;
+    const { actor } = await createActor(['planner']);
+    const siteIds = [(await makeSite(actor)).id, (await makeSite(actor)).id, (await makeSite(actor)).id];
     await assertChangesOnlyWhatTheyName(app, {
       path: `/api/people/${person.id}`,
       headers: admin,
-      fields: { roles: fc.subarray([...ROLES]), active: fc.boolean() },
+      fields: {
+        roles: fc.subarray([...ROLES]),
+        active: fc.boolean(),
+        siteIds: fc.subarray(siteIds),
+        availableHoursPerWeek: fc.integer({ min: 0, max: 800 }).map((tenths) => tenths / 10),
+      },
+      follows: { siteIds: ['sites'] },
       read: () => personById(person.id),
     });
   }, 120_000);
@@ -49,10 +58,11 @@ describe('a change changes only what it names', () => {
 describe('a corpus of hostile bodies never gets a 5xx and stores nothing when refused', () => {
   it('PATCH /api/people/:id', async () => {
     const person = (await createCaller(['technician'])).user;
+    const site = await makeSite((await createActor(['planner'])).actor);
     const tally = await assertCorpusHolds(
       app,
       { method: 'patch', path: `/api/people/${person.id}`, headers: admin },
-      { roles: ['planner', 'technician'], active: true },
+      { roles: ['planner', 'technician'], active: true, siteIds: [site.id], availableHoursPerWeek: 30 },
     );
     expect(tally[200]).toBeGreaterThan(0);
   }, 300_000);

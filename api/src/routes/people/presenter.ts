@@ -1,9 +1,10 @@
 import { isRole } from '../../../../shared/constants/roles';
 import type { AdminContact } from '../../../../shared/schemas/me';
-import type { Person } from '../../../../shared/schemas/person';
+import type { Person, PersonSiteRef } from '../../../../shared/schemas/person';
 import type { User } from '../../models/user';
 
-export function presentPerson(user: User): Person {
+/** A person with the sites they work at (from `sitesOfPeople`). */
+export function presentPerson(user: User, sites: readonly PersonSiteRef[]): Person {
   return {
     id: user.id,
     name: user.name,
@@ -11,6 +12,9 @@ export function presentPerson(user: User): Person {
     roles: user.roles.filter(isRole),
     active: user.active,
     lastSignInAt: user.lastSignInAt?.toISOString() ?? null,
+    siteIds: sites.map((site) => site.id),
+    sites: [...sites],
+    availableHoursPerWeek: user.availableHoursPerWeek,
     createdAt: user.createdAt.toISOString(),
   };
 }
