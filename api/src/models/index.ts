@@ -15,3 +15,4 @@ export { ShutdownWindow } from './shutdown-window';
 export { Visit } from './visit';
 export { VisitBank } from './visit-bank';
 export { VisitTechnician } from './visit-technician';
+export { PersonSite } from './person-site';
