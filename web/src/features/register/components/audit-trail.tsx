@@ -12,6 +12,12 @@ const ACTION_LABELS: Record<AuditEntry['action'], string> = {
   replace: 'Replaced',
   baseline: 'Baseline',
   import: 'Imported',
+  start: 'Started',
+  log: 'Logged',
+  review: 'Reviewed',
+  cancel: 'Cancelled',
+  replan: 'Replanned',
+  miss: 'Marked missed',
 };
 
 // words a reader knows, where the field's own name would not do
