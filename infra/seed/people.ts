@@ -15,9 +15,14 @@ export interface DemoPerson {
   password: string;
   /**
    * Not in Ebbline until their first sign-in, which then takes the directory's roles
-   * (kofi: technician) or none (noor, who sees "waiting for access").
+   * (noor: none, so she sees "waiting for access").
    */
   joinsAtFirstSignIn?: boolean;
+  /**
+   * Registered ahead by e-mail only, as an admin does for a new colleague (kofi: a technician
+   * with his sites); the first sign-in links the account.
+   */
+  registeredByEmail?: boolean;
 }
 
 export const PLANT_GROUP = 'Brackenmoor Processing';
@@ -28,7 +33,7 @@ export const DEMO_PEOPLE: DemoPerson[] = [
   { login: 'priya', name: 'Priya Halden', email: 'priya@brackenmoor.example', roles: ['planner'], password: 'tidewater-plan' },
   { login: 'dario', name: 'Dario Venn', email: 'dario@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
   { login: 'lucia', name: 'Lucia Marsh', email: 'lucia@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech' },
-  { login: 'kofi', name: 'Kofi Brannock', email: 'kofi@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech', joinsAtFirstSignIn: true },
+  { login: 'kofi', name: 'Kofi Brannock', email: 'kofi@brackenmoor.example', roles: ['technician'], password: 'tidewater-tech', registeredByEmail: true },
   { login: 'ines', name: 'Ines Carvell', email: 'ines@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
   { login: 'rurik', name: 'Rurik Salo', email: 'rurik@brackenmoor.example', roles: ['reliability'], password: 'tidewater-rel' },
   { login: 'noor', name: 'Noor Ashdown', email: 'noor@brackenmoor.example', roles: [], password: 'tidewater-new', joinsAtFirstSignIn: true },

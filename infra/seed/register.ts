@@ -79,6 +79,9 @@ const AREAS: Record<string, Array<{ n: number; name: string; description: string
   ],
 };
 
+/** The names of the demo's own areas (not the large fleet's extra halls). */
+export const DEMO_AREA_NAMES: readonly string[] = Object.values(AREAS).flatMap((areas) => areas.map((a) => a.name));
+
 /** Invented drive makers and their models: supply volts and rated kW (marked waits: markedWaitMinutesOf). */
 const DRIVES = [
   { make: 'Tarnwick Drives', model: 'TW-22', volts: 400, kw: 22, kind: 'VFD' },

@@ -63,9 +63,11 @@ describe('the demo register', () => {
     expect(missing.n).toBe(0);
   });
 
-  it('when seeded, then its audit entries are written in its one unit of work: one instant, each naming the demo person it acts as', async () => {
+  it('when seeded, then the register’s audit entries are written in its one unit of work: one instant, each naming the demo person it acts as', async () => {
+    // the Planner's demo history (visits of past weeks) is written at the instants it happened
     const entries = await one<{ instants: number; people: string }>(
-      `SELECT count(DISTINCT at)::int AS instants, string_agg(DISTINCT actor_name, ',' ORDER BY actor_name) AS people FROM audit_entries`,
+      `SELECT count(DISTINCT at)::int AS instants, string_agg(DISTINCT actor_name, ',' ORDER BY actor_name) AS people FROM audit_entries
+        WHERE entity_type IN ('site', 'area', 'cabinet', 'bank', 'bank-design', 'spare')`,
     );
     expect(entries.instants).toBe(1);
     const [planner, engineer] = await Promise.all([
