@@ -1,12 +1,18 @@
 import { useState } from 'react';
 import { ROLE_LABELS, ROLES, type Role } from '../../../../../shared/constants/roles';
-import type { Person } from '../../../../../shared/schemas/person';
+import {
+  MAX_AVAILABLE_HOURS_PER_WEEK,
+  type Person,
+} from '../../../../../shared/schemas/person';
 import { Badge } from '../../../components/ui/badge';
 import { ErrorPanel } from '../../../components/ui/error-panel';
+import { Field, TextInput } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { formatInstant, fromNow } from '../../../lib/dates';
 import { usePeople } from '../api/get-people';
+import { useSitesInUse } from '../api/get-sites';
 import { useUpdatePerson } from '../api/update-person';
+import { changeOfDraft, draftOf, hoursPerWeekText, type PersonDraft } from '../utils/person-change';
 
 /** The People list: search, last sign-in, and an editor per person for roles and access. */
 export function PeopleList({ myId }: { myId: string }) {
@@ -93,6 +99,7 @@ function PersonRow({ person, onEdit }: { person: Person; onEdit: () => void }) {
           {person.name} {person.active ? null : <Badge tone="danger">Deactivated</Badge>}
         </p>
         <p className="truncate text-sm text-tide-600">{person.email}</p>
+        <WorkLine person={person} />
       </div>
       <div className="col-start-1 md:col-start-auto">
         <RoleBadges roles={person.roles} />
@@ -121,6 +128,21 @@ function PersonRow({ person, onEdit }: { person: Person; onEdit: () => void }) {
   );
 }
 
+/** For technicians (and anyone given sites): where they work and their hours for visits. */
+function WorkLine({ person }: { person: Person }) {
+  if (!person.roles.includes('technician') && person.sites.length === 0) return null;
+  return (
+    <p className="mt-0.5 text-sm text-tide-800" data-testid="person-work">
+      {person.sites.length > 0 ? (
+        <>Works at {person.sites.map((s) => s.name).join(', ')}</>
+      ) : (
+        <span className="text-watch-600">No sites yet</span>
+      )}
+      <span className="text-tide-600"> · {hoursPerWeekText(person.availableHoursPerWeek)}</span>
+    </p>
+  );
+}
+
 function PersonEditor({
   person,
   isMe,
@@ -130,16 +152,24 @@ function PersonEditor({
   isMe: boolean;
   onDone: () => void;
 }) {
-  const [roles, setRoles] = useState<Role[]>(person.roles);
-  const [active, setActive] = useState(person.active);
+  const [draft, setDraft] = useState<PersonDraft>(() => draftOf(person));
+  const [hoursError, setHoursError] = useState<string | null>(null);
   const update = useUpdatePerson();
-  const changed = roles.join() !== person.roles.join() || active !== person.active;
+  const { roles, active } = draft;
+  const setRoles = (next: (now: readonly Role[]) => Role[]) =>
+    setDraft((d) => ({ ...d, roles: next(d.roles) }));
+  const setActive = (value: boolean) => setDraft((d) => ({ ...d, active: value }));
+  const checked = changeOfDraft(person, draft);
+  const changed = !checked.ok || checked.change !== null;
 
-  const save = () =>
-    update.mutate(
-      { userId: person.id, change: { roles: ROLES.filter((r) => roles.includes(r)), active } },
-      { onSuccess: onDone },
-    );
+  const save = () => {
+    if (!checked.ok) {
+      setHoursError(checked.message);
+      return;
+    }
+    if (!checked.change) return;
+    update.mutate({ userId: person.id, change: checked.change }, { onSuccess: onDone });
+  };
 
   return (
     <form
@@ -177,6 +207,18 @@ function PersonEditor({
           ))}
         </div>
       </fieldset>
+      {roles.includes('technician') || person.sites.length > 0 ? (
+        <WorkEditor
+          personName={person.name}
+          draft={draft}
+          hoursError={hoursError}
+          onSites={(siteIds) => setDraft((d) => ({ ...d, siteIds }))}
+          onHours={(hoursText) => {
+            setHoursError(null);
+            setDraft((d) => ({ ...d, hoursText }));
+          }}
+        />
+      ) : null}
       <label className="flex items-start gap-2 text-sm text-tide-900">
         <input
           type="checkbox"
@@ -214,5 +256,83 @@ function PersonEditor({
         </button>
       </div>
     </form>
+  );
+}
+
+/** A technician's sites (they see every visit there) and hours a week available for visits. */
+function WorkEditor({
+  personName,
+  draft,
+  hoursError,
+  onSites,
+  onHours,
+}: {
+  personName: string;
+  draft: PersonDraft;
+  hoursError: string | null;
+  onSites: (siteIds: string[]) => void;
+  onHours: (hoursText: string) => void;
+}) {
+  const sites = useSitesInUse();
+  const hoursId = `hours-${personName.replace(/\W+/g, '-')}`;
+  return (
+    <div className="space-y-4">
+      <fieldset>
+        <legend className="text-sm font-bold text-tide-800">Sites</legend>
+        <p className="mb-2 text-xs text-tide-600">
+          A technician sees every visit at the sites ticked here, besides the visits assigned to them.
+        </p>
+        {sites.isPending ? (
+          <Spinner label="Loading sites…" />
+        ) : sites.isError ? (
+          <p role="alert" className="text-sm font-medium text-eol-600">
+            Sites could not be loaded: {sites.error.message}
+          </p>
+        ) : sites.data.length === 0 ? (
+          <p className="text-sm text-tide-800">No sites yet: add them on Register → Sites.</p>
+        ) : (
+          <div className="grid max-h-64 gap-2 overflow-y-auto sm:grid-cols-2">
+            {sites.data.map((site) => (
+              <label
+                key={site.id}
+                className="flex items-center gap-2 rounded-lg border border-tide-100 bg-white px-3 py-2 text-sm text-tide-900"
+              >
+                <input
+                  type="checkbox"
+                  className="h-4 w-4 accent-tide-600"
+                  checked={draft.siteIds.includes(site.id)}
+                  onChange={(e) =>
+                    onSites(
+                      e.target.checked
+                        ? [...draft.siteIds, site.id]
+                        : draft.siteIds.filter((id) => id !== site.id),
+                    )
+                  }
+                />
+                <span className="min-w-0">
+                  <span className="block truncate">{site.name}</span>
+                  <span className="block truncate text-xs text-tide-600">{site.timeZone}</span>
+                </span>
+              </label>
+            ))}
+          </div>
+        )}
+      </fieldset>
+      <Field
+        id={hoursId}
+        label="Hours a week available for visits"
+        hint={`0 to ${MAX_AVAILABLE_HOURS_PER_WEEK}; the Planner's week view sets the hours planned against these.`}
+        error={hoursError ?? undefined}
+        className="max-w-xs"
+      >
+        <TextInput
+          id={hoursId}
+          inputMode="decimal"
+          value={draft.hoursText}
+          invalid={hoursError !== null}
+          onChange={(e) => onHours(e.target.value)}
+        />
+      </Field>
+    </div>
   );
 }
