@@ -6,6 +6,7 @@ import { closeSessionStore } from './auth/session';
 import { getConfig } from './config/env';
 import { DATABASE_RETRY_AFTER_SECONDS } from './db/connection-errors';
 import { sequelize } from './db/sequelize';
+import { startJobQueue } from './jobs/job-queue';
 import { markStopping } from './lifecycle';
 import { logger } from './logger';
 import './models';
@@ -14,7 +15,8 @@ export interface RunningServer {
   url: string;
   /**
    * Stops: readiness answers 503 at once and new requests get a 503 "stopping" answer, the
-   * requests in flight finish (up to graceMs), then the listener and the pools close.
+   * requests in flight finish (up to graceMs), then the listener closes, the job queue stops
+   * (a job in hand finishes, up to graceMs) and the pools close.
    */
   close(graceMs?: number): Promise<void>;
 }
@@ -56,10 +58,17 @@ export async function startServer(): Promise<RunningServer> {
     });
     app(req, res);
   });
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(config.PORT, config.HOST, resolve);
-  });
+  // the durable job queue (pg-boss): missed visits now, alerts and mail later
+  const jobs = await startJobQueue();
+  try {
+    await new Promise<void>((resolve, reject) => {
+      server.once('error', reject);
+      server.listen(config.PORT, config.HOST, resolve);
+    });
+  } catch (err) {
+    await jobs.stop();
+    throw err;
+  }
   const url = config.APP_URL;
   logger.info({ url, port: config.PORT }, 'Ebbline is listening');
 
@@ -89,6 +98,8 @@ export async function startServer(): Promise<RunningServer> {
         // what is left is idle keep-alive connections, or requests past the grace period
         server.closeAllConnections();
         await closed;
+        // a job in hand finishes (or is handed back to the queue) before the pools close
+        await jobs.stop(graceMs);
         await closeSessionStore();
         await sequelize.close();
         logger.info('Ebbline stopped');

@@ -52,6 +52,8 @@ const envSchema = z.object({
   /** Loopback providers speak plain http; a real provider must use https. */
   OIDC_ALLOW_HTTP: flag.default(false),
   TRUST_PROXY: flag.default(false),
+  /** Hours after its planned end at which a visit still planned is marked missed (the job every 15 min). */
+  MISSED_VISIT_AFTER_HOURS: z.coerce.number().min(0).max(720).default(12),
 });
 
 export type Config = Omit<

@@ -31,6 +31,17 @@ export async function grantAppRole(owner: Sequelize, appRole: string): Promise<v
     `REVOKE UPDATE, DELETE, TRUNCATE, REFERENCES, TRIGGER ON ${APPEND_ONLY_TABLES.map((t) => q(t)).join(', ')} FROM ${app}, PUBLIC`,
     `REVOKE INSERT, UPDATE, DELETE, TRUNCATE ON schema_migrations FROM ${app}, PUBLIC`,
   ];
+  // the job queue's rows (pg-boss, migration 0017): ordinary rights, never its tables
+  const [queueSchema] = (await owner.query(
+    `SELECT 1 FROM pg_namespace WHERE nspname = 'pgboss'`,
+  )) as [unknown[], unknown];
+  if (queueSchema.length > 0) {
+    statements.push(
+      `GRANT USAGE ON SCHEMA pgboss TO ${app}`,
+      `GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA pgboss TO ${app}`,
+      `ALTER DEFAULT PRIVILEGES IN SCHEMA pgboss GRANT SELECT, INSERT, UPDATE, DELETE ON TABLES TO ${app}`,
+    );
+  }
   await owner.transaction(async (transaction) => {
     for (const sql of statements) await owner.query(sql, { transaction });
   });

@@ -4,6 +4,7 @@ import { Sequelize, type QueryInterface } from 'sequelize';
 import { SequelizeStorage, Umzug, type MigrationFn } from 'umzug';
 import { getConfig } from '../config/env';
 import { logger } from '../logger';
+import { prepareJobQueueSchema } from '../jobs/queue-schema';
 import { appRoleProblems, grantAppRole, roleOf } from './app-role';
 
 const migrationsDir = path.join(path.dirname(fileURLToPath(import.meta.url)), 'migrations');
@@ -50,6 +51,11 @@ export async function migrate(): Promise<string[]> {
   const config = getConfig();
   return asOwner(async (owner) => {
     const applied = await createMigrator(owner).up();
+    // the job queue's tables, at the installed pg-boss's version, made by the owner
+    const [queueSchema] = (await owner.query(
+      `SELECT 1 FROM pg_namespace WHERE nspname = 'pgboss'`,
+    )) as [unknown[], unknown];
+    if (queueSchema.length > 0) await prepareJobQueueSchema(config.MIGRATION_DATABASE_URL);
     const appRole = roleOf(config.DATABASE_URL);
     if (appRole === roleOf(config.MIGRATION_DATABASE_URL)) {
       logger.warn(
