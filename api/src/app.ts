@@ -22,6 +22,7 @@ import { areasRouter } from './routes/areas/router';
 import { bankDesignsRouter } from './routes/bank-designs/router';
 import { banksRouter } from './routes/banks/router';
 import { cabinetsRouter } from './routes/cabinets/router';
+import { shutdownWindowsRouter } from './routes/shutdown-windows/router';
 import { sitesRouter } from './routes/sites/router';
 import { sparesRouter } from './routes/spares/router';
 
@@ -87,6 +88,7 @@ export function createApp(): express.Express {
   api.use('/banks', banksRouter);
   api.use('/bank-designs', bankDesignsRouter);
   api.use('/spares', sparesRouter);
+  api.use('/shutdown-windows', shutdownWindowsRouter);
   api.use(apiNotFound);
   // deny by default: a route that declares no roles stops the app from starting
   app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');
