@@ -22,9 +22,13 @@ import { areasRouter } from './routes/areas/router';
 import { bankDesignsRouter } from './routes/bank-designs/router';
 import { banksRouter } from './routes/banks/router';
 import { cabinetsRouter } from './routes/cabinets/router';
+import { dueRouter } from './routes/due/router';
 import { shutdownWindowsRouter } from './routes/shutdown-windows/router';
 import { sitesRouter } from './routes/sites/router';
 import { sparesRouter } from './routes/spares/router';
+import { windowProposalRouter } from './routes/shutdown-windows/proposal';
+import { technicianLoadRouter } from './routes/technician-load/router';
+import { visitsRouter } from './routes/visits/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -88,7 +92,11 @@ export function createApp(): express.Express {
   api.use('/banks', banksRouter);
   api.use('/bank-designs', bankDesignsRouter);
   api.use('/spares', sparesRouter);
+  api.use('/visits', visitsRouter);
   api.use('/shutdown-windows', shutdownWindowsRouter);
+  api.use('/due', dueRouter);
+  api.use('/shutdown-windows', windowProposalRouter);
+  api.use('/technician-load', technicianLoadRouter);
   api.use(apiNotFound);
   // deny by default: a route that declares no roles stops the app from starting
   app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');
