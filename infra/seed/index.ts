@@ -10,31 +10,52 @@ import { User } from '../../api/src/models/user';
 import { sequelize } from '../../api/src/db/sequelize';
 import { withUnitOfWork } from '../../api/src/services/unit-of-work';
 import { DEMO_PEOPLE } from './people';
-import { seedRegister, type RegisterSeedOptions, type RegisterSeedSummary } from './register';
+import { seedPlanner, type PlannerSeedSummary } from './planner';
+import {
+  DEMO_AREA_NAMES,
+  seedRegister,
+  type RegisterSeedOptions,
+  type RegisterSeedSummary,
+} from './register';
 
-export interface SeedSummary extends Partial<RegisterSeedSummary> {
+export interface SeedSummary extends Partial<RegisterSeedSummary>, Partial<PlannerSeedSummary> {
   /** People registered ahead of their first sign-in. */
   people: number;
 }
 
-export type SeedOptions = RegisterSeedOptions;
+export interface SeedOptions extends RegisterSeedOptions {
+  /** The seed's instant, which every demo date counts from (default: the clock's). */
+  now?: Date;
+}
 
 /** Seeds the demo scenario in one unit of work, acting as Ebbline itself (its audit entries name the demo people). */
 export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> {
-  return withUnitOfWork(null, async (uow) => {
-    const { transaction } = uow;
-    // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
-    const registered = DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn);
-    for (const person of registered) {
-      await User.findOrCreate({
-        where: { email: person.email },
-        defaults: { email: person.email, name: person.name, roles: person.roles, subject: person.login, lastSignInAt: null },
-        transaction,
-      });
-    }
-    const register = await seedRegister(uow, options);
-    return { people: registered.length, ...register };
-  });
+  return withUnitOfWork(
+    null,
+    async (uow) => {
+      const { transaction } = uow;
+      // the local provider's `sub` is the login, so a seeded person is found at their first sign-in
+      const registered = DEMO_PEOPLE.filter((p) => !p.joinsAtFirstSignIn);
+      for (const person of registered) {
+        await User.findOrCreate({
+          where: { email: person.email },
+          // one registered by e-mail only is linked to the provider's account at the first sign-in
+          defaults: {
+            email: person.email,
+            name: person.name,
+            roles: person.roles,
+            subject: person.registeredByEmail ? null : person.login,
+            lastSignInAt: null,
+          },
+          transaction,
+        });
+      }
+      const register = await seedRegister(uow, options);
+      const planner = await seedPlanner(uow, DEMO_AREA_NAMES);
+      return { people: registered.length, ...register, ...planner };
+    },
+    { now: options.now },
+  );
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
