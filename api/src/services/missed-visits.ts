@@ -65,11 +65,11 @@ export async function markVisitMissed(
   const visit = await Visit.findByPk(visitId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!visit) throw AppError.notFound('The visit');
   if (visit.version !== version) throw staleVersion('visit', version, visit.version);
-  const next = nextVisitState(visit.state, 'miss');
-  if (
-    next === null ||
-    !mayTakeVisitAction({ action: 'miss', roles: uow.actor?.roles ?? null, isAssigned: false })
-  ) {
+  if (!mayTakeVisitAction({ action: 'miss', roles: uow.actor?.roles ?? null, isAssigned: false })) {
+    throw AppError.forbidden('Only Ebbline marks a visit missed, by its scheduled check.');
+  }
+  const next = nextVisitState(visit.state as VisitState, 'miss');
+  if (next === null) {
     throw new AppError(
       'visit-state',
       `A ${VISIT_STATE_LABELS[visit.state as VisitState]} visit can't be marked missed.`,
