@@ -10,6 +10,8 @@ export const ACCESS_EVENT_KINDS = [
   'reactivated',
   'token-created',
   'token-revoked',
+  'calendar-feed-created',
+  'calendar-feed-revoked',
 ] as const;
 export type AccessEventKind = (typeof ACCESS_EVENT_KINDS)[number];
 
@@ -23,6 +25,8 @@ export const ACCESS_EVENT_LABELS: Record<AccessEventKind, string> = {
   reactivated: 'Reactivated',
   'token-created': 'API token created',
   'token-revoked': 'API token revoked',
+  'calendar-feed-created': 'Calendar feed address made',
+  'calendar-feed-revoked': 'Calendar feed address turned off',
 };
 
 /** GET /api/access-events?kind=&userId=&before=&limit= (newest first). */

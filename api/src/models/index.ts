@@ -16,3 +16,4 @@ export { Visit } from './visit';
 export { VisitBank } from './visit-bank';
 export { VisitTechnician } from './visit-technician';
 export { PersonSite } from './person-site';
+export { CalendarFeed } from './calendar-feed';
