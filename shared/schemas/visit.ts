@@ -141,10 +141,15 @@ export type VisitTransition = z.output<typeof visitTransitionSchema>;
 export const VISIT_SORT_FIELDS = ['plannedStartAt'] as const;
 
 /** A comma list of states, e.g. `state=planned,under-way`. */
-const stateList = z
-  .string()
-  .transform((text) => text.split(',').map((s) => s.trim()).filter((s) => s !== ''))
-  .pipe(z.array(z.enum(VISIT_STATES, { error: `Each state is one of: ${VISIT_STATES.join(', ')}.` })).min(1, 'Name at least one state.'));
+const stateList = z.string().transform((text, ctx) => {
+  const states = text.split(',').map((s) => s.trim()).filter((s) => s !== '');
+  const unknown = states.filter((s) => !(VISIT_STATES as readonly string[]).includes(s));
+  if (states.length === 0 || unknown.length > 0) {
+    ctx.addIssue({ code: 'custom', message: `Each state is one of: ${VISIT_STATES.join(', ')}.` });
+    return z.NEVER;
+  }
+  return states as VisitState[];
+});
 
 /**
  * The visit list's query. `from`/`to` keep the visits whose planned times overlap [from, to).
