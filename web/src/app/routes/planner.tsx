@@ -1,14 +1,13 @@
-import { UpcomingScreen } from '../../components/ui/upcoming-screen';
+import { useMe } from '../../features/auth/api/get-me';
+import { PlannerScreen, type PlannerSlots } from '../../features/planner/components/planner-screen';
+
+/**
+ * The Planner composes the screens that plan: the calendar (features/planner) with the window
+ * planning, the shutdown-window form and the technicians' week of their own features.
+ */
+const slots: PlannerSlots = {};
 
 export function Component() {
-  return (
-    <UpcomingScreen
-      title="Planner"
-      lead="Inspection visits on a calendar, inside shutdown windows."
-      plans={[
-        'Plan visits inside shutdown windows',
-        'Assign technicians',
-      ]}
-    />
-  );
+  const me = useMe();
+  return <PlannerScreen roles={me.data?.roles ?? []} slots={slots} />;
 }

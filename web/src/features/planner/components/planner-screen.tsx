@@ -1,0 +1,342 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { format, startOfWeek } from 'date-fns';
+import { useMemo, useState, type ReactNode } from 'react';
+import type { SlotInfo } from 'react-big-calendar';
+import type { EventInteractionArgs } from 'react-big-calendar/lib/addons/dragAndDrop';
+import { useSearchParams } from 'react-router';
+import { Button, ButtonLink } from '../../../components/ui/button';
+import { ErrorPanel } from '../../../components/ui/error-panel';
+import { Select } from '../../../components/ui/field';
+import { Spinner } from '../../../components/ui/spinner';
+import { useAreas, useSites } from '../api/lookups';
+import type { Visit, VisitState } from '../api/shapes';
+import { VISIT_STATES } from '../api/shapes';
+import { plannerWindowKeys, useWindowsInRange } from '../api/shutdown-windows';
+import { useVisits, visitKeys } from '../api/visits';
+import { useWindowWidth } from '../hooks/use-window-width';
+import {
+  calendarLayers,
+  defaultView,
+  viewRange,
+  visitEvent,
+  WEEK_STARTS_ON,
+  windowEvents,
+  type PlannerEvent,
+  type PlannerView,
+  type WindowEvent,
+} from '../utils/calendar-events';
+import { calendarDateOf, dateOnOf, readPlannerParams, writePlannerParams, type PlannerParams } from '../utils/planner-params';
+import { describePlannerZone, plannerZone } from '../utils/planner-zone';
+import { slotTimes } from '../utils/visit-form';
+import { plannerPermissions } from '../utils/visit-rules';
+import { formatZonedRange, fromCalendarDate, toCalendarDate } from '../utils/zoned-time';
+import { Modal } from './modal';
+import { MoveVisitDialog, type ProposedTimes } from './move-visit-dialog';
+import { PlannerCalendar } from './planner-calendar';
+import { PlannerLegend } from './planner-legend';
+import { VisitFormDialog } from './visit-form-dialog';
+import { VisitPanel } from './visit-panel';
+import { WindowPanel } from './window-panel';
+
+/** What the app hands the Planner from other screens (features do not import each other). */
+export interface PlannerSlots {
+  /** The dialog that proposes and confirms the visits of one window occurrence. */
+  planWindow?: (props: { windowId: string; occurrenceStartsAt: string; onClose: () => void }) => ReactNode;
+  /** The dialog that adds a shutdown window. */
+  newWindow?: (props: { siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
+  /** The technicians' week: hours planned against hours available. */
+  technicianLoad?: (props: { weekOn: string }) => ReactNode;
+}
+
+type Dialog =
+  | { kind: 'new-visit'; siteId: string; areaId: string; plannedStartAt: string; plannedEndAt: string }
+  | { kind: 'visit'; visit: Visit }
+  | { kind: 'window'; event: WindowEvent }
+  | { kind: 'choose-window' }
+  | { kind: 'plan-window'; windowId: string; occurrenceStartsAt: string }
+  | { kind: 'new-window' };
+
+const SHOWN_STATES: VisitState[] = VISIT_STATES.filter((s) => s !== 'cancelled');
+
+/**
+ * The Planner: visits and shutdown windows on a calendar in a site's time zone, filtered by site
+ * and area; drag a visit to move or resize it, select a free slot to plan one, open a visit to
+ * act on it.
+ */
+export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slots: PlannerSlots }) {
+  const can = plannerPermissions(roles);
+  const client = useQueryClient();
+  const width = useWindowWidth();
+  const [search, setSearch] = useSearchParams();
+  const params = readPlannerParams(search);
+  const setParams = (change: Partial<PlannerParams>) => setSearch(writePlannerParams({ ...params, ...change }), { replace: true });
+
+  const sites = useSites();
+  const areas = useAreas(params.siteId);
+  const siteZones = useMemo(() => (sites.data?.items ?? []).map((s) => ({ id: s.id, name: s.name, timeZone: s.timeZone })), [sites.data]);
+  const browserZone = Intl.DateTimeFormat().resolvedOptions().timeZone;
+  const zone = plannerZone(siteZones, params.siteId, browserZone);
+  const timeZone = zone.timeZone;
+  const siteName = siteZones.find((s) => s.id === params.siteId)?.name;
+
+  const view: PlannerView = params.view ?? defaultView(width);
+  const date = params.dateOn ? calendarDateOf(params.dateOn) : toCalendarDate(new Date(), timeZone);
+  const range = viewRange(view, date, timeZone);
+  const filters = { siteId: params.siteId || undefined, areaId: params.areaId || undefined };
+  const visits = useVisits({ ...range, ...filters, states: params.showCancelled ? undefined : SHOWN_STATES });
+  const windows = useWindowsInRange({ ...range, ...filters });
+
+  const [dialog, setDialog] = useState<Dialog | null>(null);
+  const [move, setMove] = useState<{ visit: Visit; proposed: ProposedTimes } | null>(null);
+
+  const visitEvents = (visits.data?.items ?? []).map((v) => visitEvent(v, timeZone, move?.visit.id === v.id ? move.proposed : undefined));
+  const occurrenceEvents = windowEvents(windows.data?.items ?? [], timeZone);
+  const layers = calendarLayers(view, visitEvents, occurrenceEvents);
+
+  function onMoveVisit({ event, start, end }: EventInteractionArgs<PlannerEvent>) {
+    if (event.kind !== 'visit') return;
+    const proposed = {
+      plannedStartAt: fromCalendarDate(new Date(start), timeZone),
+      plannedEndAt: fromCalendarDate(new Date(end), timeZone),
+    };
+    if (proposed.plannedStartAt === event.visit.plannedStartAt && proposed.plannedEndAt === event.visit.plannedEndAt) return;
+    setMove({ visit: event.visit, proposed });
+  }
+
+  function onSelectSlot(slot: SlotInfo) {
+    if (!can.plan) return;
+    const wholeDays =
+      slot.start.getHours() === 0 && slot.start.getMinutes() === 0 && (slot.end.getTime() - slot.start.getTime()) % 86_400_000 === 0;
+    const times = slotTimes(slot.start, slot.end, wholeDays);
+    setDialog({
+      kind: 'new-visit',
+      siteId: params.siteId,
+      areaId: params.areaId,
+      plannedStartAt: fromCalendarDate(times.start, timeZone),
+      plannedEndAt: fromCalendarDate(times.end, timeZone),
+    });
+  }
+
+  function planVisitNow() {
+    const start = new Date(date.getFullYear(), date.getMonth(), date.getDate(), 8, 0);
+    setDialog({
+      kind: 'new-visit',
+      siteId: params.siteId,
+      areaId: params.areaId,
+      plannedStartAt: fromCalendarDate(start, timeZone),
+      plannedEndAt: fromCalendarDate(new Date(start.getTime() + 2 * 3600_000), timeZone),
+    });
+  }
+
+  /** After another screen's dialog: the calendar shows what it saved. */
+  function closeAndRefresh() {
+    setDialog(null);
+    void client.invalidateQueries({ queryKey: visitKeys.lists() });
+    void client.invalidateQueries({ queryKey: plannerWindowKeys.lists() });
+  }
+
+  const weekOn = format(startOfWeek(date, { weekStartsOn: WEEK_STARTS_ON }), 'yyyy-MM-dd');
+  const calendarHeight = width < 640 ? 620 : 760;
+  const total = visits.data?.total ?? 0;
+  const shown = visits.data?.items.length ?? 0;
+
+  return (
+    <div className="space-y-4">
+      <header className="space-y-3">
+        <div>
+          <h1 className="text-2xl font-bold tracking-tight text-tide-900 sm:text-3xl">Planner</h1>
+          <p className="mt-1 max-w-2xl text-tide-800">Visits on a calendar, inside the shutdown windows of each area.</p>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          {can.plan ? (
+            <Button variant="primary" onClick={planVisitNow}>
+              Plan a visit
+            </Button>
+          ) : null}
+          {can.plan && slots.planWindow ? <Button onClick={() => setDialog({ kind: 'choose-window' })}>Plan a window</Button> : null}
+          {can.plan && slots.newWindow ? <Button onClick={() => setDialog({ kind: 'new-window' })}>New shutdown window</Button> : null}
+          <ButtonLink to="/planner/due">Due list</ButtonLink>
+        </div>
+      </header>
+
+      <section aria-label="Filters" className="flex flex-wrap items-end gap-3">
+        <label className="block w-full text-sm font-medium text-tide-900 sm:w-56">
+          Site
+          <Select className="mt-1" value={params.siteId} onChange={(e) => setParams({ siteId: e.target.value, areaId: '' })}>
+            <option value="">Every site</option>
+            {sites.data?.items.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </Select>
+        </label>
+        <label className="block w-full text-sm font-medium text-tide-900 sm:w-56">
+          Area
+          <Select className="mt-1" value={params.areaId} disabled={!params.siteId} onChange={(e) => setParams({ areaId: e.target.value })}>
+            <option value="">{params.siteId ? 'Every area' : 'Choose a site first'}</option>
+            {areas.data?.items.map((a) => (
+              <option key={a.id} value={a.id}>
+                {a.name}
+              </option>
+            ))}
+          </Select>
+        </label>
+        <label className="flex min-h-10 items-center gap-2 text-sm text-tide-900">
+          <input
+            type="checkbox"
+            className="size-4 accent-tide-800"
+            checked={params.showCancelled}
+            onChange={(e) => setParams({ showCancelled: e.target.checked })}
+          />
+          Show cancelled visits
+        </label>
+      </section>
+
+      <p role="note" aria-label="Time zone" className="rounded-lg bg-white px-3 py-2 text-sm text-tide-800 ring-1 ring-tide-100">
+        🕓 {describePlannerZone(zone, siteName)}
+      </p>
+      <PlannerLegend />
+
+      {visits.isError ? (
+        <ErrorPanel title="The visits could not be loaded" action={<Button onClick={() => void visits.refetch()}>Try again</Button>}>
+          {visits.error.message}
+        </ErrorPanel>
+      ) : null}
+      {windows.isError ? (
+        <p role="alert" className="text-sm font-medium text-eol-600">
+          The shutdown windows could not be loaded: {windows.error.message}
+        </p>
+      ) : null}
+
+      <div className="relative rounded-xl border border-tide-100 bg-white p-2 shadow-sm sm:p-4">
+        {visits.isFetching || windows.isFetching ? (
+          <div className="absolute right-3 top-3 z-10 sm:right-5 sm:top-5">
+            <Spinner label="Loading" />
+          </div>
+        ) : null}
+        <PlannerCalendar
+          events={layers.events}
+          backgroundEvents={layers.backgroundEvents}
+          view={view}
+          date={date}
+          canPlan={can.plan}
+          height={calendarHeight}
+          onView={(v) => setParams({ view: v })}
+          onNavigate={(d) => setParams({ dateOn: dateOnOf(d) })}
+          onSelectSlot={onSelectSlot}
+          onSelectEvent={(event) => setDialog(event.kind === 'visit' ? { kind: 'visit', visit: event.visit } : { kind: 'window', event })}
+          onMoveVisit={onMoveVisit}
+        />
+      </div>
+      <p className="text-sm text-tide-600">
+        {visits.isPending
+          ? 'Loading visits…'
+          : total > shown
+            ? `Showing the first ${shown} of ${total} visits in this range: choose a site or an area to see the rest.`
+            : total === 0
+              ? can.plan
+                ? 'No visits in this range. Select a free time on the calendar, or press “Plan a visit”, to plan one.'
+                : 'No visits in this range.'
+              : `${total} ${total === 1 ? 'visit' : 'visits'} in this range.${can.plan ? ' Drag a planned visit to move it, or its lower edge to change its length.' : ''}`}
+      </p>
+
+      {slots.technicianLoad ? (
+        <section aria-labelledby="planner-load-title" className="space-y-2">
+          <h2 id="planner-load-title" className="text-lg font-bold text-tide-900">
+            Technicians this week
+          </h2>
+          {slots.technicianLoad({ weekOn })}
+        </section>
+      ) : null}
+
+      {move ? <MoveVisitDialog visit={move.visit} proposed={move.proposed} onClose={() => setMove(null)} /> : null}
+      {dialog?.kind === 'new-visit' ? (
+        <VisitFormDialog
+          initial={{ siteId: dialog.siteId, areaId: dialog.areaId, plannedStartAt: dialog.plannedStartAt, plannedEndAt: dialog.plannedEndAt }}
+          fallbackZone={timeZone}
+          onClose={() => setDialog(null)}
+        />
+      ) : null}
+      {dialog?.kind === 'visit' ? <VisitPanel listed={dialog.visit} can={can} onClose={() => setDialog(null)} /> : null}
+      {dialog?.kind === 'window' ? (
+        <WindowPanel
+          event={dialog.event}
+          canPlan={can.plan}
+          onClose={() => setDialog(null)}
+          onPlanWindow={
+            slots.planWindow
+              ? () => setDialog({ kind: 'plan-window', windowId: dialog.event.window.id, occurrenceStartsAt: dialog.event.occurrence.startsAt })
+              : undefined
+          }
+          onPlanVisit={() => {
+            const { occurrence, window } = dialog.event;
+            const end = Math.min(Date.parse(occurrence.startsAt) + 2 * 3600_000, Date.parse(occurrence.endsAt));
+            setDialog({
+              kind: 'new-visit',
+              siteId: window.siteId,
+              areaId: window.areaId,
+              plannedStartAt: occurrence.startsAt,
+              plannedEndAt: new Date(end).toISOString(),
+            });
+          }}
+        />
+      ) : null}
+      {dialog?.kind === 'choose-window' ? (
+        <ChooseWindowDialog
+          windows={occurrenceEvents}
+          onClose={() => setDialog(null)}
+          onChoose={(event) => setDialog({ kind: 'plan-window', windowId: event.window.id, occurrenceStartsAt: event.occurrence.startsAt })}
+        />
+      ) : null}
+      {dialog?.kind === 'plan-window' && slots.planWindow
+        ? slots.planWindow({ windowId: dialog.windowId, occurrenceStartsAt: dialog.occurrenceStartsAt, onClose: closeAndRefresh })
+        : null}
+      {dialog?.kind === 'new-window' && slots.newWindow
+        ? slots.newWindow({ siteId: params.siteId || undefined, areaId: params.areaId || undefined, onClose: closeAndRefresh })
+        : null}
+    </div>
+  );
+}
+
+/** The window occurrences of the shown range, to pick one to plan. */
+function ChooseWindowDialog({
+  windows,
+  onChoose,
+  onClose,
+}: {
+  windows: WindowEvent[];
+  onChoose: (event: WindowEvent) => void;
+  onClose: () => void;
+}) {
+  const sorted = [...windows].sort((a, b) => a.occurrence.startsAt.localeCompare(b.occurrence.startsAt));
+  return (
+    <Modal title="Plan a window" onClose={onClose}>
+      {sorted.length === 0 ? (
+        <p className="text-sm text-tide-800">
+          No shutdown window falls in the range the calendar shows. Move the calendar to the weeks you plan, or add a window first.
+        </p>
+      ) : (
+        <>
+          <p className="mb-3 text-sm text-tide-800">Choose the shutdown to fill: Ebbline proposes a visit for every bank due by its end.</p>
+          <ul className="divide-y divide-tide-100">
+            {sorted.map((event) => (
+              <li key={event.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
+                <div className="min-w-0">
+                  <p className="font-medium text-tide-900">{event.window.title}</p>
+                  <p className="text-sm text-tide-600">
+                    {event.window.siteName} · {event.window.areaName} ·{' '}
+                    {formatZonedRange(event.occurrence.startsAt, event.occurrence.endsAt, event.window.timeZone)}
+                  </p>
+                </div>
+                <Button size="sm" variant="primary" onClick={() => onChoose(event)} aria-label={`Plan ${event.window.title}, ${formatZonedRange(event.occurrence.startsAt, event.occurrence.endsAt, event.window.timeZone)}`}>
+                  Plan this window
+                </Button>
+              </li>
+            ))}
+          </ul>
+        </>
+      )}
+    </Modal>
+  );
+}
