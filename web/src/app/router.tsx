@@ -16,6 +16,7 @@ const router = createBrowserRouter([
       { path: 'fleet', lazy: () => import('./routes/fleet') },
       { path: 'register/*', lazy: () => import('./routes/register') },
       { path: 'planner', lazy: () => import('./routes/planner') },
+      { path: 'planner/due', lazy: () => import('./routes/planner-due') },
       { path: 'my-visits/*', lazy: () => import('./routes/my-visits') },
       { path: 'alerts', lazy: () => import('./routes/alerts') },
       { path: 'people', lazy: () => import('./routes/people') },

@@ -1,0 +1,419 @@
+import { Link } from 'react-router';
+import { CRITICALITIES, type Criticality } from '../../../../../shared/constants/register';
+import { DUE_BUCKET_LABELS, type DueBucket } from '../../../../../shared/domain/due';
+import {
+  DUE_HEALTH_LABELS,
+  DUE_HEALTHS,
+  type DueBank,
+  type DueHealth,
+} from '../../../../../shared/schemas/due';
+import { Badge } from '../../../components/ui/badge';
+import { ButtonLink } from '../../../components/ui/button';
+import { DataTable, type DataColumn } from '../../../components/ui/data-table';
+import { ErrorPanel } from '../../../components/ui/error-panel';
+import { PageHeader } from '../../../components/ui/page-header';
+import { SearchInput } from '../../../components/ui/search-input';
+import { Spinner } from '../../../components/ui/spinner';
+import { useDueList } from '../api/get-due-list';
+import { useDueAreas, useDueDesigns, useDueSites } from '../api/get-filter-choices';
+import { useDueParams, type DueParamsUpdate } from '../hooks/use-due-params';
+import {
+  banksToPlanWith,
+  dueBasisText,
+  dueDistance,
+  formatDueOn,
+  formatSiteTime,
+  planVisitHref,
+  plannedVisitHref,
+} from '../utils/due-text';
+
+/** The Due list's tabs: what needs a visit soonest. */
+const TABS: readonly DueBucket[] = ['overdue', 'this-month', 'next-quarter'];
+
+type Params = ReturnType<typeof useDueParams>[0];
+
+/**
+ * The Due list: every bank in service by the day it is due for inspection, in tabs (overdue,
+ * due this month, due in the next three months) with their counts; filtered, sorted and paged
+ * on the server; each row links to its bank, says whether a visit is planned, and offers
+ * "Plan a visit" on the Planner.
+ */
+export function DueScreen() {
+  const [params, update] = useDueParams();
+  const list = useDueList(params);
+  const rows = list.data?.items ?? [];
+
+  return (
+    <div>
+      <PageHeader
+        title="Due"
+        lead="Banks due for inspection: at their design’s interval after the last logged visit, sooner when the forecast asks, and at least yearly. Dates are each site’s own."
+        actions={<ButtonLink to="/planner">Back to the calendar</ButtonLink>}
+      />
+      <BucketTabs params={params} update={update} counts={list.data?.counts} />
+      <DueFilters params={params} update={update} />
+      {list.isPending ? (
+        <Spinner label="Loading the Due list…" />
+      ) : list.isError ? (
+        <ErrorPanel title="The Due list could not be loaded">{list.error.message}</ErrorPanel>
+      ) : (
+        <DataTable<DueBank>
+          caption={`${DUE_BUCKET_LABELS[params.bucket]}: banks`}
+          columns={columns(rows)}
+          rows={rows}
+          total={list.data.total}
+          page={params.page}
+          pageSize={params.pageSize}
+          sort={params.sort}
+          onSortChange={(sort) => update({ sort })}
+          onPageChange={(page) => update({ page })}
+          onPageSizeChange={(pageSize) => update({ pageSize })}
+          rowKey={(row) => row.bankId}
+          card={(row) => <DueCard bank={row} page={rows} />}
+          loading={list.isFetching}
+          empty={<EmptyBucket bucket={params.bucket} filtered={hasFilters(params)} />}
+        />
+      )}
+    </div>
+  );
+}
+
+function hasFilters(params: Params): boolean {
+  return ['siteId', 'areaId', 'bankDesignId', 'criticality', 'health', 'planned', 'q'].some(
+    (name) => Boolean(params[name]),
+  );
+}
+
+function EmptyBucket({ bucket, filtered }: { bucket: DueBucket; filtered: boolean }) {
+  const what =
+    bucket === 'overdue'
+      ? 'No bank is overdue'
+      : `No bank is ${DUE_BUCKET_LABELS[bucket].toLowerCase()}`;
+  return (
+    <p>
+      {what}
+      {filtered ? ' among the banks these filters choose.' : '.'}
+    </p>
+  );
+}
+
+/** The buckets as tabs with their counts (under the same filters). */
+function BucketTabs({
+  params,
+  update,
+  counts,
+}: {
+  params: Params;
+  update: DueParamsUpdate;
+  counts?: Record<DueBucket, number>;
+}) {
+  return (
+    <div
+      role="tablist"
+      aria-label="When due"
+      className="-mx-4 mb-4 flex gap-1 overflow-x-auto border-b border-tide-100 px-4 sm:mx-0 sm:px-0"
+    >
+      {TABS.map((bucket) => {
+        const selected = params.bucket === bucket;
+        const count = counts?.[bucket];
+        return (
+          <button
+            key={bucket}
+            type="button"
+            role="tab"
+            aria-selected={selected}
+            onClick={() => update({ bucket })}
+            className={`-mb-px flex shrink-0 items-center gap-2 border-b-2 px-3 py-2.5 text-sm font-medium transition ${
+              selected
+                ? 'border-spark-400 text-tide-900'
+                : 'border-transparent text-tide-600 hover:text-tide-900'
+            }`}
+          >
+            {DUE_BUCKET_LABELS[bucket]}
+            <span
+              className={`rounded-full px-2 py-0.5 text-xs tabular-nums ${
+                bucket === 'overdue' && count
+                  ? 'bg-eol-600/10 text-eol-600'
+                  : 'bg-tide-50 text-tide-700'
+              }`}
+            >
+              {count === undefined ? '…' : count.toLocaleString('en-GB')}
+            </span>
+          </button>
+        );
+      })}
+    </div>
+  );
+}
+
+function Select({
+  label,
+  value,
+  onChange,
+  options,
+}: {
+  label: string;
+  value: string;
+  onChange: (value: string) => void;
+  options: Array<{ value: string; label: string }>;
+}) {
+  return (
+    <label className="flex items-center gap-2 text-sm text-tide-800">
+      <span className="w-24 shrink-0 sm:w-auto">{label}</span>
+      <select
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="min-h-10 w-full rounded-lg border border-tide-200 bg-white px-2 py-1.5 text-base sm:w-auto sm:text-sm"
+      >
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
+/** Site, area, design, criticality, health, planned or not, and a search; all in the address bar. */
+function DueFilters({ params, update }: { params: Params; update: DueParamsUpdate }) {
+  const siteId = String(params.siteId ?? '');
+  const sites = useDueSites();
+  const areas = useDueAreas(siteId);
+  const designs = useDueDesigns();
+  const value = (name: string) => String(params[name] ?? '');
+  return (
+    <div className="mb-4 grid gap-2 sm:flex sm:flex-wrap sm:items-center sm:gap-3">
+      <SearchInput
+        label="Search the Due list"
+        placeholder="Cabinet tag, bank or design"
+        value={value('q')}
+        onSearch={(q) => update({ q })}
+      />
+      <Select
+        label="Site"
+        value={siteId}
+        onChange={(v) => update({ siteId: v })}
+        options={[
+          { value: '', label: 'All sites' },
+          ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name })),
+        ]}
+      />
+      {siteId ? (
+        <Select
+          label="Area"
+          value={value('areaId')}
+          onChange={(v) => update({ areaId: v })}
+          options={[
+            { value: '', label: 'All areas' },
+            ...(areas.data?.items ?? []).map((a) => ({ value: a.id, label: a.name })),
+          ]}
+        />
+      ) : null}
+      <Select
+        label="Design"
+        value={value('bankDesignId')}
+        onChange={(v) => update({ bankDesignId: v })}
+        options={[
+          { value: '', label: 'All designs' },
+          ...(designs.data?.items ?? []).map((d) => ({ value: d.id, label: d.code })),
+        ]}
+      />
+      <Select
+        label="Criticality"
+        value={value('criticality')}
+        onChange={(v) => update({ criticality: v })}
+        options={[
+          { value: '', label: 'Any criticality' },
+          ...[...CRITICALITIES].reverse().map((c) => ({ value: c, label: c })),
+        ]}
+      />
+      <Select
+        label="Health"
+        value={value('health')}
+        onChange={(v) => update({ health: v })}
+        options={[
+          { value: '', label: 'Any health' },
+          ...DUE_HEALTHS.map((h) => ({ value: h, label: DUE_HEALTH_LABELS[h] })),
+        ]}
+      />
+      <Select
+        label="Visit"
+        value={value('planned')}
+        onChange={(v) => update({ planned: v })}
+        options={[
+          { value: '', label: 'Planned or not' },
+          { value: 'false', label: 'No visit planned' },
+          { value: 'true', label: 'Visit planned' },
+        ]}
+      />
+    </div>
+  );
+}
+
+function CriticalityBadge({ criticality }: { criticality: Criticality }) {
+  const tone =
+    criticality === 'critical'
+      ? 'danger'
+      : criticality === 'high'
+        ? 'warn'
+        : criticality === 'medium'
+          ? 'tide'
+          : 'muted';
+  return <Badge tone={tone}>{criticality}</Badge>;
+}
+
+function HealthBadge({ health }: { health: DueHealth }) {
+  const tone =
+    health === 'healthy'
+      ? 'ok'
+      : health === 'watch'
+        ? 'warn'
+        : health === 'end-of-life'
+          ? 'danger'
+          : 'muted';
+  return <Badge tone={tone}>{DUE_HEALTH_LABELS[health]}</Badge>;
+}
+
+function BankLink({ bank }: { bank: DueBank }) {
+  return (
+    <Link
+      to={`/register/banks/${bank.bankId}`}
+      className="font-medium text-tide-800 underline underline-offset-2 hover:text-tide-950"
+    >
+      {bank.cabinetTag} · {bank.position}
+    </Link>
+  );
+}
+
+function DueWhen({ bank }: { bank: DueBank }) {
+  return (
+    <span>
+      <span className={bank.daysUntilDue < 0 ? 'font-medium text-eol-600' : 'font-medium'}>
+        {formatDueOn(bank.dueOn)}
+      </span>
+      <span className="block text-xs text-tide-600">
+        {dueDistance(bank.daysUntilDue)} · {dueBasisText(bank.basis, bank.inspectionIntervalDays)}
+      </span>
+    </span>
+  );
+}
+
+function LastInspected({ bank }: { bank: DueBank }) {
+  if (bank.lastInspectedOn) return <span>{formatDueOn(bank.lastInspectedOn)}</span>;
+  return (
+    <span className="text-tide-600">
+      never{' '}
+      <span className="text-xs">
+        ({bank.startKind === 'installed' ? 'installed' : 'baseline'} {formatDueOn(bank.startOn)})
+      </span>
+    </span>
+  );
+}
+
+/** Whether a visit covers the bank, and a missed last visit. */
+function VisitState({ bank }: { bank: DueBank }) {
+  const href = plannedVisitHref(bank);
+  return (
+    <span className="flex flex-col items-start gap-1">
+      {bank.plannedVisit && href ? (
+        <Link to={href} className="text-sm text-tide-800 underline underline-offset-2">
+          <Badge tone="ok">visit planned</Badge>{' '}
+          {formatSiteTime(bank.plannedVisit.plannedStartAt, bank.timeZone)}
+        </Link>
+      ) : (
+        <Badge tone="muted">no visit planned</Badge>
+      )}
+      {bank.missedVisit ? (
+        <span className="text-xs text-eol-600">
+          <Badge tone="danger">last visit missed</Badge>{' '}
+          {formatSiteTime(bank.missedVisit.plannedStartAt, bank.timeZone)}
+        </span>
+      ) : null}
+    </span>
+  );
+}
+
+function PlanLink({ bank, page }: { bank: DueBank; page: readonly DueBank[] }) {
+  if (bank.plannedVisit) return null;
+  const bankIds = banksToPlanWith(bank, page);
+  const more = bankIds.length - 1;
+  return (
+    <ButtonLink
+      size="sm"
+      variant="primary"
+      to={planVisitHref(bank, bankIds)}
+      aria-label={`Plan a visit to ${bank.cabinetTag} (${bankIds.length} bank${bankIds.length === 1 ? '' : 's'})`}
+    >
+      Plan a visit{more > 0 ? ` (+${more} bank${more === 1 ? '' : 's'})` : ''}
+    </ButtonLink>
+  );
+}
+
+function columns(page: readonly DueBank[]): DataColumn<DueBank>[] {
+  return [
+    { id: 'cabinet', header: 'Bank', cell: ({ row }) => <BankLink bank={row.original} /> },
+    {
+      id: 'site',
+      header: 'Site · area',
+      cell: ({ row }) => (
+        <span>
+          {row.original.siteName} <span className="text-tide-600">· {row.original.areaName}</span>
+        </span>
+      ),
+    },
+    { id: 'design', header: 'Design', cell: ({ row }) => row.original.bankDesignCode },
+    {
+      id: 'criticality',
+      header: 'Criticality',
+      cell: ({ row }) => <CriticalityBadge criticality={row.original.criticality} />,
+    },
+    {
+      id: 'lastInspectedOn',
+      header: 'Last inspected',
+      cell: ({ row }) => <LastInspected bank={row.original} />,
+    },
+    { id: 'dueOn', header: 'Due', cell: ({ row }) => <DueWhen bank={row.original} /> },
+    {
+      id: 'health',
+      header: 'Health',
+      enableSorting: false,
+      cell: ({ row }) => <HealthBadge health={row.original.health} />,
+    },
+    {
+      id: 'visit',
+      header: 'Visit',
+      enableSorting: false,
+      cell: ({ row }) => <VisitState bank={row.original} />,
+    },
+    {
+      id: 'plan',
+      header: () => <span className="sr-only">Plan</span>,
+      enableSorting: false,
+      cell: ({ row }) => <PlanLink bank={row.original} page={page} />,
+    },
+  ];
+}
+
+/** A row on a phone: what is due where, when, and the two ways on. */
+function DueCard({ bank, page }: { bank: DueBank; page: readonly DueBank[] }) {
+  return (
+    <div className="space-y-2 text-sm text-tide-900">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <BankLink bank={bank} />
+        <CriticalityBadge criticality={bank.criticality} />
+      </div>
+      <p className="text-tide-700">
+        {bank.siteName} · {bank.areaName} · {bank.bankDesignCode}
+      </p>
+      <p>
+        Due <DueWhen bank={bank} />
+      </p>
+      <p className="text-tide-700">
+        Last inspected <LastInspected bank={bank} /> · <HealthBadge health={bank.health} />
+      </p>
+      <VisitState bank={bank} />
+      <PlanLink bank={bank} page={page} />
+    </div>
+  );
+}
