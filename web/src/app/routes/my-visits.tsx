@@ -1,14 +1,38 @@
-import { UpcomingScreen } from '../../components/ui/upcoming-screen';
+import { Route, Routes, useParams } from 'react-router';
+import { PageHeader } from '../../components/ui/page-header';
+import { useMe } from '../../features/auth/api/get-me';
+import { MyVisitPage } from '../../features/my-visits/components/my-visit-page';
+import { MyVisitsList } from '../../features/my-visits/components/my-visits-list';
 
+function ListScreen() {
+  return (
+    <div className="mx-auto max-w-5xl">
+      <PageHeader
+        title="My visits"
+        lead="The visits assigned to you. Open one at the cabinet to see its banks, the cautions, and to start it."
+      />
+      <MyVisitsList />
+    </div>
+  );
+}
+
+function VisitScreen() {
+  const { visitId = '' } = useParams();
+  const me = useMe();
+  if (!me.data) return null;
+  return (
+    <div className="mx-auto max-w-3xl">
+      <MyVisitPage visitId={visitId} viewer={{ id: me.data.id, roles: me.data.roles }} />
+    </div>
+  );
+}
+
+/** My visits (technicians' start screen): the list, and one visit at `/my-visits/:visitId`. */
 export function Component() {
   return (
-    <UpcomingScreen
-      title="My visits"
-      lead="The visits assigned to you, ready to open at the cabinet."
-      plans={[
-        'Open a visit at the cabinet',
-        'Follow a guided, timed capture of the decay readings',
-      ]}
-    />
+    <Routes>
+      <Route index element={<ListScreen />} />
+      <Route path=":visitId" element={<VisitScreen />} />
+    </Routes>
   );
 }
