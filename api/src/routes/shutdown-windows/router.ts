@@ -13,8 +13,14 @@ import {
   retireShutdownWindow,
   updateShutdownWindow,
 } from '../../services/shutdown-windows';
+import {
+  importShutdownWindows,
+  previewShutdownWindowImport,
+  shutdownWindowImportTemplate,
+} from '../../services/shutdown-window-import';
 import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
+import { csvUpload } from '../cabinets/upload';
 import { actingUser, idParam, versionFromQuery } from '../params';
 import { shutdownWindowPolicy } from './policy';
 import { presentShutdownWindow } from './presenter';
@@ -37,6 +43,25 @@ shutdownWindowsRouter.post('/', requireRole(...shutdownWindowPolicy.edit), async
   const input = shutdownWindowInputSchema.parse(req.body);
   const window = await withUnitOfWork(actingUser(req), (uow) => createShutdownWindow(uow, input));
   res.status(201).json(presentShutdownWindow(window));
+});
+
+// the import's paths come before /:windowId, which would take "import" for an id
+shutdownWindowsRouter.get('/import/template', requireRole(...shutdownWindowPolicy.import), (_req, res) => {
+  res.attachment('ebbline-shutdown-windows-template.csv');
+  res.type('text/csv; charset=utf-8').send(shutdownWindowImportTemplate());
+});
+
+shutdownWindowsRouter.post('/import/preview', requireRole(...shutdownWindowPolicy.import), csvUpload, async (req, res) => {
+  const file = req.file!;
+  res.json(await previewShutdownWindowImport({ name: file.originalname, bytes: file.buffer }, new Date()));
+});
+
+shutdownWindowsRouter.post('/import', requireRole(...shutdownWindowPolicy.import), csvUpload, async (req, res) => {
+  const file = req.file!;
+  // the multipart form's `confirmed=true` keeps the file's unlikely values
+  const confirmed = (req.body as Record<string, unknown> | undefined)?.confirmed === 'true';
+  const result = await withUnitOfWork(actingUser(req), (uow) => importShutdownWindows(uow, { name: file.originalname, bytes: file.buffer }, confirmed));
+  res.status(201).json(result);
 });
 
 shutdownWindowsRouter.get('/:windowId', requireRole(...shutdownWindowPolicy.read), async (req, res) => {
