@@ -48,6 +48,9 @@ export function windowOf(change: Partial<ShutdownWindow> = {}): ShutdownWindow {
     endsAt: '2026-12-12T13:00:00.000Z',
     recurrence: 'FREQ=WEEKLY;BYDAY=SA;COUNT=8',
     recurrenceText: 'every week on Saturday for 8 times',
+    retiredAt: null,
+    createdAt: '2026-12-01T00:00:00.000Z',
+    updatedAt: '2026-12-01T00:00:00.000Z',
     notes: '',
     version: 1,
     occurrences: [

@@ -9,7 +9,7 @@ import type { Cabinet } from '../../../../../shared/schemas/cabinet';
 import type { ListPage } from '../../../../../shared/schemas/common';
 import type { Site } from '../../../../../shared/schemas/site';
 import { apiFetch } from '../../../lib/api-client';
-import type { TechnicianLoad } from './shapes';
+import type { TechnicianLoadList } from './shapes';
 
 /** The register's largest page. */
 const PAGE = 100;
@@ -53,11 +53,14 @@ export const banksOptions = (cabinetId: string) =>
     staleTime: 60_000,
   });
 
-/** GET /api/technician-load?weekOn=…: every technician with the week's planned and available hours. */
-export const technicianLoadOptions = (weekOn: string) =>
+/**
+ * GET /api/technician-load?weekOn=…&timeZone=…: every technician with the week's planned and
+ * available hours, the week counted on the site's clock.
+ */
+export const technicianLoadOptions = (weekOn: string, timeZone: string) =>
   queryOptions({
-    queryKey: ['technician-load', weekOn] as const,
-    queryFn: () => apiFetch<{ items: TechnicianLoad[]; total: number }>(`/api/technician-load?weekOn=${weekOn}`),
+    queryKey: ['technician-load', 'planner-picker', weekOn, timeZone] as const,
+    queryFn: () => apiFetch<TechnicianLoadList>(`/api/technician-load?weekOn=${weekOn}&timeZone=${encodeURIComponent(timeZone)}`),
     staleTime: 60_000,
   });
 
@@ -65,4 +68,4 @@ export const useSites = () => useQuery(sitesOptions());
 export const useAreas = (siteId: string) => useQuery({ ...areasOptions(siteId), enabled: siteId !== '' });
 export const useCabinets = (areaId: string, q: string) => useQuery({ ...cabinetsOptions(areaId, q), enabled: areaId !== '' });
 export const useBanks = (cabinetId: string) => useQuery({ ...banksOptions(cabinetId), enabled: cabinetId !== '' });
-export const useTechnicians = (weekOn: string) => useQuery(technicianLoadOptions(weekOn));
+export const useTechnicians = (weekOn: string, timeZone: string) => useQuery(technicianLoadOptions(weekOn, timeZone));

@@ -12,32 +12,5 @@ export type { PlanningOverride as VisitOverride, PlanningWarning, Visit, VisitIn
 /** The body of PATCH /api/visits/:visitId: names only what changes. */
 export type VisitChange = z.input<typeof visitUpdateSchema>;
 
-export interface WindowOccurrence {
-  startsAt: string;
-  endsAt: string;
-}
-
-export interface ShutdownWindow {
-  id: string;
-  areaId: string;
-  areaName: string;
-  siteId: string;
-  siteName: string;
-  timeZone: string;
-  title: string;
-  startsAt: string;
-  endsAt: string;
-  recurrence: string | null;
-  recurrenceText: string | null;
-  notes: string;
-  version: number;
-  occurrences?: WindowOccurrence[];
-}
-
-/** A technician as the week's load lists them (GET /api/technician-load). */
-export interface TechnicianLoad {
-  technicianId: string;
-  name: string;
-  availableHours: number;
-  plannedHours: number;
-}
+export type { ShutdownWindow, ShutdownWindowOccurrence as WindowOccurrence } from '../../../../../shared/schemas/shutdown-window';
+export type { TechnicianLoad, TechnicianLoadList } from '../../../../../shared/schemas/technician-load';

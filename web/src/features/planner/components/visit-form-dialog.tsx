@@ -39,7 +39,7 @@ export function VisitFormDialog({
   const banks = useBanks(draft.cabinetId);
   const site = sites.data?.items.find((s) => s.id === draft.siteId);
   const zone = site?.timeZone ?? fallbackZone;
-  const technicians = useTechnicians(weekOnOf(draft.plannedStartAt, zone));
+  const technicians = useTechnicians(weekOnOf(draft.plannedStartAt, zone), zone);
 
   const input = draftInput(draft);
   const check = useVisitCheck(input);

@@ -195,7 +195,7 @@ function ReassignForm({ visit, onDone }: { visit: Visit; onDone: () => void }) {
   const [reason, setReason] = useState('');
   const [reasons, setReasons] = useState<Partial<Record<PlanningWarningKind, string>>>({});
   const [serverWarnings, setServerWarnings] = useState<PlanningWarning[] | null>(null);
-  const technicians = useTechnicians(weekOnOf(visit.plannedStartAt, visit.timeZone));
+  const technicians = useTechnicians(weekOnOf(visit.plannedStartAt, visit.timeZone), visit.timeZone);
   const sorted = [...technicianIds].sort();
   const check = useVisitCheck(
     sorted.length === 0
