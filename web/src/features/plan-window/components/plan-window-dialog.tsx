@@ -20,6 +20,7 @@ import { PLANNING_REASON_MIN_CHARS } from '../../../../../shared/constants/plann
 import type { WindowProposal } from '../../../../../shared/schemas/plan-window';
 import type { Visit } from '../../../../../shared/schemas/visit';
 import { Button } from '../../../components/ui/button';
+import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import { ErrorPanel } from '../../../components/ui/error-panel';
 import { Spinner } from '../../../components/ui/spinner';
 import { ApiError } from '../../../lib/api-client';
@@ -239,6 +240,8 @@ function ProposalEditor({
           wait. Times are on the site’s clock ({zone}).
         </p>
       </div>
+
+      <DischargeCaution compact />
 
       {proposal.technicianPool === 'all' ? (
         <p className="text-sm text-tide-800">Nobody is attached to {occurrence.siteName}, so every technician free during the window is offered.</p>

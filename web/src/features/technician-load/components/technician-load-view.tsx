@@ -2,9 +2,11 @@
  * `TechnicianLoadView`: each technician's week, hours planned against hours available.
  *
  * Props (all optional):
- * - `weekOn?: string` — any day of the week to show, `YYYY-MM-DD` (default: today). With it the
- *   view is controlled: the week buttons call `onWeekChange` and the parent passes the new day.
- * - `onWeekChange?(weekOn: string): void` — the day of the week the planner moved to.
+ * - `weekOn?: string` — any day of the week to show, `YYYY-MM-DD` (default: today); the view
+ *   follows it when it changes (e.g. the calendar moved to another week).
+ * - `onWeekChange?(weekOn: string): void` — told the day of the week the planner moved to with
+ *   the view's own week buttons. Given together with `weekOn`, the view is controlled: it shows
+ *   `weekOn` only, and the parent passes the new day.
  * - `siteId?: string` — the technicians attached to this site (every technician when nobody
  *   is), the week on the site's clock; without it the week is on the browser's clock.
  * - `onVisitOpen?(visitId: string): void` — shows an "Open" button on each visit (e.g. the
@@ -43,10 +45,17 @@ const STATE_LABELS: Record<string, string> = {
 
 export function TechnicianLoadView({ weekOn: controlledWeekOn, onWeekChange, siteId, onVisitOpen }: TechnicianLoadViewProps) {
   const [browserZone] = useState(() => Intl.DateTimeFormat().resolvedOptions().timeZone);
-  const [ownWeekOn, setOwnWeekOn] = useState(() => todayOn(Date.now()));
-  const weekOn = controlledWeekOn ?? ownWeekOn;
+  const controlled = controlledWeekOn !== undefined && onWeekChange !== undefined;
+  const [ownWeekOn, setOwnWeekOn] = useState(() => controlledWeekOn ?? todayOn(Date.now()));
+  // follow the parent's week when it changes (adjusting state while rendering, as React advises)
+  const [lastPropWeekOn, setLastPropWeekOn] = useState(controlledWeekOn);
+  if (controlledWeekOn !== lastPropWeekOn) {
+    setLastPropWeekOn(controlledWeekOn);
+    if (controlledWeekOn !== undefined) setOwnWeekOn(controlledWeekOn);
+  }
+  const weekOn = controlled ? controlledWeekOn : ownWeekOn;
   const moveTo = (day: string) => {
-    if (controlledWeekOn === undefined) setOwnWeekOn(day);
+    if (!controlled) setOwnWeekOn(day);
     onWeekChange?.(day);
   };
   const load = useTechnicianLoad({ weekOn, siteId, timeZone: siteId ? undefined : browserZone });
