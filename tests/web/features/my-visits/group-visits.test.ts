@@ -48,7 +48,7 @@ describe('groupOfVisit', () => {
 });
 
 describe('groupMyVisits', () => {
-  it('when visits come in any order, then the groups run under way, earlier, today, this week, coming weeks, each by start', () => {
+  it('when visits come in any order, then the groups run under way, today, this week, coming weeks, earlier ones not done, each by start', () => {
     const nextWeekLate = visitJson({ plannedStartAt: '2026-12-17T07:00:00Z', plannedEndAt: '2026-12-17T08:00:00Z' });
     const nextWeekEarly = visitJson({ plannedStartAt: '2026-12-15T07:00:00Z', plannedEndAt: '2026-12-15T08:00:00Z' });
     const inThreeWeeks = visitJson({ plannedStartAt: '2026-12-29T07:00:00Z', plannedEndAt: '2026-12-29T08:00:00Z' });
@@ -65,11 +65,11 @@ describe('groupMyVisits', () => {
     );
     expect(groups.map((g) => [g.kind, g.weekOn, g.visits.map((v) => v.id)])).toEqual([
       ['under-way', undefined, [underWay.id]],
-      ['earlier', undefined, [missed.id]],
       ['today', undefined, [todayEarly.id, todayLate.id]],
       ['this-week', undefined, [friday.id]],
       ['coming', '2026-12-14', [nextWeekEarly.id, nextWeekLate.id]],
       ['coming', '2026-12-28', [inThreeWeeks.id]],
+      ['earlier', undefined, [missed.id]],
     ]);
   });
 

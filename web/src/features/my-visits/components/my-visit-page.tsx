@@ -72,7 +72,6 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
         </p>
         <p className="text-tide-800">
           {visit.siteName} · {visit.areaName}
-          {visit.cabinetName ? ` · ${visit.cabinetName}` : ''}
         </p>
         <WindowLine window={window} timeZone={visit.timeZone} />
         {outsideOverride ? (
@@ -90,13 +89,14 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
         <DetailList
           items={[
             {
-              label: 'Cabinet',
+              label: 'Tag',
               value: (
                 <Link to={`/register/cabinets/${visit.cabinetId}`} className="font-medium text-tide-800 underline">
                   {visit.cabinetTag}
                 </Link>
               ),
             },
+            { label: 'Where', value: visit.cabinetName || visit.areaName },
             {
               label: 'Marked wait before opening',
               value:
@@ -105,10 +105,12 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
                   : `${visit.cabinetMarkedWaitMinutes} min`,
             },
             { label: 'Estimated time on site', value: `about ${durationText(visit.estimatedMinutes)}` },
-            {
-              label: others.length === visit.technicians.length ? 'Technicians' : 'With',
-              value: others.length === 0 ? 'You alone' : others.map((t) => t.name).join(', '),
-            },
+            isAssigned(visit, viewer) && others.length > 0
+              ? { label: 'With you', value: others.map((t) => t.name).join(', ') }
+              : {
+                  label: 'Technicians',
+                  value: others.length === 0 ? 'You' : others.map((t) => t.name).join(', '),
+                },
             ...(visit.notes ? [{ label: 'Planner’s notes', value: visit.notes, wide: true }] : []),
           ]}
         />
@@ -122,15 +124,14 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
                 to={`/register/banks/${bank.id}`}
                 className="flex min-h-12 items-center justify-between gap-3 py-2 hover:bg-tide-50"
               >
-                <span>
-                  <span className="font-mono font-bold text-tide-900">{bank.position}</span>
-                  <span className="block text-sm text-tide-600">{bank.bankDesignCode}</span>
-                </span>
-                <span className="text-right text-sm text-tide-800">
-                  baseline τ {formatSeconds(bank.baselineTauSeconds)}
-                  <span className="block text-tide-600" aria-hidden="true">
-                    Open ›
+                <span className="min-w-0">
+                  <span className="block font-bold text-tide-900">{bank.position}</span>
+                  <span className="block text-sm text-tide-600">
+                    {bank.bankDesignCode} · baseline τ {formatSeconds(bank.baselineTauSeconds)}
                   </span>
+                </span>
+                <span className="shrink-0 text-sm font-medium text-tide-800" aria-hidden="true">
+                  Open ›
                 </span>
               </Link>
             </li>
@@ -159,11 +160,13 @@ function VisitActions({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
 
   return (
     <section aria-label="What to do" className="space-y-3 rounded-xl border border-tide-100 bg-white p-4 shadow-sm">
-      <p className="text-sm text-tide-800" data-testid="capture-later">
-        Recording the decay readings in Ebbline is not built yet: it comes in a later release. For now, take
-        the readings with your meter or logger as you do today and keep the file. Start the visit when you
-        begin at the cabinet and mark it as logged when the readings are taken.
-      </p>
+      {action !== null ? (
+        <p className="text-sm text-tide-800" data-testid="capture-later">
+          Recording the decay readings in Ebbline is not built yet: it comes in a later release. For now, take
+          the readings with your meter or logger as you do today and keep the file. Start the visit when you
+          begin at the cabinet and mark it as logged when the readings are taken.
+        </p>
+      ) : null}
       {!assigned ? (
         <p className="text-sm font-medium text-tide-900">
           This visit is at one of your sites but assigned to{' '}

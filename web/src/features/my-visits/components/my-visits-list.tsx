@@ -62,7 +62,7 @@ function GroupSection({
   const title = groupTitle(group);
   const headingId = `group-${group.kind}-${group.weekOn ?? ''}`;
   return (
-    <section aria-labelledby={headingId}>
+    <section aria-labelledby={headingId} className={group.kind === 'earlier' ? 'border-t border-tide-100 pt-4' : ''}>
       <h3
         id={headingId}
         className={`mb-2 flex items-baseline gap-2 font-bold ${group.kind === 'coming' ? 'text-base text-tide-800' : 'text-lg text-tide-900'}`}
@@ -74,7 +74,7 @@ function GroupSection({
       </h3>
       {group.kind === 'earlier' ? (
         <p className="mb-2 text-sm text-tide-800">
-          These were not started or logged. Ask your planner to replan them, or open one to start it now.
+          These were not done in time: ask your planner to replan them.
         </p>
       ) : null}
       <ul className="grid gap-3 lg:grid-cols-2">

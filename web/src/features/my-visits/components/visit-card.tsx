@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
 import type { Visit } from '../../../../../shared/schemas/visit';
 import type { VisitWindow } from '../utils/visit-window';
-import { clockSpanText, dayText, durationText } from '../utils/visit-times';
+import { clockSpanText, dayText, durationText, spanText } from '../utils/visit-times';
 import { VisitStateBadge } from './visit-state-badge';
 
 /** The banks of a visit in a few words: "DC1, DC2, DC3" or "DC1, DC2 and 4 more". */
@@ -41,8 +41,8 @@ export function VisitCard({ visit, window }: { visit: Visit; window: VisitWindow
       </p>
       <p className="mt-1 text-sm text-tide-800">
         {visit.banks.length === 1 ? 'Bank' : `${visit.banks.length} banks`}: {banksText(visit.banks)}
-        <span className="text-tide-600"> · about {durationText(visit.estimatedMinutes)}</span>
       </p>
+      <p className="text-sm text-tide-600">About {durationText(visit.estimatedMinutes)} on site</p>
       <WindowLine window={window} timeZone={visit.timeZone} />
     </Link>
   );
@@ -60,8 +60,7 @@ export function WindowLine({ window, timeZone }: { window: VisitWindow | null | 
   }
   return (
     <p className="mt-1 text-sm text-tide-800">
-      <span className="text-tide-600">Window:</span> {window.title},{' '}
-      {dayText(window.startsAt, timeZone)} {clockSpanText(window.startsAt, window.endsAt, timeZone)}
+      <span className="text-tide-600">Window:</span> {window.title}, {spanText(window.startsAt, window.endsAt, timeZone)}
       {window.fit === 'partly' ? (
         <span className="font-medium text-watch-600"> (the visit runs past it)</span>
       ) : null}

@@ -1,6 +1,6 @@
 /**
  * My visits, in the order a technician plans their days: what is under way, today, the rest of
- * this week, then the coming weeks one by one. "Today" and "this week" are read on each visit's
+ * this week, then the coming weeks one by one; past visits not done last. "Today" and "this week" are read on each visit's
  * site clock, so a visit at a site in another zone lands on the right day.
  */
 import type { Visit } from '../../../../../shared/schemas/visit';
@@ -33,11 +33,11 @@ export function groupOfVisit(visit: Visit, now: Date): { kind: VisitGroupKind; w
   return { kind: 'coming', weekOn: weekStartOn(visit.plannedStartAt, zone) };
 }
 
-const ORDER: VisitGroupKind[] = ['under-way', 'earlier', 'today', 'this-week', 'coming'];
+const ORDER: VisitGroupKind[] = ['under-way', 'today', 'this-week', 'coming', 'earlier'];
 
 /**
- * Groups visits for the My visits list: under way, earlier and still open (planned or missed),
- * today, this week, then each coming week; done visits of past days are left out. Empty groups
+ * Groups visits for the My visits list: under way, today, this week, each coming week, then
+ * earlier ones still open (planned or missed); done visits of past days are left out. Empty groups
  * are left out too; visits inside a group run by planned start.
  */
 export function groupMyVisits(visits: readonly Visit[], now: Date): VisitGroup[] {
@@ -64,7 +64,7 @@ export function groupTitle(group: Pick<VisitGroup, 'kind' | 'weekOn'>): string {
     case 'under-way':
       return 'Under way';
     case 'earlier':
-      return 'Earlier, not logged';
+      return 'Earlier, not done';
     case 'today':
       return 'Today';
     case 'this-week':

@@ -31,13 +31,22 @@ export function dayAfter(dayOn: string, days: number): string {
  *   // 'Sat 12 Dec, 22:00 – Sun 13 Dec, 06:00 Europe/Berlin'
  */
 export function visitTimeText(startAt: string, endAt: string, timeZone: string): string {
+  return `${spanText(startAt, endAt, timeZone)} ${timeZone}`;
+}
+
+/**
+ * A span on the clock of `timeZone` without naming the zone (for a line under one that does).
+ *
+ * @example spanText('2026-12-12T21:00:00Z', '2026-12-13T05:00:00Z', 'Europe/Berlin')
+ *   // 'Sat 12 Dec, 22:00 – Sun 13 Dec, 06:00'
+ */
+export function spanText(startAt: string, endAt: string, timeZone: string): string {
   const zone = { in: tz(timeZone) };
   const start = new Date(startAt);
   const end = new Date(endAt);
   const sameDay = localDayOn(start, timeZone) === localDayOn(end, timeZone);
   const from = format(start, 'EEE d MMM, HH:mm', zone);
-  const to = sameDay ? format(end, 'HH:mm', zone) : format(end, 'EEE d MMM, HH:mm', zone);
-  return sameDay ? `${from}–${to} ${timeZone}` : `${from} – ${to} ${timeZone}`;
+  return sameDay ? `${from}–${format(end, 'HH:mm', zone)}` : `${from} – ${format(end, 'EEE d MMM, HH:mm', zone)}`;
 }
 
 /** Only the clock times, for a list already grouped by day: "06:00–14:00". */
