@@ -6,11 +6,11 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { PlanningOverride } from '../../../shared/schemas/visit';
-import { dueOnOf } from '../../../shared/domain/due';
 import { planningWarnings, unacceptedKinds, type PlanningWarningFinding } from '../../../shared/domain/planning-warnings';
 import { windowOccurrences } from '../../../shared/domain/shutdown-windows';
 import { sequelize } from '../db/sequelize';
 import { AppError, type FieldIssue } from '../errors';
+import { dueDatesOfBanks } from './due';
 
 /** A visit as it would be saved, for the check. */
 export interface PlannedVisit {
@@ -37,60 +37,58 @@ interface OtherVisitRow {
   technician_ids: string[];
 }
 
-interface BankDueRow {
-  id: string;
-  position: string;
-  installed_on: string | null;
-  baseline_set_on: string;
-  inspection_interval_days: number;
-  last_inspected_on: string | null;
-}
-
 /**
  * The warnings of a planned visit (outside every window, double-booked, not due).
  *
  * @param exceptVisitId - the visit being replanned, left out of the double-booking check
+ * @param asOf - the instant the due dates are judged at (the unit of work's `now`)
  */
 export async function planningWarningsOf(
   visit: PlannedVisit,
   exceptVisitId: string | null,
+  asOf: Date,
   transaction?: Transaction,
 ): Promise<PlanningWarningFinding[]> {
-  const [windows, others, banks, names] = await Promise.all([
-    sequelize.query<WindowRow>(
-      `SELECT starts_at, ends_at, recurrence FROM shutdown_windows
-        WHERE area_id = :areaId AND retired_at IS NULL AND starts_at < :endAt`,
-      { replacements: { areaId: visit.areaId, endAt: visit.plannedEndAt }, type: QueryTypes.SELECT, transaction },
-    ),
-    sequelize.query<OtherVisitRow>(
-      `SELECT v.id, v.planned_start_at, v.planned_end_at, c.tag AS cabinet_tag,
-              array_agg(vt.user_id::text) AS technician_ids
-         FROM visits v
-         JOIN cabinets c ON c.id = v.cabinet_id
-         JOIN visit_technicians vt ON vt.visit_id = v.id
-        WHERE v.state IN ('planned', 'under-way')
-          AND v.planned_start_at < :endAt AND v.planned_end_at > :startAt
-          AND vt.user_id IN (:technicianIds)
-          AND (CAST(:exceptId AS uuid) IS NULL OR v.id <> CAST(:exceptId AS uuid))
-        GROUP BY v.id, c.tag`,
-      {
-        replacements: {
-          startAt: visit.plannedStartAt,
-          endAt: visit.plannedEndAt,
-          technicianIds: [...visit.technicianIds],
-          exceptId: exceptVisitId,
-        },
-        type: QueryTypes.SELECT,
-        transaction,
+  // one after another: the queries may share the transaction's one connection
+  const windows = await sequelize.query<WindowRow>(
+    `SELECT starts_at, ends_at, recurrence FROM shutdown_windows
+      WHERE area_id = :areaId AND retired_at IS NULL AND starts_at < :endAt`,
+    { replacements: { areaId: visit.areaId, endAt: visit.plannedEndAt }, type: QueryTypes.SELECT, transaction },
+  );
+  const others = await sequelize.query<OtherVisitRow>(
+    `SELECT v.id, v.planned_start_at, v.planned_end_at, c.tag AS cabinet_tag,
+            array_agg(vt.user_id::text) AS technician_ids
+       FROM visits v
+       JOIN cabinets c ON c.id = v.cabinet_id
+       JOIN visit_technicians vt ON vt.visit_id = v.id
+      WHERE v.state IN ('planned', 'under-way')
+        AND v.planned_start_at < :endAt AND v.planned_end_at > :startAt
+        AND vt.user_id IN (:technicianIds)
+        AND (CAST(:exceptId AS uuid) IS NULL OR v.id <> CAST(:exceptId AS uuid))
+      GROUP BY v.id, c.tag`,
+    {
+      replacements: {
+        startAt: visit.plannedStartAt,
+        endAt: visit.plannedEndAt,
+        technicianIds: [...visit.technicianIds],
+        exceptId: exceptVisitId,
       },
-    ),
-    bankDueFacts(visit.bankIds, exceptVisitId, transaction),
-    sequelize.query<{ id: string; name: string }>('SELECT id, name FROM users WHERE id IN (:ids)', {
-      replacements: { ids: [...visit.technicianIds] },
       type: QueryTypes.SELECT,
       transaction,
-    }),
-  ]);
+    },
+  );
+  // the due rule of the Due list (services/due.ts), so the warning and the list agree
+  const dueDates = await dueDatesOfBanks(visit.bankIds, asOf, transaction);
+  const banks = await sequelize.query<{ id: string; position: string }>('SELECT id, position FROM banks WHERE id IN (:ids)', {
+    replacements: { ids: [...visit.bankIds] },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  const names = await sequelize.query<{ id: string; name: string }>('SELECT id, name FROM users WHERE id IN (:ids)', {
+    replacements: { ids: [...visit.technicianIds] },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
 
   const occurrences = windows.flatMap((w) =>
     windowOccurrences(
@@ -117,46 +115,11 @@ export async function planningWarningsOf(
       technicianIds: o.technician_ids,
     })),
     technicianNames: Object.fromEntries(names.map((n) => [n.id, n.name])),
-    banks: banks.map((b) => ({
-      id: b.id,
-      position: b.position,
-      dueOn: dueOnOf({
-        lastInspectedOn: b.last_inspected_on,
-        installedOn: b.installed_on,
-        baselineSetOn: b.baseline_set_on,
-        inspectionIntervalDays: b.inspection_interval_days,
-      }),
-    })),
+    banks: banks.flatMap((b) => {
+      const due = dueDates.get(b.id);
+      return due ? [{ id: b.id, position: b.position, dueOn: due.dueOn }] : [];
+    }),
   });
-}
-
-/**
- * What the due rule needs of each bank: install date, the local date its baseline was set, its
- * design's inspection interval, and the local date of the latest logged or reviewed visit that
- * covered it (dates in the site's zone; the visit being replanned left out).
- */
-async function bankDueFacts(
-  bankIds: readonly string[],
-  exceptVisitId: string | null,
-  transaction?: Transaction,
-): Promise<BankDueRow[]> {
-  return sequelize.query<BankDueRow>(
-    `SELECT b.id, b.position, b.installed_on,
-            to_char(b.baseline_set_at AT TIME ZONE s.time_zone, 'YYYY-MM-DD') AS baseline_set_on,
-            dv.inspection_interval_days,
-            (SELECT to_char(max(v.logged_at) AT TIME ZONE s.time_zone, 'YYYY-MM-DD')
-               FROM visit_banks vb JOIN visits v ON v.id = vb.visit_id
-              WHERE vb.bank_id = b.id AND v.state IN ('logged', 'reviewed') AND v.logged_at IS NOT NULL
-                AND (CAST(:exceptId AS uuid) IS NULL OR v.id <> CAST(:exceptId AS uuid))) AS last_inspected_on
-       FROM banks b
-       JOIN cabinets c ON c.id = b.cabinet_id
-       JOIN areas a ON a.id = c.area_id
-       JOIN sites s ON s.id = a.site_id
-       JOIN bank_designs d ON d.id = b.bank_design_id
-       JOIN bank_design_versions dv ON dv.id = d.current_version_id
-      WHERE b.id IN (:bankIds)`,
-    { replacements: { bankIds: [...bankIds], exceptId: exceptVisitId }, type: QueryTypes.SELECT, transaction },
-  );
 }
 
 /**

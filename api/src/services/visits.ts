@@ -188,10 +188,9 @@ function visitSnapshot(visit: Visit, technicianIds: readonly string[], bankIds: 
 }
 
 async function assignmentsOf(visitId: string, transaction: Transaction) {
-  const [technicians, banks] = await Promise.all([
-    VisitTechnician.findAll({ where: { visitId }, transaction }),
-    VisitBank.findAll({ where: { visitId }, transaction }),
-  ]);
+  // one after another: both share the transaction's one connection
+  const technicians = await VisitTechnician.findAll({ where: { visitId }, transaction });
+  const banks = await VisitBank.findAll({ where: { visitId }, transaction });
   return { technicianIds: technicians.map((t) => t.userId), bankIds: banks.map((b) => b.bankId) };
 }
 
@@ -254,12 +253,13 @@ async function lockTechnicians(technicianIds: readonly string[], transaction: Tr
  * The planning warnings of a visit as it would be saved (before saving it). With `visitId`, the
  * visit being replanned is left out of the double-booking check.
  *
+ * @param asOf - the instant the banks' due dates are judged at
  * @throws AppError `validation-failed` naming the field when the cabinet, banks or technicians do not resolve
  */
-export async function checkVisitPlan(input: VisitCheckInput): Promise<PlanningWarning[]> {
+export async function checkVisitPlan(input: VisitCheckInput, asOf: Date): Promise<PlanningWarning[]> {
   const { issues, place } = await referenceIssues(input, '');
   if (issues.length > 0 || !place) throw fieldIssues(issues);
-  return planningWarningsOf(plannedVisit(place, input), input.visitId ?? null);
+  return planningWarningsOf(plannedVisit(place, input), input.visitId ?? null, asOf);
 }
 
 function plannedVisit(
@@ -321,7 +321,7 @@ export async function createVisits(
       problems.push(...issues);
       continue;
     }
-    const warnings = await planningWarningsOf(plannedVisit(place, input), null, transaction);
+    const warnings = await planningWarningsOf(plannedVisit(place, input), null, uow.now, transaction);
     const open = overrideIssues(warnings, input.overrides, prefix(index));
     if (open.length > 0) {
       warningsNeeded.push(...open);
@@ -414,7 +414,7 @@ export async function updateVisit(uow: UnitOfWork, id: string, input: VisitUpdat
     }
     const { issues, place } = await referenceIssues({ cabinetId: visit.cabinetId, ...next }, '', transaction);
     if (issues.length > 0 || !place) throw fieldIssues(issues);
-    const warnings = await planningWarningsOf(plannedVisit(place, next), id, transaction);
+    const warnings = await planningWarningsOf(plannedVisit(place, next), id, uow.now, transaction);
     const offered: PlanningOverride[] = input.overrides ?? visit.overrides;
     const open = overrideIssues(warnings, offered);
     if (open.length > 0) throw overrideNeeded(open);

@@ -56,7 +56,7 @@ export async function addWindow(areaId: string, startsAt: string, endsAt: string
 
 /** A bank installed on `installedOn`, so its due date is about a year later. */
 export async function makeRecentBank(plant: Plant, installedOn: string, position: string) {
-  const input = { cabinetId: plant.cabinet.id, bankDesignId: plant.design.id, position, serialNumber: '', installedOn, notes: '' };
+  const input = { cabinetId: plant.cabinet.id, bankDesignId: plant.design.id, position, serialNumber: '', installedOn, notes: '', confirmed: true };
   return withUnitOfWork(plant.planner.actor, (uow) => createBank(uow, input));
 }
 

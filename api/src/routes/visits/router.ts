@@ -43,7 +43,7 @@ visitsRouter.post('/', requireRole(...visitPolicy.plan), async (req, res) => {
 // fixed paths before /:visitId, which would take "check" or "batch" for an id
 visitsRouter.post('/check', requireRole(...visitPolicy.plan), async (req, res) => {
   const input = visitCheckSchema.parse(req.body);
-  const answer: PlanningCheck = { warnings: await checkVisitPlan(input) };
+  const answer: PlanningCheck = { warnings: await checkVisitPlan(input, new Date()) };
   res.json(answer);
 });
 
