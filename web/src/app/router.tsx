@@ -17,6 +17,7 @@ const router = createBrowserRouter([
       { path: 'register/*', lazy: () => import('./routes/register') },
       { path: 'planner', lazy: () => import('./routes/planner') },
       { path: 'planner/due', lazy: () => import('./routes/planner-due') },
+      { path: 'planner/windows/import', lazy: () => import('./routes/planner-window-import') },
       { path: 'my-visits/*', lazy: () => import('./routes/my-visits') },
       { path: 'alerts', lazy: () => import('./routes/alerts') },
       { path: 'people', lazy: () => import('./routes/people') },
