@@ -49,12 +49,18 @@ describe('Due list words', () => {
     expect(formatDueOn('2026-12-10')).toBe('Thu 10 Dec 2026');
   });
 
-  it('when the distance to a due date is said, then overdue, today and ahead read differently', () => {
+  it('when the distance to a due date is said, then overdue, today and ahead read differently, in days, months or years', () => {
     expect(dueDistance(-3)).toBe('3 days overdue');
     expect(dueDistance(-1)).toBe('1 day overdue');
     expect(dueDistance(0)).toBe('due today');
     expect(dueDistance(1)).toBe('in 1 day');
     expect(dueDistance(40)).toBe('in 40 days');
+    expect(dueDistance(59)).toBe('in 59 days');
+    expect(dueDistance(60)).toBe('in 1 month');
+    expect(dueDistance(-200)).toBe('6 months overdue');
+    expect(dueDistance(-729)).toBe('23 months overdue');
+    expect(dueDistance(-730)).toBe('1 year overdue');
+    expect(dueDistance(-6532)).toBe('17 years overdue');
   });
 
   it('when the basis is said, then it names the yearly rule, the forecast or the design’s interval', () => {

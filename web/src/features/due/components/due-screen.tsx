@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { Link } from 'react-router';
 import { CRITICALITIES, type Criticality } from '../../../../../shared/constants/register';
 import { DUE_BUCKET_LABELS, type DueBucket } from '../../../../../shared/domain/due';
@@ -16,7 +17,7 @@ import { SearchInput } from '../../../components/ui/search-input';
 import { Spinner } from '../../../components/ui/spinner';
 import { useDueList } from '../api/get-due-list';
 import { useDueAreas, useDueDesigns, useDueSites } from '../api/get-filter-choices';
-import { useDueParams, type DueParamsUpdate } from '../hooks/use-due-params';
+import { DUE_FILTERS, useDueParams, type DueParamsUpdate } from '../hooks/use-due-params';
 import {
   banksToPlanWith,
   dueBasisText,
@@ -30,7 +31,27 @@ import {
 /** The Due list's tabs: what needs a visit soonest. */
 const TABS: readonly DueBucket[] = ['overdue', 'this-month', 'next-quarter'];
 
+/** The tabs' names on a phone, where the three must fit side by side. */
+const SHORT_TAB_LABELS: Record<DueBucket, string> = {
+  overdue: 'Overdue',
+  'this-month': 'This month',
+  'next-quarter': 'Next 3 months',
+  later: 'Later',
+};
+
 type Params = ReturnType<typeof useDueParams>[0];
+
+/** Every order the API offers, for phones (no column headers) and the columns not shown. */
+const SORT_CHOICES = [
+  { value: 'dueOn', label: 'Due soonest first' },
+  { value: '-dueOn', label: 'Due latest first' },
+  { value: '-criticality', label: 'Most critical first' },
+  { value: 'lastInspectedOn', label: 'Longest since inspected' },
+  { value: 'cabinet', label: 'Cabinet tag' },
+  { value: 'site', label: 'Site, area, cabinet' },
+  { value: 'area', label: 'Area, site, cabinet' },
+  { value: 'design', label: 'Bank design' },
+];
 
 /**
  * The Due list: every bank in service by the day it is due for inspection, in tabs (overdue,
@@ -129,7 +150,8 @@ function BucketTabs({
                 : 'border-transparent text-tide-600 hover:text-tide-900'
             }`}
           >
-            {DUE_BUCKET_LABELS[bucket]}
+            <span className="sm:hidden">{SHORT_TAB_LABELS[bucket]}</span>
+            <span className="hidden sm:inline">{DUE_BUCKET_LABELS[bucket]}</span>
             <span
               className={`rounded-full px-2 py-0.5 text-xs tabular-nums ${
                 bucket === 'overdue' && count
@@ -177,6 +199,8 @@ function Select({
 
 /** Site, area, design, criticality, health, planned or not, and a search; all in the address bar. */
 function DueFilters({ params, update }: { params: Params; update: DueParamsUpdate }) {
+  const [shown, setShown] = useState(false);
+  const active = DUE_FILTERS.filter((name) => name !== 'q' && Boolean(params[name])).length;
   const siteId = String(params.siteId ?? '');
   const sites = useDueSites();
   const areas = useDueAreas(siteId);
@@ -184,69 +208,96 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
   const value = (name: string) => String(params[name] ?? '');
   return (
     <div className="mb-4 grid gap-2 sm:flex sm:flex-wrap sm:items-center sm:gap-3">
-      <SearchInput
-        label="Search the Due list"
-        placeholder="Cabinet tag, bank or design"
-        value={value('q')}
-        onSearch={(q) => update({ q })}
-      />
-      <Select
-        label="Site"
-        value={siteId}
-        onChange={(v) => update({ siteId: v })}
-        options={[
-          { value: '', label: 'All sites' },
-          ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name })),
-        ]}
-      />
-      {siteId ? (
+      <div className="flex gap-2 sm:contents">
+        <SearchInput
+          label="Search the Due list"
+          placeholder="Cabinet tag, bank or design"
+          value={value('q')}
+          onSearch={(q) => update({ q })}
+        />
+        {/* on a phone the filters fold away, so the list starts on the first screen */}
+        <button
+          type="button"
+          aria-expanded={shown}
+          aria-controls="due-filters"
+          onClick={() => setShown((v) => !v)}
+          className="min-h-10 shrink-0 rounded-lg border border-tide-200 bg-white px-3 text-sm font-medium text-tide-800 sm:hidden"
+        >
+          Filters{active ? ` (${active})` : ''}
+        </button>
+      </div>
+      <div id="due-filters" className={`${shown ? 'grid' : 'hidden'} gap-2 sm:contents`}>
         <Select
-          label="Area"
-          value={value('areaId')}
-          onChange={(v) => update({ areaId: v })}
+          label="Site"
+          value={siteId}
+          onChange={(v) => update({ siteId: v })}
           options={[
-            { value: '', label: 'All areas' },
-            ...(areas.data?.items ?? []).map((a) => ({ value: a.id, label: a.name })),
+            { value: '', label: 'All sites' },
+            ...(sites.data?.items ?? []).map((s) => ({ value: s.id, label: s.name })),
           ]}
         />
-      ) : null}
-      <Select
-        label="Design"
-        value={value('bankDesignId')}
-        onChange={(v) => update({ bankDesignId: v })}
-        options={[
-          { value: '', label: 'All designs' },
-          ...(designs.data?.items ?? []).map((d) => ({ value: d.id, label: d.code })),
-        ]}
-      />
-      <Select
-        label="Criticality"
-        value={value('criticality')}
-        onChange={(v) => update({ criticality: v })}
-        options={[
-          { value: '', label: 'Any criticality' },
-          ...[...CRITICALITIES].reverse().map((c) => ({ value: c, label: c })),
-        ]}
-      />
-      <Select
-        label="Health"
-        value={value('health')}
-        onChange={(v) => update({ health: v })}
-        options={[
-          { value: '', label: 'Any health' },
-          ...DUE_HEALTHS.map((h) => ({ value: h, label: DUE_HEALTH_LABELS[h] })),
-        ]}
-      />
-      <Select
-        label="Visit"
-        value={value('planned')}
-        onChange={(v) => update({ planned: v })}
-        options={[
-          { value: '', label: 'Planned or not' },
-          { value: 'false', label: 'No visit planned' },
-          { value: 'true', label: 'Visit planned' },
-        ]}
-      />
+        {siteId ? (
+          <Select
+            label="Area"
+            value={value('areaId')}
+            onChange={(v) => update({ areaId: v })}
+            options={[
+              { value: '', label: 'All areas' },
+              ...(areas.data?.items ?? []).map((a) => ({ value: a.id, label: a.name })),
+            ]}
+          />
+        ) : null}
+        <Select
+          label="Design"
+          value={value('bankDesignId')}
+          onChange={(v) => update({ bankDesignId: v })}
+          options={[
+            { value: '', label: 'All designs' },
+            ...(designs.data?.items ?? []).map((d) => ({ value: d.id, label: d.code })),
+          ]}
+        />
+        <Select
+          label="Criticality"
+          value={value('criticality')}
+          onChange={(v) => update({ criticality: v })}
+          options={[
+            { value: '', label: 'Any criticality' },
+            ...[...CRITICALITIES].reverse().map((c) => ({ value: c, label: c })),
+          ]}
+        />
+        <Select
+          label="Health"
+          value={value('health')}
+          onChange={(v) => update({ health: v })}
+          options={[
+            { value: '', label: 'Any health' },
+            ...DUE_HEALTHS.map((h) => ({ value: h, label: DUE_HEALTH_LABELS[h] })),
+          ]}
+        />
+        <Select
+          label="Sort"
+          value={String(params.sort)}
+          onChange={(v) => update({ sort: v })}
+          options={
+            SORT_CHOICES.some((c) => c.value === params.sort)
+              ? SORT_CHOICES
+              : [
+                  ...SORT_CHOICES,
+                  { value: String(params.sort), label: 'As a column heading chose' },
+                ]
+          }
+        />
+        <Select
+          label="Visit"
+          value={value('planned')}
+          onChange={(v) => update({ planned: v })}
+          options={[
+            { value: '', label: 'Planned or not' },
+            { value: 'false', label: 'No visit planned' },
+            { value: 'true', label: 'Visit planned' },
+          ]}
+        />
+      </div>
     </div>
   );
 }
@@ -299,14 +350,13 @@ function DueWhen({ bank }: { bank: DueBank }) {
   );
 }
 
-function LastInspected({ bank }: { bank: DueBank }) {
+function LastInspected({ bank, inline = false }: { bank: DueBank; inline?: boolean }) {
   if (bank.lastInspectedOn) return <span>{formatDueOn(bank.lastInspectedOn)}</span>;
+  const since = `${bank.startKind === 'installed' ? 'installed' : 'baseline set'} ${formatDueOn(bank.startOn)}`;
   return (
     <span className="text-tide-600">
-      never{' '}
-      <span className="text-xs">
-        ({bank.startKind === 'installed' ? 'installed' : 'baseline'} {formatDueOn(bank.startOn)})
-      </span>
+      never
+      <span className={inline ? '' : 'block text-xs'}>{inline ? ` (${since})` : since}</span>
     </span>
   );
 }
@@ -345,52 +395,57 @@ function PlanLink({ bank, page }: { bank: DueBank; page: readonly DueBank[] }) {
       to={planVisitHref(bank, bankIds)}
       aria-label={`Plan a visit to ${bank.cabinetTag} (${bankIds.length} bank${bankIds.length === 1 ? '' : 's'})`}
     >
-      Plan a visit{more > 0 ? ` (+${more} bank${more === 1 ? '' : 's'})` : ''}
+      Plan a visit
+      {more > 0 ? (
+        <span className="ml-1 text-xs font-normal">
+          +{more} bank{more === 1 ? '' : 's'}
+        </span>
+      ) : null}
     </ButtonLink>
   );
 }
 
 function columns(page: readonly DueBank[]): DataColumn<DueBank>[] {
   return [
-    { id: 'cabinet', header: 'Bank', cell: ({ row }) => <BankLink bank={row.original} /> },
     {
-      id: 'site',
-      header: 'Site · area',
+      id: 'cabinet',
+      header: 'Bank',
       cell: ({ row }) => (
-        <span>
-          {row.original.siteName} <span className="text-tide-600">· {row.original.areaName}</span>
+        <span className="block">
+          <BankLink bank={row.original} />
+          <span className="block text-xs text-tide-600">
+            {row.original.siteName} · {row.original.areaName} · {row.original.bankDesignCode}
+          </span>
         </span>
       ),
     },
-    { id: 'design', header: 'Design', cell: ({ row }) => row.original.bankDesignCode },
-    {
-      id: 'criticality',
-      header: 'Criticality',
-      cell: ({ row }) => <CriticalityBadge criticality={row.original.criticality} />,
-    },
+    { id: 'dueOn', header: 'Due', cell: ({ row }) => <DueWhen bank={row.original} /> },
     {
       id: 'lastInspectedOn',
       header: 'Last inspected',
       cell: ({ row }) => <LastInspected bank={row.original} />,
     },
-    { id: 'dueOn', header: 'Due', cell: ({ row }) => <DueWhen bank={row.original} /> },
     {
-      id: 'health',
-      header: 'Health',
-      enableSorting: false,
-      cell: ({ row }) => <HealthBadge health={row.original.health} />,
+      id: 'criticality',
+      header: 'Criticality',
+      cell: ({ row }) => (
+        <span className="flex flex-col items-start gap-1">
+          <CriticalityBadge criticality={row.original.criticality} />
+          <HealthBadge health={row.original.health} />
+        </span>
+      ),
     },
     {
       id: 'visit',
       header: 'Visit',
       enableSorting: false,
-      cell: ({ row }) => <VisitState bank={row.original} />,
-    },
-    {
-      id: 'plan',
-      header: () => <span className="sr-only">Plan</span>,
-      enableSorting: false,
-      cell: ({ row }) => <PlanLink bank={row.original} page={page} />,
+      meta: { wrap: true },
+      cell: ({ row }) => (
+        <span className="flex flex-col items-start gap-2">
+          <VisitState bank={row.original} />
+          <PlanLink bank={row.original} page={page} />
+        </span>
+      ),
     },
   ];
 }

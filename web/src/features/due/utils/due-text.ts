@@ -18,17 +18,28 @@ export function formatDueOn(dateOn: string): string {
 }
 
 /**
- * How far away a due date is, from the site's today.
+ * How far away a due date is, from the site's today: days up to two months, then months up to
+ * two years, then years (whole ones, rounded down).
  *
  * @example dueDistance(-3) // '3 days overdue'
  * @example dueDistance(0) // 'due today'
  * @example dueDistance(1) // 'in 1 day'
+ * @example dueDistance(-6532) // '17 years overdue'
  */
 export function dueDistance(daysUntilDue: number): string {
   if (daysUntilDue === 0) return 'due today';
   const days = Math.abs(daysUntilDue);
-  const unit = days === 1 ? 'day' : 'days';
-  return daysUntilDue < 0 ? `${days} ${unit} overdue` : `in ${days} ${unit}`;
+  const amount =
+    days < 60
+      ? plural(days, 'day')
+      : days < 730
+        ? plural(Math.floor(days / 30.436875), 'month')
+        : plural(Math.floor(days / 365.2425), 'year');
+  return daysUntilDue < 0 ? `${amount} overdue` : `in ${amount}`;
+}
+
+function plural(n: number, unit: string): string {
+  return `${n} ${unit}${n === 1 ? '' : 's'}`;
 }
 
 /**
