@@ -47,6 +47,11 @@ export function MyVisitsList() {
       })}
       <p className="text-sm text-tide-600">
         Showing your visits from two weeks back to six weeks ahead. Times are on each site’s clock.
+        To have them in your phone’s calendar, make your calendar feed on your{' '}
+        <Link to="/profile" className="font-medium text-tide-800 underline">
+          profile
+        </Link>
+        .
       </p>
     </div>
   );
