@@ -9,11 +9,11 @@
  *    {@link estimateVisitMinutes} (per bank: setup + 5 τ + marked wait, the sum rounded up).
  * 2. Visits are taken longest first (ties: cabinet tag, then cabinet id).
  * 3. Every technician starts free at the occurrence's start. Each visit goes to the technician
- *    free soonest (ties: the order the technicians were given in), from that moment, and that
- *    technician is then free at its end: each technician's visits follow one another.
- * 4. A visit that would end after the occurrence's end keeps the banks (in position order) that
- *    still fit before it; the others are left out, with the reason. The technician free soonest
- *    has the most time left, so no other technician could take more of them.
+ *    who can start it soonest (ties: the order the technicians were given in), and that
+ *    technician is then free at its end: each technician's visits follow one another. Visits a
+ *    technician already has (`busy`) are planned around: a new visit never overlaps one.
+ * 4. A visit that fits nobody before the occurrence's end keeps the banks (in position order)
+ *    that still fit someone; the others are left out, with the reason.
  * 5. With no technician at all, every bank is left out.
  */
 import { TZDate } from '@date-fns/tz';
@@ -32,10 +32,36 @@ export interface PlanOccurrence {
   timeZone: string;
 }
 
+/** A span of time, UTC ISO instants. */
+export interface BusySpan {
+  startsAt: string;
+  endsAt: string;
+}
+
 /** A technician who may take visits in the occurrence. */
 export interface PlanTechnician {
   id: string;
   name: string;
+  /** Visits the technician already has during the occurrence: new visits go around them. */
+  busy?: readonly BusySpan[];
+}
+
+/** Busy spans as sorted [start, end) pairs in ms. */
+function busyMs(spans: readonly BusySpan[] | undefined): Array<[number, number]> {
+  return (spans ?? [])
+    .map((span): [number, number] => [Date.parse(span.startsAt), Date.parse(span.endsAt)])
+    .filter(([from, to]) => Number.isFinite(from) && Number.isFinite(to) && to > from)
+    .sort((a, b) => a[0] - b[0]);
+}
+
+/** The first moment ≥ `fromMs` at which `minutes` fit without meeting a busy span. */
+function firstFitMs(fromMs: number, minutes: number, busy: ReadonlyArray<[number, number]>): number {
+  let at = fromMs;
+  const lengthMs = minutes * MS_PER_MINUTE;
+  for (const [from, to] of busy) {
+    if (from < at + lengthMs && to > at) at = to;
+  }
+  return at;
 }
 
 /** A bank to cover. */
@@ -159,40 +185,51 @@ export function proposeWindowPlan(
     leftOut.push({ bankId: bank.bankId, cabinetId: cabinet.cabinetId, cabinetTag: cabinet.cabinetTag, position: bank.position, kind, reason });
 
   const freeAtMs = technicians.map(() => startMs);
+  const busy = technicians.map((t) => busyMs(t.busy));
+  /** The technician who can start `minutes` soonest, ending by the occurrence's end; null when nobody can. */
+  const soonest = (minutes: number): { index: number; fromMs: number } | null => {
+    let best: { index: number; fromMs: number } | null = null;
+    technicians.forEach((_t, index) => {
+      const fromMs = firstFitMs(freeAtMs[index]!, minutes, busy[index]!);
+      if (fromMs + minutes * MS_PER_MINUTE <= endMs && (best === null || fromMs < best.fromMs)) best = { index, fromMs };
+    });
+    return best;
+  };
 
   for (const { cabinet, banks } of candidates) {
     if (technicians.length === 0) {
       for (const bank of banks) leave(cabinet, bank, 'no-technician', 'No technician is available for this window at its site.');
       continue;
     }
-    // the technician free soonest; ties go to the one given first
-    let chosen = 0;
-    for (let i = 1; i < freeAtMs.length; i += 1) if (freeAtMs[i]! < freeAtMs[chosen]!) chosen = i;
-    const fromMs = freeAtMs[chosen]!;
-    const minutesLeft = Math.floor((endMs - fromMs) / MS_PER_MINUTE);
-
     const kept: PlanBank[] = [];
     const dropped: PlanBank[] = [];
     for (const bank of banks) {
-      if (estimateVisitMinutes([...kept, bank], cabinet, options) <= minutesLeft) kept.push(bank);
+      if (soonest(estimateVisitMinutes([...kept, bank], cabinet, options)) !== null) kept.push(bank);
       else dropped.push(bank);
     }
-    const technician = technicians[chosen]!;
+    const keptMinutes = estimateVisitMinutes(kept, cabinet, options);
     for (const bank of dropped) {
       const needs = estimateVisitMinutes([bank], cabinet, options);
-      const keptMinutes = estimateVisitMinutes(kept, cabinet, options);
-      const wouldEndMs = fromMs + (keptMinutes + needs) * MS_PER_MINUTE;
-      leave(
-        cabinet,
-        bank,
-        'past-window-end',
-        `Needs about ${needs} min; ${technician.name}, free soonest (from ${clockTime(fromMs + keptMinutes * MS_PER_MINUTE, occurrence.timeZone)}), ` +
-          `would finish at ${clockTime(wouldEndMs, occurrence.timeZone)}, after the window ends at ${windowEnd} (${occurrence.timeZone}).`,
-      );
+      // the technician free soonest (past any visit they already have), to say when they would finish
+      let first = 0;
+      const freeFrom = technicians.map((_t, i) => firstFitMs(freeAtMs[i]!, 0, busy[i]!));
+      for (let i = 1; i < freeFrom.length; i += 1) if (freeFrom[i]! < freeFrom[first]!) first = i;
+      const fromMs = freeFrom[first]! + (kept.length > 0 && soonest(keptMinutes)?.index === first ? keptMinutes * MS_PER_MINUTE : 0);
+      const wouldEndMs = fromMs + needs * MS_PER_MINUTE;
+      const reason =
+        wouldEndMs > endMs && busy[first]!.every(([from, to]) => to <= fromMs || from >= wouldEndMs)
+          ? `Needs about ${needs} min; ${technicians[first]!.name}, free soonest (from ${clockTime(fromMs, occurrence.timeZone)}), ` +
+            `would finish at ${clockTime(wouldEndMs, occurrence.timeZone)}, after the window ends at ${windowEnd} (${occurrence.timeZone}).`
+          : `Needs about ${needs} min; no technician has that long free before the window ends at ${windowEnd} (${occurrence.timeZone}).`;
+      leave(cabinet, bank, 'past-window-end', reason);
     }
     if (kept.length === 0) continue;
 
-    const minutes = estimateVisitMinutes(kept, cabinet, options);
+    const place = soonest(keptMinutes)!;
+    const chosen = place.index;
+    const fromMs = place.fromMs;
+    const technician = technicians[chosen]!;
+    const minutes = keptMinutes;
     const untilMs = fromMs + minutes * MS_PER_MINUTE;
     freeAtMs[chosen] = untilMs;
     visits.push({
@@ -236,12 +273,13 @@ export type PackedRow<R extends PackableRow> = R & {
 /**
  * Lays the rows of an edited proposal out again, the way {@link proposeWindowPlan} does: in
  * the order given, each row starts when all of its technicians are free (every technician free
- * from the occurrence's start) and keeps them busy until its end. After a row is removed or
- * given to another technician, each technician's rows follow one another again with no gap and
- * no overlap. A row with no technician starts at the occurrence's start.
+ * from the occurrence's start, around the visits they already have) and keeps them busy until
+ * its end. After a row is removed or given to another technician, each technician's rows follow
+ * one another again with no overlap. A row with no technician starts at the occurrence's start.
  *
  * @param rows - in the order to lay them out (a proposal's own order reproduces its times)
  * @param occurrence - the occurrence's start and end (UTC ISO)
+ * @param busyOf - the visits each technician already has during the occurrence, by technician id
  * @example
  * packProposalRows([{ technicianIds: ['t1'], estimatedMinutes: 30 }, { technicianIds: ['t1'], estimatedMinutes: 45 }],
  *   { startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T06:00:00Z' })
@@ -251,13 +289,16 @@ export type PackedRow<R extends PackableRow> = R & {
 export function packProposalRows<R extends PackableRow>(
   rows: readonly R[],
   occurrence: { startsAt: string; endsAt: string },
+  busyOf: Readonly<Record<string, readonly BusySpan[]>> = {},
 ): Array<PackedRow<R>> {
   const startMs = Date.parse(occurrence.startsAt);
   const endMs = Date.parse(occurrence.endsAt);
   const freeAtMs = new Map<string, number>();
   return rows.map((row) => {
-    const fromMs = Math.max(startMs, ...row.technicianIds.map((id) => freeAtMs.get(id) ?? startMs));
-    const untilMs = fromMs + Math.max(0, row.estimatedMinutes) * MS_PER_MINUTE;
+    const minutes = Math.max(0, row.estimatedMinutes);
+    const busy = busyMs(row.technicianIds.flatMap((id) => busyOf[id] ?? [])).sort((a, b) => a[0] - b[0]);
+    const fromMs = firstFitMs(Math.max(startMs, ...row.technicianIds.map((id) => freeAtMs.get(id) ?? startMs)), minutes, busy);
+    const untilMs = fromMs + minutes * MS_PER_MINUTE;
     for (const id of row.technicianIds) freeAtMs.set(id, untilMs);
     return {
       ...row,

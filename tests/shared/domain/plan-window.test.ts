@@ -174,6 +174,44 @@ describe('proposeWindowPlan', () => {
   });
 });
 
+describe('proposeWindowPlan around visits the technicians already have', () => {
+  it('when Ana is busy 06:00–06:30 local, then the longest visit goes to Ben at 06:00 and the next to Ana after her visit', () => {
+    // DR-A: 2 banks of 30 min = 60 min; DR-B: 1 bank = 30 min. Longest first:
+    // DR-A: Ana could start 06:30, Ben 06:00 → Ben 06:00–07:00. DR-B: Ana 06:30, Ben 07:00 → Ana 06:30–07:00.
+    const plan = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-A', 5, 120, ['DC1', 'DC2']), cabinet('DR-B', 5, 120, ['DC1'])],
+      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T05:30:00Z' }] }, ben],
+    });
+    expect(plan.visits.map((v) => [v.cabinetTag, v.technicianIds, v.plannedStartAt, v.plannedEndAt])).toEqual([
+      ['DR-A', ['t-ben'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:00:00.000Z'],
+      ['DR-B', ['t-ana'], '2027-01-09T05:30:00.000Z', '2027-01-09T06:00:00.000Z'],
+    ]);
+  });
+
+  it('when a visit fits in the gap before a busy span, then it goes there; a longer one goes after it', () => {
+    const busy = [{ startsAt: '2027-01-09T05:40:00Z', endsAt: '2027-01-09T06:00:00Z' }];
+    const short = proposeWindowPlan({ occurrence, cabinets: [cabinet('DR-C', 5, 120, ['DC1'])], technicians: [{ ...ana, busy }] });
+    expect(short.visits[0]!.plannedStartAt).toBe('2027-01-09T05:00:00.000Z');
+    // 45 min (τ 240 s, wait 10) does not fit 05:00–05:40: it starts at 06:00Z
+    const long = proposeWindowPlan({ occurrence, cabinets: [cabinet('DR-D', 10, 240, ['DC1'])], technicians: [{ ...ana, busy }] });
+    expect([long.visits[0]!.plannedStartAt, long.visits[0]!.plannedEndAt]).toEqual(['2027-01-09T06:00:00.000Z', '2027-01-09T06:45:00.000Z']);
+  });
+
+  it('when nobody has the time free between their visits, then the bank is left out saying so', () => {
+    // Ana is busy 06:20–08:00 local: 20 min free, the bank needs 30
+    const plan = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-E', 5, 120, ['DC1'])],
+      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:20:00Z', endsAt: '2027-01-09T07:00:00Z' }] }],
+    });
+    expect(plan.visits).toEqual([]);
+    expect(plan.leftOut.map((b) => b.reason)).toEqual([
+      'Needs about 30 min; no technician has that long free before the window ends at 08:00 (Europe/Berlin).',
+    ]);
+  });
+});
+
 describe('packProposalRows', () => {
   it('when a proposal is packed as it is, then every row keeps its times', () => {
     const plan = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
@@ -202,6 +240,21 @@ describe('packProposalRows', () => {
       false,
     ]);
     expect([byTag['DR-102']!.plannedStartAt, byTag['DR-102']!.endsAfterWindow]).toEqual(['2027-01-09T07:00:00.000Z', true]);
+  });
+
+  it('when a technician already has a visit, then a row laid out for them goes around it', () => {
+    const packed = packProposalRows(
+      [
+        { technicianIds: ['a'], estimatedMinutes: 30 },
+        { technicianIds: ['a'], estimatedMinutes: 30 },
+      ],
+      occurrence,
+      { a: [{ startsAt: '2027-01-09T05:30:00Z', endsAt: '2027-01-09T06:00:00Z' }] },
+    );
+    expect(packed.map((r) => [r.plannedStartAt, r.endsAfterWindow])).toEqual([
+      ['2027-01-09T05:00:00.000Z', false],
+      ['2027-01-09T06:00:00.000Z', false],
+    ]);
   });
 
   it('when a row has two technicians, then it starts when both are free and keeps both busy', () => {
