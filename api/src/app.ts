@@ -26,6 +26,9 @@ import { dueRouter } from './routes/due/router';
 import { shutdownWindowsRouter } from './routes/shutdown-windows/router';
 import { sitesRouter } from './routes/sites/router';
 import { sparesRouter } from './routes/spares/router';
+import { calendarFeedRouter } from './routes/calendar-feed/router';
+import { calendarFeedPublicRouter } from './routes/calendar-feed/public-router';
+import { withoutFeedSecret } from './routes/calendar-feed/hide-secret';
 import { windowProposalRouter } from './routes/shutdown-windows/proposal';
 import { technicianLoadRouter } from './routes/technician-load/router';
 import { visitsRouter } from './routes/visits/router';
@@ -42,6 +45,8 @@ export function createApp(): express.Express {
       logger,
       genReqId: (req) => (req.headers['x-request-id'] as string | undefined) ?? crypto.randomUUID(),
       autoLogging: { ignore: (req) => req.url === '/api/health' },
+      // a calendar feed's address is its credential: never in the log
+      serializers: { req: withoutFeedSecret },
     }),
   );
   app.use(
@@ -82,6 +87,7 @@ export function createApp(): express.Express {
   api.use(authenticate);
   api.use(requireCsrfToken);
   api.use('/me/tokens', apiTokensRouter);
+  api.use('/me/calendar-feed', calendarFeedRouter);
   api.use('/me', meRouter);
   api.use('/people', peopleRouter);
   api.use('/access-events', accessEventsRouter);
@@ -102,6 +108,8 @@ export function createApp(): express.Express {
   app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');
   app.use('/api', api);
 
+  // calendar apps fetch a person's visits here, with the secret address as the credential
+  app.use('/feeds', calendarFeedPublicRouter);
   serveWebApp(app, config.WEB_DIST_DIR);
   app.use(errorHandler);
   return app;
