@@ -176,8 +176,8 @@ export function toJsonText(value: unknown): string {
 /** The rows and versions of every table a write may touch, in one round trip. */
 export async function storedState(): Promise<Record<string, string>> {
   const { sequelize } = await import('../../api/src/db/sequelize');
-  const versioned = ['sites', 'areas', 'cabinets', 'banks', 'bank_designs', 'spares'];
-  const counted = ['bank_design_versions', 'audit_entries', 'users', 'api_tokens', 'access_events'];
+  const versioned = ['sites', 'areas', 'cabinets', 'banks', 'bank_designs', 'spares', 'visits'];
+  const counted = ['bank_design_versions', 'audit_entries', 'users', 'api_tokens', 'access_events', 'visit_banks', 'visit_technicians'];
   const columns = [
     ...versioned.map(
       (t) =>
