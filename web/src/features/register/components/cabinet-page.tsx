@@ -13,6 +13,7 @@ import { CabinetForm } from './cabinet-form';
 import { useRegisterPermissions } from './permissions';
 import { RecordHeader, RecordLoading, RetireButton } from './record-parts';
 import { CabinetStatusBadge, CriticalityBadge } from './status-badges';
+import { UpcomingWindows } from './upcoming-windows';
 
 function MarkedWait({ minutes }: { minutes: number | null }) {
   if (minutes === null) return <span className="text-watch-600">Not recorded: read the marking on the drive</span>;
@@ -86,6 +87,9 @@ export function CabinetPage({ cabinetId }: { cabinetId: string }) {
           </div>
         </Card>
       </div>
+      <Card title="Shutdown windows">
+        <UpcomingWindows siteId={c.siteId} areaId={c.areaId} areaName={c.areaName} />
+      </Card>
       <Card title="DC-link banks">
         <BankTable
           fixed={{ cabinetId: c.id }}
