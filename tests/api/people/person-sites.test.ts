@@ -12,6 +12,7 @@ import { withUnitOfWork } from '../../../api/src/services/unit-of-work';
 import type { AuthUser } from '../../../api/src/types/express';
 import { createCaller } from '../../support/auth';
 import { countRows, createActor, makeSite } from '../../support/register';
+import { makePlant, planVisit } from '../planner/visits-fixtures';
 
 const app = createApp();
 let admin: Record<string, string>;
@@ -242,4 +243,33 @@ describe('who may', () => {
       expect(read.status).toBe(403);
     },
   );
+});
+
+describe('what a technician reads follows their sites', () => {
+  it('when an admin gives a technician a site and takes it away, then the visits there are readable and then 404', async () => {
+    const plant = await makePlant();
+    const visit = await planVisit(app, plant);
+    // the outsider works at the other site only: Ana's visit is not theirs to read
+    const asOutsider = () =>
+      request(app).get(`/api/visits/${visit.id}`).set('Authorization', plant.outsider.auth);
+    expect((await asOutsider()).status).toBe(404);
+
+    await patch(plant.outsider.user.id, { siteIds: [plant.otherSite.id, plant.site.id] }).expect(200);
+    const read = await asOutsider();
+    expect(read.status).toBe(200);
+    expect(read.body.id).toBe(visit.id);
+    const listed = await request(app)
+      .get(`/api/visits?siteId=${plant.site.id}`)
+      .set('Authorization', plant.outsider.auth);
+    expect(listed.body.items.map((v: { id: string }) => v.id)).toContain(visit.id);
+    // reading is not changing: the visit stays Ana's to start
+    const start = await request(app)
+      .post(`/api/visits/${visit.id}/transitions`)
+      .set('Authorization', plant.outsider.auth)
+      .send({ action: 'start', version: visit.version });
+    expect(start.status).toBe(403);
+
+    await patch(plant.outsider.user.id, { siteIds: [plant.otherSite.id] }).expect(200);
+    expect((await asOutsider()).status).toBe(404);
+  });
 });
