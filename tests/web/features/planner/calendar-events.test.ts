@@ -9,6 +9,7 @@ import {
   visitTitle,
   VISIT_STATE_STYLES,
   windowEvents,
+  windowTitlesByDay,
 } from '../../../../web/src/features/planner/utils/calendar-events';
 import { visitOf, windowOf } from './support';
 
@@ -56,12 +57,34 @@ describe('calendarLayers', () => {
     }
   });
 
-  it('when the view is month or agenda, then windows are events of their own, in time order', () => {
-    for (const view of ['month', 'agenda'] as const) {
-      const layers = calendarLayers(view, visits, windows);
-      expect(layers.backgroundEvents).toEqual([]);
-      expect(layers.events.map((e) => e.kind)).toEqual(['window', 'visit', 'window']);
-    }
+  it('when the view is the agenda, then windows are listed among the visits, in time order', () => {
+    const layers = calendarLayers('agenda', visits, windows);
+    expect(layers.backgroundEvents).toEqual([]);
+    expect(layers.events.map((e) => e.kind)).toEqual(['window', 'visit', 'window']);
+  });
+
+  it('when the view is the month, then only visits are events (the windows tint their days)', () => {
+    const layers = calendarLayers('month', visits, windows);
+    expect(layers.events.map((e) => e.kind)).toEqual(['visit']);
+    expect(layers.backgroundEvents).toEqual([]);
+  });
+});
+
+describe('windowTitlesByDay', () => {
+  it('when windows open on two Saturdays, then each day names its window once', () => {
+    const days = windowTitlesByDay(windowEvents([windowOf(), windowOf({ id: 'w2' })], 'Europe/Berlin'));
+    expect([...days.keys()]).toEqual(['2026-12-12', '2026-12-19']);
+    expect(days.get('2026-12-12')).toEqual(['Saturday stop · Hall 2']);
+  });
+
+  it('when a window runs over midnight, then both days are tinted, and not the day its end touches at 00:00', () => {
+    const night = windowOf({
+      occurrences: [
+        { startsAt: '2026-12-12T21:00:00.000Z', endsAt: '2026-12-13T05:00:00.000Z' },
+        { startsAt: '2026-12-14T05:00:00.000Z', endsAt: '2026-12-14T23:00:00.000Z' },
+      ],
+    });
+    expect([...windowTitlesByDay(windowEvents([night], 'Europe/Berlin')).keys()]).toEqual(['2026-12-12', '2026-12-13', '2026-12-14']);
   });
 });
 

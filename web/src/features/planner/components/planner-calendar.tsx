@@ -1,8 +1,8 @@
 import { format, getDay, parse, startOfWeek } from 'date-fns';
 import { enGB } from 'date-fns/locale';
 import { useMemo } from 'react';
-import { Calendar, dateFnsLocalizer, type EventPropGetter, type Formats, type SlotInfo, type ToolbarProps } from 'react-big-calendar';
-import withDragAndDrop, { type EventInteractionArgs } from 'react-big-calendar/lib/addons/dragAndDrop';
+import { Calendar, dateFnsLocalizer, type DayPropGetter, type EventPropGetter, type Formats, type SlotInfo, type ToolbarProps } from 'react-big-calendar';
+import dragAndDropModule, { type EventInteractionArgs } from 'react-big-calendar/lib/addons/dragAndDrop';
 import 'react-big-calendar/lib/css/react-big-calendar.css';
 import 'react-big-calendar/lib/addons/dragAndDrop/styles.css';
 import './planner-calendar.css';
@@ -16,6 +16,12 @@ const localizer = dateFnsLocalizer({
   getDay,
   locales: { 'en-GB': enGB },
 });
+
+// The addon is CommonJS (exports.default); bundlers hand it over either as the function or as
+// the exports object, so take the function from whichever arrives.
+type WithDragAndDrop = typeof dragAndDropModule;
+const withDragAndDrop: WithDragAndDrop =
+  typeof dragAndDropModule === 'function' ? dragAndDropModule : (dragAndDropModule as unknown as { default: WithDragAndDrop }).default;
 
 const DragAndDropCalendar = withDragAndDrop<PlannerEvent>(Calendar);
 
@@ -128,6 +134,7 @@ const eventPropGetter: EventPropGetter<PlannerEvent> = (event) => {
 export function PlannerCalendar({
   events,
   backgroundEvents,
+  windowDays,
   view,
   date,
   canPlan,
@@ -140,6 +147,8 @@ export function PlannerCalendar({
 }: {
   events: PlannerEvent[];
   backgroundEvents: WindowEvent[];
+  /** Month view: the windows open on each day ("yyyy-MM-dd"), shown as a tint. */
+  windowDays: Map<string, string[]>;
   view: PlannerView;
   date: Date;
   canPlan: boolean;
@@ -152,8 +161,12 @@ export function PlannerCalendar({
 }) {
   const components = useMemo(() => ({ toolbar: Toolbar, event: EventBox, agenda: { event: AgendaEvent } }), []);
   const scrollToTime = useMemo(() => new Date(1970, 0, 1, 6, 0), []);
+  const dayPropGetter: DayPropGetter = (day) => {
+    const titles = view === 'month' ? windowDays.get(format(day, 'yyyy-MM-dd')) : undefined;
+    return titles ? { className: 'planner-window-day', title: `Shutdown windows: ${titles.join('; ')}` } : {};
+  };
   return (
-    <div className="planner-calendar" style={view === 'agenda' ? undefined : { height }}>
+    <div className={`planner-calendar${view === 'agenda' ? ' planner-calendar-agenda' : ''}`} style={view === 'agenda' ? undefined : { height }}>
       <DragAndDropCalendar
         localizer={localizer}
         culture="en-GB"
@@ -167,6 +180,7 @@ export function PlannerCalendar({
         onNavigate={onNavigate}
         components={components}
         eventPropGetter={eventPropGetter}
+        dayPropGetter={dayPropGetter}
         tooltipAccessor={(event) => event.title}
         showMultiDayTimes
         popup

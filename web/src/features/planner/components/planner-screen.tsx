@@ -21,6 +21,7 @@ import {
   visitEvent,
   WEEK_STARTS_ON,
   windowEvents,
+  windowTitlesByDay,
   type PlannerEvent,
   type PlannerView,
   type WindowEvent,
@@ -92,6 +93,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
   const visitEvents = (visits.data?.items ?? []).map((v) => visitEvent(v, timeZone, move?.visit.id === v.id ? move.proposed : undefined));
   const occurrenceEvents = windowEvents(windows.data?.items ?? [], timeZone);
   const layers = calendarLayers(view, visitEvents, occurrenceEvents);
+  const windowDays = windowTitlesByDay(occurrenceEvents);
 
   function onMoveVisit({ event, start, end }: EventInteractionArgs<PlannerEvent>) {
     if (event.kind !== 'visit') return;
@@ -194,9 +196,9 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
       </section>
 
       <p role="note" aria-label="Time zone" className="rounded-lg bg-white px-3 py-2 text-sm text-tide-800 ring-1 ring-tide-100">
-        🕓 {describePlannerZone(zone, siteName)}
+        {describePlannerZone(zone, siteName)}
       </p>
-      <PlannerLegend />
+      <PlannerLegend monthTint={view === 'month'} />
 
       {visits.isError ? (
         <ErrorPanel title="The visits could not be loaded" action={<Button onClick={() => void visits.refetch()}>Try again</Button>}>
@@ -210,14 +212,10 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
       ) : null}
 
       <div className="relative rounded-xl border border-tide-100 bg-white p-2 shadow-sm sm:p-4">
-        {visits.isFetching || windows.isFetching ? (
-          <div className="absolute right-3 top-3 z-10 sm:right-5 sm:top-5">
-            <Spinner label="Loading" />
-          </div>
-        ) : null}
         <PlannerCalendar
           events={layers.events}
           backgroundEvents={layers.backgroundEvents}
+          windowDays={windowDays}
           view={view}
           date={date}
           canPlan={can.plan}
@@ -229,7 +227,9 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           onMoveVisit={onMoveVisit}
         />
       </div>
-      <p className="text-sm text-tide-600">
+      <div className="flex flex-wrap items-center gap-x-3 text-sm text-tide-600" aria-live="polite">
+        {visits.isFetching || windows.isFetching ? <Spinner label="Loading…" /> : null}
+        <p>
         {visits.isPending
           ? 'Loading visits…'
           : total > shown
@@ -239,7 +239,8 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
                 ? 'No visits in this range. Select a free time on the calendar, or press “Plan a visit”, to plan one.'
                 : 'No visits in this range.'
               : `${total} ${total === 1 ? 'visit' : 'visits'} in this range.${can.plan ? ' Drag a planned visit to move it, or its lower edge to change its length.' : ''}`}
-      </p>
+        </p>
+      </div>
 
       {slots.technicianLoad ? (
         <section aria-labelledby="planner-load-title" className="space-y-2">

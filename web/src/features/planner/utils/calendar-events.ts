@@ -3,7 +3,7 @@
  * as background events (week and day) or as their own events (month and agenda, which draw no
  * background), all placed on the shown zone's clock.
  */
-import { addDays, endOfMonth, endOfWeek, startOfDay, startOfMonth, startOfWeek } from 'date-fns';
+import { addDays, endOfMonth, endOfWeek, format, startOfDay, startOfMonth, startOfWeek } from 'date-fns';
 import type { ShutdownWindow, Visit, VisitState } from '../api/shapes';
 import { VISIT_STATE_LABELS } from '../api/shapes';
 import { fromCalendarDate, toCalendarDate } from './zoned-time';
@@ -94,16 +94,41 @@ export function isMovable(visit: Visit, canPlan: boolean): boolean {
 
 /**
  * The calendar's events and background events for a view: week and day draw windows behind the
- * visits; month and agenda have no background, so windows come as events of their own.
+ * visits; the agenda lists them among the visits; the month tints their days instead (as events
+ * they would push the visits into "+n more").
  */
 export function calendarLayers(
   view: PlannerView,
   visits: readonly VisitEvent[],
   windows: readonly WindowEvent[],
 ): { events: PlannerEvent[]; backgroundEvents: WindowEvent[] } {
-  return view === 'week' || view === 'day'
-    ? { events: [...visits], backgroundEvents: [...windows] }
-    : { events: [...windows, ...visits].sort((a, b) => a.start.getTime() - b.start.getTime()), backgroundEvents: [] };
+  switch (view) {
+    case 'week':
+    case 'day':
+      return { events: [...visits], backgroundEvents: [...windows] };
+    case 'agenda':
+      return { events: [...windows, ...visits].sort((a, b) => a.start.getTime() - b.start.getTime()), backgroundEvents: [] };
+    case 'month':
+      return { events: [...visits], backgroundEvents: [] };
+  }
+}
+
+/**
+ * The titles of the windows open on each calendar day (key "yyyy-MM-dd" of the shown clock), for
+ * the month's tinted days; a window over midnight tints every day it touches.
+ */
+export function windowTitlesByDay(windows: readonly WindowEvent[]): Map<string, string[]> {
+  const days = new Map<string, string[]>();
+  for (const window of windows) {
+    const last = new Date(window.end.getTime() - 1);
+    for (let day = startOfDay(window.start); day <= last; day = addDays(day, 1)) {
+      const key = format(day, 'yyyy-MM-dd');
+      const titles = days.get(key) ?? [];
+      if (!titles.includes(window.title)) titles.push(window.title);
+      days.set(key, titles);
+    }
+  }
+  return days;
 }
 
 /**
