@@ -12,7 +12,8 @@ import { getConfig } from '../config/env';
 import { isDatabaseUnavailable } from '../db/connection-errors';
 import { AppError } from '../errors';
 import { logger } from '../logger';
-import { listVisitsToMarkMissed, markVisitMissed } from '../services/missed-visits';
+import { listVisitsToMarkMissed } from '../services/missed-visits';
+import { transitionVisit } from '../services/visits';
 import { withUnitOfWork } from '../services/unit-of-work';
 
 /** What one run did. */
@@ -57,7 +58,11 @@ export async function runMissedVisitCheck(
     for (const visit of round) {
       tried.add(visit.id);
       try {
-        await withUnitOfWork(null, (uow) => markVisitMissed(uow, visit.id, visit.version), { now });
+        await withUnitOfWork(
+          null,
+          (uow) => transitionVisit(uow, visit.id, { action: 'miss', version: visit.version }),
+          { now },
+        );
         marked.push(visit.id);
       } catch (err) {
         if (err instanceof AppError && CHANGED_MEANWHILE.has(err.code)) {

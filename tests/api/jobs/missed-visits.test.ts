@@ -2,10 +2,13 @@
  * The missed-visit check against a fake clock: the job's handler is called with the instant it
  * acts at, so each case states exactly how long after a visit's planned end it runs.
  */
+import request from 'supertest';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../../api/src/app';
+import { createCaller } from '../../support/auth';
 import { runMissedVisitCheck } from '../../../api/src/jobs/missed-visits';
 import { AppError } from '../../../api/src/errors';
-import { markVisitMissed } from '../../../api/src/services/missed-visits';
+import { transitionVisit } from '../../../api/src/services/visits';
 import { withUnitOfWork } from '../../../api/src/services/unit-of-work';
 import type { AuthUser } from '../../../api/src/types/express';
 import { createActor } from '../../support/register';
@@ -117,12 +120,40 @@ describe('the missed-visit check', () => {
   });
 });
 
+describe('a missed visit through the API', () => {
+  it('when the check has marked a visit missed, then the visits API shows it missed, with the time and the audit entry', async () => {
+    const app = createApp();
+    const caller = await createCaller(['planner']);
+    const end = '2031-10-01T09:00:00.000Z';
+    const visit = await visitEndingAt(end);
+    const now = at(end, 12.25);
+    await runMissedVisitCheck(now, 12);
+    const res = await request(app).get(`/api/visits/${visit.id}`).set('Authorization', caller.auth);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({
+      state: 'missed',
+      missedAt: now.toISOString(),
+      version: visit.version + 1,
+    });
+    const missedList = await request(app)
+      .get('/api/visits?state=missed&from=2031-10-01T00:00:00.000Z&to=2031-10-02T00:00:00.000Z')
+      .set('Authorization', caller.auth);
+    expect(missedList.status).toBe(200);
+    expect(missedList.body.items.map((v: { id: string }) => v.id)).toEqual([visit.id]);
+    const audit = await request(app)
+      .get(`/api/visits/${visit.id}/audit`)
+      .set('Authorization', caller.auth);
+    expect(audit.status).toBe(200);
+    expect(JSON.stringify(audit.body)).toContain('miss');
+  });
+});
+
 describe('marking one visit missed', () => {
   it('when the visit changed since it was read (another version), then it is refused as stale and stays planned', async () => {
     const visit = await visitEndingAt('2031-09-01T09:00:00.000Z');
     const refused = withUnitOfWork(
       null,
-      (uow) => markVisitMissed(uow, visit.id, visit.version + 1),
+      (uow) => transitionVisit(uow, visit.id, { action: 'miss', version: visit.version + 1 }),
       {
         now: at('2031-09-02T09:00:00.000Z'),
       },
@@ -133,9 +164,13 @@ describe('marking one visit missed', () => {
 
   it('when the visit was started meanwhile, then it is refused (visit-state) and nothing is written', async () => {
     const visit = await visitEndingAt('2031-09-03T09:00:00.000Z', 'under-way');
-    const refused = withUnitOfWork(null, (uow) => markVisitMissed(uow, visit.id, visit.version), {
-      now: at('2031-09-04T09:00:00.000Z'),
-    });
+    const refused = withUnitOfWork(
+      null,
+      (uow) => transitionVisit(uow, visit.id, { action: 'miss', version: visit.version }),
+      {
+        now: at('2031-09-04T09:00:00.000Z'),
+      },
+    );
     await expect(refused).rejects.toBeInstanceOf(AppError);
     await expect(refused).rejects.toMatchObject({ code: 'visit-state' });
     expect(await visitAuditEntries(visit.id)).toHaveLength(0);
@@ -144,9 +179,13 @@ describe('marking one visit missed', () => {
   it('when a person (not Ebbline) tries the miss action, then it is refused: only the scheduled check marks visits missed', async () => {
     const visit = await visitEndingAt('2031-09-05T09:00:00.000Z');
     const admin = (await createActor(['admin'])).actor;
-    const refused = withUnitOfWork(admin, (uow) => markVisitMissed(uow, visit.id, visit.version), {
-      now: at('2031-09-06T09:00:00.000Z'),
-    });
+    const refused = withUnitOfWork(
+      admin,
+      (uow) => transitionVisit(uow, visit.id, { action: 'miss', version: visit.version }),
+      {
+        now: at('2031-09-06T09:00:00.000Z'),
+      },
+    );
     await expect(refused).rejects.toMatchObject({ code: 'forbidden' });
     expect((await storedVisit(visit.id)).state).toBe('planned');
   });
