@@ -207,11 +207,7 @@ describe('the Planner (planner, desktop)', () => {
         WHERE c.area_id = $1 AND v.state = 'planned' AND v.planned_start_at >= $2 AND v.planned_end_at <= $3 ORDER BY v.planned_start_at`,
       [window!.areaId, window!.startsAt, window!.endsAt],
     );
-    for (const { tag } of planned)
-      await page
-        .getByTitle(eventTitled(tag))
-        .first()
-        .waitFor();
+    for (const { tag } of planned) await page.getByTitle(eventTitled(tag)).first().waitFor();
     await screenshot(page, 'planner-window-planned');
     expect(console.problems).toEqual([]);
   });
