@@ -367,17 +367,21 @@ function VisitState({ bank }: { bank: DueBank }) {
   return (
     <span className="flex flex-col items-start gap-1">
       {bank.plannedVisit && href ? (
-        <Link to={href} className="text-sm text-tide-800 underline underline-offset-2">
-          <Badge tone="ok">visit planned</Badge>{' '}
-          {formatSiteTime(bank.plannedVisit.plannedStartAt, bank.timeZone)}
+        <Link to={href} className="text-sm text-tide-800 underline-offset-2 hover:underline">
+          <Badge tone="ok">visit planned</Badge>
+          <span className="block whitespace-nowrap underline">
+            {formatSiteTime(bank.plannedVisit.plannedStartAt, bank.timeZone)}
+          </span>
         </Link>
       ) : (
         <Badge tone="muted">no visit planned</Badge>
       )}
       {bank.missedVisit ? (
         <span className="text-xs text-eol-600">
-          <Badge tone="danger">last visit missed</Badge>{' '}
-          {formatSiteTime(bank.missedVisit.plannedStartAt, bank.timeZone)}
+          <Badge tone="danger">last visit missed</Badge>
+          <span className="block whitespace-nowrap">
+            {formatSiteTime(bank.missedVisit.plannedStartAt, bank.timeZone)}
+          </span>
         </span>
       ) : null}
     </span>
@@ -419,15 +423,21 @@ function columns(page: readonly DueBank[]): DataColumn<DueBank>[] {
         </span>
       ),
     },
-    { id: 'dueOn', header: 'Due', cell: ({ row }) => <DueWhen bank={row.original} /> },
     {
-      id: 'lastInspectedOn',
-      header: 'Last inspected',
-      cell: ({ row }) => <LastInspected bank={row.original} />,
+      id: 'dueOn',
+      header: 'Due',
+      cell: ({ row }) => (
+        <span className="block">
+          <DueWhen bank={row.original} />
+          <span className="block text-xs text-tide-600">
+            Last inspected <LastInspected bank={row.original} inline />
+          </span>
+        </span>
+      ),
     },
     {
       id: 'criticality',
-      header: 'Criticality',
+      header: 'Criticality · health',
       cell: ({ row }) => (
         <span className="flex flex-col items-start gap-1">
           <CriticalityBadge criticality={row.original.criticality} />
@@ -465,8 +475,9 @@ function DueCard({ bank, page }: { bank: DueBank; page: readonly DueBank[] }) {
         Due <DueWhen bank={bank} />
       </p>
       <p className="text-tide-700">
-        Last inspected <LastInspected bank={bank} /> · <HealthBadge health={bank.health} />
+        Last inspected <LastInspected bank={bank} inline />
       </p>
+      <HealthBadge health={bank.health} />
       <VisitState bank={bank} />
       <PlanLink bank={bank} page={page} />
     </div>
