@@ -23,21 +23,11 @@ import { Field, Select, TextArea, TextInput } from '../../../components/ui/field
 import { ApiError } from '../../../lib/api-client';
 import { useAreasOfSite, useSitesInUse } from '../api/places';
 import { useRetireShutdownWindow, useSaveShutdownWindow } from '../api/shutdown-windows';
+import { FORM_FIELD_OF_PATH, windowBodyOf, type WindowFormProblems } from '../utils/window-form';
 import { windowTimeText } from '../utils/window-times';
 import { WindowModal } from './window-modal';
 
-type FieldName = 'siteId' | 'areaId' | 'title' | 'start' | 'end' | 'recurrence' | 'notes' | 'form';
-type Problems = Partial<Record<FieldName, string>>;
-
-/** The API's field names as the form's. */
-const FIELD_OF_PATH: Record<string, FieldName> = {
-  areaId: 'areaId',
-  title: 'title',
-  startsAt: 'start',
-  endsAt: 'end',
-  recurrence: 'recurrence',
-  notes: 'notes',
-};
+type Problems = WindowFormProblems & { siteId?: string };
 
 const UNIT_OF_KIND: Partial<Record<RepeatKind, [string, string]>> = {
   daily: ['day', 'days'],
@@ -110,23 +100,19 @@ export function ShutdownWindowForm({ window, siteId: initialSiteId, areaId: init
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
-    const found: Problems = {};
-    if (!areaId) found.areaId = 'Choose the area whose drives are shut down.';
-    if (!title.trim()) found.title = 'Enter the title, e.g. Weekend stop.';
-    if (!startsAt) found.start = 'Enter the start as a date and time.';
-    if (!endsAt) found.end = 'Enter the end as a date and time.';
-    else if (startsAt && Date.parse(endsAt) <= Date.parse(startsAt)) found.end = 'The end must be after the start.';
-    if (!recurrenceCheck.ok) found.recurrence = recurrenceCheck.message;
-    else if (check?.problem) found.recurrence = check.problem;
-    setProblems(found);
-    if (Object.keys(found).length > 0 || !startsAt || !endsAt || !recurrenceCheck.ok) return;
-    const body = { areaId, title: title.trim(), startsAt, endsAt, recurrence: recurrenceCheck.recurrence, notes: notes.trim() };
+    const checked = windowBodyOf({ areaId, title, start, end, choice, notes }, timeZone);
+    if ('problems' in checked) {
+      setProblems(checked.problems);
+      return;
+    }
+    setProblems({});
+    const body = checked.body;
     save.mutate(window ? { ...body, version: window.version } : body, {
       onSuccess: onSaved,
       onError: (error) => {
         if (error instanceof ApiError && error.issues.length > 0) {
           const fromServer: Problems = {};
-          for (const issue of error.issues) fromServer[FIELD_OF_PATH[issue.path] ?? 'form'] = issue.message;
+          for (const issue of error.issues) fromServer[FORM_FIELD_OF_PATH[issue.path] ?? 'form'] = issue.message;
           setProblems(fromServer);
         } else setProblems({ form: error.message });
       },
