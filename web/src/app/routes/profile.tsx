@@ -6,9 +6,10 @@ import { PageHeader } from '../../components/ui/page-header';
 import { ApiTokenForm } from '../../features/api-tokens/components/api-token-form';
 import { ApiTokenList } from '../../features/api-tokens/components/api-token-list';
 import { IssuedToken } from '../../features/api-tokens/components/issued-token';
+import { CalendarFeedSection } from '../../features/calendar-feed/components/calendar-feed-section';
 import { useMe } from '../../features/auth/api/get-me';
 
-/** The signed-in person's profile: who they are to Ebbline, and their API tokens. */
+/** The signed-in person's profile: who they are to Ebbline, their API tokens and their calendar feed. */
 export function Component() {
   const me = useMe();
   const [issued, setIssued] = useState<IssuedApiToken | null>(null);
@@ -46,6 +47,9 @@ export function Component() {
               <ApiTokenList />
             </div>
           </div>
+        </Card>
+        <Card title="Your visits in your calendar" className="lg:col-start-2">
+          <CalendarFeedSection />
         </Card>
       </div>
     </div>
