@@ -316,8 +316,9 @@ export interface BankDueDate {
 }
 
 /**
- * The due dates of some banks (in service or not yet: banks not in service are left out), judged at
- * `asOf`: for planning checks (a bank not yet due by a visit's end) and proposals.
+ * The due dates of some banks, judged at `asOf`: for planning checks (a bank not yet due by a
+ * visit's end) and proposals. Banks not in service, or of a retired cabinet, area or site, are
+ * left out.
  *
  * @returns a map from bank id to its due date; banks not found are absent
  */
