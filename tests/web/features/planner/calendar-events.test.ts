@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { VISIT_STATES } from '../../../../web/src/features/planner/api/shapes';
 import {
+  agendaLengthDays,
   calendarLayers,
   defaultView,
   isMovable,
@@ -121,10 +122,18 @@ describe('viewRange', () => {
     expect(range.to).toBe('2027-01-05T00:00:00.000Z');
   });
 
-  it('when the agenda is shown, then it runs 30 days from its date', () => {
-    const range = viewRange('agenda', new Date(2026, 11, 1), 'UTC');
+  it('when the agenda is shown, then it runs its length of days from its date', () => {
+    const range = viewRange('agenda', new Date(2026, 11, 1), 'UTC', 30);
     expect(range.from).toBe('2026-11-30T00:00:00.000Z');
     expect(Date.parse(range.to) - Date.parse('2026-12-01T00:00:00Z')).toBe(32 * 86_400_000);
+    expect(Date.parse(viewRange('agenda', new Date(2026, 11, 1), 'UTC', 7).to) - Date.parse('2026-12-01T00:00:00Z')).toBe(9 * 86_400_000);
+  });
+});
+
+describe('agendaLengthDays', () => {
+  it('when the screen is a phone, then a week; wider, a month', () => {
+    expect(agendaLengthDays(390)).toBe(7);
+    expect(agendaLengthDays(1366)).toBe(30);
   });
 });
 

@@ -136,6 +136,7 @@ export function PlannerCalendar({
   backgroundEvents,
   windowDays,
   view,
+  agendaDays,
   date,
   canPlan,
   height,
@@ -150,6 +151,8 @@ export function PlannerCalendar({
   /** Month view: the windows open on each day ("yyyy-MM-dd"), shown as a tint. */
   windowDays: Map<string, string[]>;
   view: PlannerView;
+  /** How many days the agenda lists. */
+  agendaDays: number;
   date: Date;
   canPlan: boolean;
   height: number;
@@ -194,7 +197,7 @@ export function PlannerCalendar({
         resizableAccessor={(event) => event.kind === 'visit' && !event.pending && isMovable(event.visit, canPlan)}
         onEventDrop={onMoveVisit}
         onEventResize={onMoveVisit}
-        length={30}
+        length={agendaDays}
         messages={{ noEventsInRange: 'No visits or shutdown windows in this range.', showMore: (n) => `+${n} more` }}
       />
     </div>

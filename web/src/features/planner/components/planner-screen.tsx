@@ -15,6 +15,7 @@ import { plannerWindowKeys, useWindowsInRange } from '../api/shutdown-windows';
 import { useVisits, visitKeys } from '../api/visits';
 import { useWindowWidth } from '../hooks/use-window-width';
 import {
+  agendaLengthDays,
   calendarLayers,
   defaultView,
   viewRange,
@@ -82,7 +83,8 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
 
   const view: PlannerView = params.view ?? defaultView(width);
   const date = params.dateOn ? calendarDateOf(params.dateOn) : toCalendarDate(new Date(), timeZone);
-  const range = viewRange(view, date, timeZone);
+  const agendaDays = agendaLengthDays(width);
+  const range = viewRange(view, date, timeZone, agendaDays);
   const filters = { siteId: params.siteId || undefined, areaId: params.areaId || undefined };
   const visits = useVisits({ ...range, ...filters, states: params.showCancelled ? undefined : SHOWN_STATES });
   const windows = useWindowsInRange({ ...range, ...filters });
@@ -217,6 +219,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           backgroundEvents={layers.backgroundEvents}
           windowDays={windowDays}
           view={view}
+          agendaDays={agendaDays}
           date={date}
           canPlan={can.plan}
           height={calendarHeight}

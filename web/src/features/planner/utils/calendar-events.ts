@@ -11,8 +11,10 @@ import { fromCalendarDate, toCalendarDate } from './zoned-time';
 export type PlannerView = 'month' | 'week' | 'day' | 'agenda';
 export const PLANNER_VIEWS: readonly PlannerView[] = ['month', 'week', 'day', 'agenda'];
 
-/** How long the agenda runs from its date, in days (react-big-calendar's default). */
-export const AGENDA_LENGTH_DAYS = 30;
+/** How long the agenda runs from its date, in days: a month on a wide screen, a week on a phone. */
+export function agendaLengthDays(widthPx: number): number {
+  return widthPx < 640 ? 7 : 30;
+}
 
 /** Weeks start on Monday, as in most of the plants Ebbline serves. */
 export const WEEK_STARTS_ON = 1 as const;
@@ -135,7 +137,7 @@ export function windowTitlesByDay(windows: readonly WindowEvent[]): Map<string, 
  * The instants a view shows (for the API's from/to), read in `timeZone`, with a day's margin
  * either side so nothing at an edge is missed.
  */
-export function viewRange(view: PlannerView, date: Date, timeZone: string): { from: string; to: string } {
+export function viewRange(view: PlannerView, date: Date, timeZone: string, agendaDays = 30): { from: string; to: string } {
   let start: Date;
   let end: Date;
   switch (view) {
@@ -153,7 +155,7 @@ export function viewRange(view: PlannerView, date: Date, timeZone: string): { fr
       break;
     case 'agenda':
       start = startOfDay(date);
-      end = addDays(start, AGENDA_LENGTH_DAYS + 1);
+      end = addDays(start, agendaDays + 1);
       break;
   }
   return { from: fromCalendarDate(addDays(startOfDay(start), -1), timeZone), to: fromCalendarDate(addDays(startOfDay(end), 1), timeZone) };
