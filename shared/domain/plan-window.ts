@@ -212,7 +212,7 @@ export function proposeWindowPlan(
       const needs = estimateVisitMinutes([bank], cabinet, options);
       // the technician free soonest (past any visit they already have), to say when they would finish
       let first = 0;
-      const freeFrom = technicians.map((_t, i) => firstFitMs(freeAtMs[i]!, 0, busy[i]!));
+      const freeFrom = technicians.map((_t, i) => firstFitMs(freeAtMs[i]!, 1 / MS_PER_MINUTE, busy[i]!));
       for (let i = 1; i < freeFrom.length; i += 1) if (freeFrom[i]! < freeFrom[first]!) first = i;
       const fromMs = freeFrom[first]! + (kept.length > 0 && soonest(keptMinutes)?.index === first ? keptMinutes * MS_PER_MINUTE : 0);
       const wouldEndMs = fromMs + needs * MS_PER_MINUTE;

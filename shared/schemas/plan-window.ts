@@ -91,10 +91,11 @@ export interface WindowProposal {
   /**
    * The technicians the visits were split across, in the order ties go to (by name): those
    * attached to the window's site (`site`), every technician when nobody is attached to it
-   * (`all`), or those the planner chose (`chosen`); the double-booked ones are not among them.
+   * (`all`), or those the planner chose (`chosen`). `busy` are the visits each already has
+   * during the occurrence: the proposal plans around them, and so must an edit of its rows.
    */
-  technicians: { id: string; name: string }[];
+  technicians: { id: string; name: string; busy: { startsAt: string; endsAt: string; cabinetTag: string }[] }[];
   technicianPool: TechnicianPool;
-  /** Technicians of the pool left aside because they already have a visit during the occurrence. */
-  unavailableTechnicians: { id: string; name: string; reason: string }[];
+  /** Technicians who already have visits during the occurrence, each saying which (planned around). */
+  busyTechnicians: { id: string; name: string; reason: string }[];
 }

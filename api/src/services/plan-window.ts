@@ -8,7 +8,8 @@
  *   or under-way visit already covers (listed as left out);
  * - the technicians: active people holding the technician role attached to the window's site
  *   (person_sites), or every technician when nobody is attached to it, or those the planner
- *   chose; minus those with a planned or under-way visit during the occurrence (listed apart).
+ *   chose; their planned or under-way visits during the occurrence are planned around (a new
+ *   visit never double-books anyone), and listed.
  * The split itself is the pure rule of shared/domain/plan-window.ts.
  */
 import { TZDate } from '@date-fns/tz';
@@ -215,30 +216,33 @@ export async function proposeWindowVisits(windowId: string, request: WindowPropo
     cabinets.set(b.cabinet_id, cabinet);
   }
 
-  // the technicians free for the whole occurrence, by name
+  // the technicians by name, with the visits they already have during the occurrence
   const { pool, kind } = await technicianPool(window.site_id, request.technicianIds);
   const busy = await busyDuring(
     pool.map((p) => p.id),
     occurrence.startsAt,
     occurrence.endsAt,
   );
-  const firstBusy = new Map<string, BusyRow>();
-  for (const row of busy) if (!firstBusy.has(row.user_id)) firstBusy.set(row.user_id, row);
   const ordered = [...pool].sort((a, b) => byText(a.name, b.name) || byText(a.id, b.id));
-  const available = ordered.filter((p) => !firstBusy.has(p.id)).map((p) => ({ id: p.id, name: p.name }));
-  const unavailableTechnicians = ordered
-    .filter((p) => firstBusy.has(p.id))
-    .map((p) => {
-      const row = firstBusy.get(p.id)!;
-      return {
-        id: p.id,
-        name: p.name,
-        reason: `Already has a visit to ${row.cabinet_tag} from ${localDateTime(row.planned_start_at, timeZone)} to ${localTime(row.planned_end_at, timeZone)} (${timeZone}) during this window.`,
-      };
-    });
-  const names = new Map(available.map((t) => [t.id, t.name]));
+  const technicians = ordered.map((p) => ({
+    id: p.id,
+    name: p.name,
+    busy: busy
+      .filter((row) => row.user_id === p.id)
+      .map((row) => ({ startsAt: row.planned_start_at.toISOString(), endsAt: row.planned_end_at.toISOString(), cabinetTag: row.cabinet_tag })),
+  }));
+  const busyTechnicians = technicians
+    .filter((t) => t.busy.length > 0)
+    .map((t) => ({
+      id: t.id,
+      name: t.name,
+      reason: `Already has ${t.busy
+        .map((b) => `${b.cabinetTag} ${localTime(new Date(b.startsAt), timeZone)}–${localTime(new Date(b.endsAt), timeZone)}`)
+        .join(', ')} (${timeZone}) during this window: planned around.`,
+    }));
+  const names = new Map(technicians.map((t) => [t.id, t.name]));
 
-  const plan = proposeWindowPlan({ occurrence: { ...occurrence, timeZone }, cabinets: [...cabinets.values()], technicians: available });
+  const plan = proposeWindowPlan({ occurrence: { ...occurrence, timeZone }, cabinets: [...cabinets.values()], technicians });
   return {
     window: {
       id: window.id,
@@ -272,8 +276,8 @@ export async function proposeWindowVisits(windowId: string, request: WindowPropo
       estimatedMinutes: v.estimatedMinutes,
     })),
     leftOut: [...plan.leftOut.map((b) => ({ ...b, dueOn: dueOn(b.bankId) })), ...alreadyPlanned],
-    technicians: available,
+    technicians,
     technicianPool: kind,
-    unavailableTechnicians,
+    busyTechnicians,
   };
 }

@@ -32,14 +32,16 @@ import { insertVisit, insertWindow, makeBankWithTau, makePerson, visitRowCounts 
  *   DR-107   DC1 overdue, but already in a planned visit on Sat 6 Feb 2027 06:00: left out, saying so.
  *   DR-900   in another area (Paint shop): not this window's.
  *
- * Technicians (technician role): Ana Brandt and Ben Okafor work at Elbe Works; Dmitri Falk
- * works there too but has a visit 06:30–07:30 local that day (double-booked: set aside);
- * Carla Diaz works at another site only. Pool = Ana, Ben (by name).
+ * Technicians (technician role): Ana Brandt, Ben Okafor and Dmitri Falk work at Elbe Works;
+ * Dmitri already has a visit 06:00–07:30 local that day (planned around: he is free 07:30–08:00);
+ * Carla Diaz works at another site only. Pool = Ana, Ben, Dmitri (by name; ties go in that order).
  *
- * Longest first onto the technician free soonest (both free at 06:00; ties go to Ana):
- *   DR-104 (70) → Ana 06:00–07:10 · DR-101 (60) → Ben 06:00–07:00 · DR-105 (50) → Ben 07:00–07:50
- *   DR-102 (45) → Ana 07:10–07:55 · DR-103 (35) → Ben is free soonest (07:50) with 10 min left:
- *   it would end at 08:25, after 08:00: left out.
+ * Longest first onto the technician who can start it soonest, ending by 08:00:
+ *   DR-104 (70) → Ana 06:00–07:10 (Ben could too, Ana comes first; Dmitri from 07:30 would end 08:40)
+ *   DR-101 (60) → Ben 06:00–07:00 (Ana from 07:10 and Dmitri from 07:30 would pass 08:00)
+ *   DR-105 (50) → Ben 07:00–07:50 (Ana could start 07:10, later; Dmitri would end 08:20)
+ *   DR-102 (45) → Ana 07:10–07:55 (Ben from 07:50 and Dmitri from 07:30 would pass 08:00)
+ *   DR-103 (35) → nobody: Dmitri is free soonest (07:30) and would end at 08:05: left out.
  * In UTC: DR-104 05:00–06:10, DR-101 05:00–06:00, DR-105 06:00–06:50, DR-102 06:10–06:55.
  */
 const app = createApp();
@@ -109,7 +111,7 @@ beforeAll(async () => {
     cabinetId: elsewhere.id,
     bankIds: [bankIds['DR-900 DC1']!],
     technicianIds: [dmitri.id],
-    startsAt: '2027-01-09T05:30:00Z',
+    startsAt: '2027-01-09T05:00:00Z',
     endsAt: '2027-01-09T06:30:00Z',
   });
   await insertVisit({
@@ -168,7 +170,7 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
         position: 'DC1',
         dueOn: '2021-01-14',
         kind: 'past-window-end',
-        reason: 'Needs about 35 min; Ben Okafor, free soonest (from 07:50), would finish at 08:25, after the window ends at 08:00 (Europe/Berlin).',
+        reason: 'Needs about 35 min; Dmitri Falk, free soonest (from 07:30), would finish at 08:05, after the window ends at 08:00 (Europe/Berlin).',
       },
       {
         bankId: bankIds['DR-107 DC1'],
@@ -185,19 +187,16 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
     expect(mentioned).not.toContain(bankIds['DR-900 DC1']);
   });
 
-  it('when a technician of the site is busy during the occurrence, then they are set aside with the reason; one of another site is not offered', async () => {
+  it('when a technician of the site already has a visit during the occurrence, then it is planned around and said; one of another site is not offered', async () => {
     const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
     expect(proposal.technicianPool).toBe('site');
     expect(proposal.technicians).toEqual([
-      { id: ana.id, name: 'Ana Brandt' },
-      { id: ben.id, name: 'Ben Okafor' },
+      { id: ana.id, name: 'Ana Brandt', busy: [] },
+      { id: ben.id, name: 'Ben Okafor', busy: [] },
+      { id: dmitri.id, name: 'Dmitri Falk', busy: [{ startsAt: '2027-01-09T05:00:00.000Z', endsAt: '2027-01-09T06:30:00.000Z', cabinetTag: 'DR-900' }] },
     ]);
-    expect(proposal.unavailableTechnicians).toEqual([
-      {
-        id: dmitri.id,
-        name: 'Dmitri Falk',
-        reason: 'Already has a visit to DR-900 from Sat 9 Jan 2027, 06:30 to 07:30 (Europe/Berlin) during this window.',
-      },
+    expect(proposal.busyTechnicians).toEqual([
+      { id: dmitri.id, name: 'Dmitri Falk', reason: 'Already has DR-900 06:00–07:30 (Europe/Berlin) during this window: planned around.' },
     ]);
   });
 
@@ -227,8 +226,7 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
     const proposal = (await propose(id, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
     expect(proposal.technicianPool).toBe('all');
     const offered = proposal.technicians.map((t) => t.name);
-    expect(offered).toEqual(expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz']));
-    expect(offered).not.toContain('Dmitri Falk');
+    expect(offered).toEqual(expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz', 'Dmitri Falk']));
     expect(offered).not.toContain('Erik Planner');
     expect(proposal.visits).toEqual([]);
   });
@@ -303,9 +301,9 @@ describe('confirming a proposal through POST /api/visits/batch', () => {
     });
 
     const again = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
-    // Ana and Ben are now busy in this occurrence; the six banks are planned
-    expect(again.technicians).toEqual([]);
-    expect(again.unavailableTechnicians.map((t) => t.name)).toEqual(['Ana Brandt', 'Ben Okafor', 'Dmitri Falk']);
+    // Ana and Ben now have their visits in this occurrence; nobody has 35 min left for DR-103
+    expect(again.busyTechnicians.map((t) => t.name)).toEqual(['Ana Brandt', 'Ben Okafor', 'Dmitri Falk']);
+    expect(again.visits).toEqual([]);
     expect(again.leftOut.filter((b) => b.kind === 'already-planned').map((b) => `${b.cabinetTag} ${b.position}`)).toEqual([
       'DR-101 DC1',
       'DR-101 DC2',

@@ -198,6 +198,18 @@ describe('proposeWindowPlan around visits the technicians already have', () => {
     expect([long.visits[0]!.plannedStartAt, long.visits[0]!.plannedEndAt]).toEqual(['2027-01-09T06:00:00.000Z', '2027-01-09T06:45:00.000Z']);
   });
 
+  it('when the technician free soonest is free only after a visit they have, then the reason counts from its end', () => {
+    // Ana is busy 06:00–07:40 local: free from 07:40, the 30 min bank would end 08:10
+    const plan = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-F', 5, 120, ['DC1'])],
+      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T06:40:00Z' }] }],
+    });
+    expect(plan.leftOut.map((b) => b.reason)).toEqual([
+      'Needs about 30 min; Ana Brandt, free soonest (from 07:40), would finish at 08:10, after the window ends at 08:00 (Europe/Berlin).',
+    ]);
+  });
+
   it('when nobody has the time free between their visits, then the bank is left out saying so', () => {
     // Ana is busy 06:20–08:00 local: 20 min free, the bank needs 30
     const plan = proposeWindowPlan({

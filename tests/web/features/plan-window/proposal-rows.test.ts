@@ -26,8 +26,8 @@ const window = {
   startsAt: '2027-01-09T05:00:00.000Z',
   endsAt: '2027-01-09T07:00:00.000Z',
 };
-const ana = { id: 't-ana', name: 'Ana Brandt' };
-const ben = { id: 't-ben', name: 'Ben Okafor' };
+const ana = { id: 't-ana', name: 'Ana Brandt', busy: [] };
+const ben = { id: 't-ben', name: 'Ben Okafor', busy: [] };
 const visit = (tag: string, technician: { id: string; name: string }, startsAt: string, endsAt: string, minutes: number) => ({
   cabinetId: `c-${tag}`,
   cabinetTag: tag,
@@ -53,7 +53,7 @@ const proposal: WindowProposal = {
   leftOut: [],
   technicians: [ana, ben],
   technicianPool: 'site',
-  unavailableTechnicians: [],
+  busyTechnicians: [],
 };
 
 describe('the rows of a proposal', () => {
@@ -84,6 +84,14 @@ describe('the rows of a proposal', () => {
       ['Ana Brandt', ['DR-104', 'DR-102'], 115],
       ['Ben Okafor', ['DR-101', 'DR-105'], 110],
     ]);
+  });
+
+  it('when a row goes to a technician with a visit already planned, then it is laid out around that visit', () => {
+    const busyBen = { ...ben, busy: [{ startsAt: '2027-01-09T06:00:00.000Z', endsAt: '2027-01-09T06:10:00.000Z', cabinetTag: 'DR-7' }] };
+    // Ben: DR-101 05:00–06:00Z, then DR-105 (50) cannot start before his DR-7 ends at 06:10Z
+    const rows = layOutRows(rowsFromProposal(proposal), window, [ana, busyBen]);
+    const dr105 = rows.find((r) => r.visit.cabinetTag === 'DR-105')!;
+    expect([dr105.plannedStartAt, dr105.plannedEndAt, dr105.endsAfterWindow]).toEqual(['2027-01-09T06:10:00.000Z', '2027-01-09T07:00:00.000Z', false]);
   });
 
   it('when every row is removed, then nothing can be confirmed', () => {

@@ -206,7 +206,7 @@ function ProposalEditor({
   const confirm = useConfirmWindowPlan();
   const reasonId = useId();
 
-  const laidOut = useMemo(() => layOutRows(rows, occurrence), [rows, occurrence]);
+  const laidOut = useMemo(() => layOutRows(rows, occurrence, proposal.technicians), [rows, occurrence, proposal.technicians]);
   const groups = useMemo(() => rowsByTechnician(laidOut, proposal.technicians), [laidOut, proposal.technicians]);
   const windowMinutes = Math.round((Date.parse(occurrence.endsAt) - Date.parse(occurrence.startsAt)) / 60_000);
   const overrideReady = warnings.length === 0 || overrideReason.trim().length >= PLANNING_REASON_MIN_CHARS;
@@ -246,11 +246,11 @@ function ProposalEditor({
       {proposal.technicianPool === 'all' ? (
         <p className="text-sm text-tide-800">Nobody is attached to {occurrence.siteName}, so every technician free during the window is offered.</p>
       ) : null}
-      {proposal.unavailableTechnicians.length > 0 ? (
+      {proposal.busyTechnicians.length > 0 ? (
         <div className="text-sm text-tide-800">
-          <p className="font-medium text-tide-900">Not offered (busy during the window)</p>
+          <p className="font-medium text-tide-900">Visits already planned in this window (planned around)</p>
           <ul className="list-disc pl-5">
-            {proposal.unavailableTechnicians.map((t) => (
+            {proposal.busyTechnicians.map((t) => (
               <li key={t.id}>
                 {t.name}: {t.reason}
               </li>

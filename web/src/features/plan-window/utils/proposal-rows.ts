@@ -44,9 +44,16 @@ export function reassignRow(rows: readonly ProposalRow[], key: string, technicia
   return [...rows.filter((r) => r.key !== key), { ...row, technicianIds: [technicianId] }];
 }
 
-/** The rows laid out from the occurrence's start, each technician's one after another. */
-export function layOutRows(rows: readonly ProposalRow[], occurrence: { startsAt: string; endsAt: string }): LaidOutRow[] {
-  return packProposalRows(rows, occurrence);
+/**
+ * The rows laid out from the occurrence's start, each technician's one after another and
+ * around the visits they already have (`technicians[].busy` of the proposal).
+ */
+export function layOutRows(
+  rows: readonly ProposalRow[],
+  occurrence: { startsAt: string; endsAt: string },
+  technicians: ReadonlyArray<{ id: string; busy?: ReadonlyArray<{ startsAt: string; endsAt: string }> }> = [],
+): LaidOutRow[] {
+  return packProposalRows(rows, occurrence, Object.fromEntries(technicians.map((t) => [t.id, t.busy ?? []])));
 }
 
 /** One technician's part of the plan. */
