@@ -17,11 +17,12 @@ import { TZDate } from '@date-fns/tz';
 import * as rruleModule from 'rrule';
 
 // rrule ships an ES module for bundlers and a UMD file for Node: under Node the named exports
-// sit on the default export.
+// sit on the default export (read by a computed name, which bundlers leave alone).
+const NODE_DEFAULT_EXPORT = 'default';
 const rrule: typeof rruleModule =
   'RRule' in rruleModule && rruleModule.RRule
     ? rruleModule
-    : (rruleModule as unknown as { default: typeof rruleModule }).default;
+    : (rruleModule as unknown as Record<string, typeof rruleModule>)[NODE_DEFAULT_EXPORT]!;
 
 const MS_PER_DAY = 86_400_000;
 
