@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { VISIT_STATES } from '../../../../shared/domain/visit-states';
-import { isAssigned, nextActionFor } from '../../../../web/src/features/my-visits/utils/visit-actions';
+import { isAssigned, nextActionFor, othersVisits } from '../../../../web/src/features/my-visits/utils/visit-actions';
 import { visitJson } from './visit-json';
 
 const me = { id: 'tech-1', roles: ['technician'] as const };
@@ -26,5 +26,14 @@ describe('nextActionFor', () => {
 
   it('when an admin is listed on a visit but holds no technician role, then they may not start it', () => {
     expect(nextActionFor(visitJson({ state: 'planned' }), { id: 'tech-1', roles: ['admin'] })).toBeNull();
+  });
+});
+
+describe('othersVisits', () => {
+  it('when my visits and colleagues’ come together, then only the colleagues’ are left', () => {
+    const mine = visitJson({ technicians: [{ id: 'tech-1', name: 'Ines Falk' }] });
+    const shared = visitJson({ technicians: [{ id: 'tech-2', name: 'Kofi Mensah' }, { id: 'tech-1', name: 'Ines Falk' }] });
+    const theirs = visitJson({ technicians: [{ id: 'tech-2', name: 'Kofi Mensah' }] });
+    expect(othersVisits([mine, shared, theirs], me).map((v) => v.id)).toEqual([theirs.id]);
   });
 });

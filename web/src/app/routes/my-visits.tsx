@@ -5,13 +5,15 @@ import { MyVisitPage } from '../../features/my-visits/components/my-visit-page';
 import { MyVisitsList } from '../../features/my-visits/components/my-visits-list';
 
 function ListScreen() {
+  const me = useMe();
+  if (!me.data) return null;
   return (
     <div className="mx-auto max-w-5xl">
       <PageHeader
         title="My visits"
         lead="The visits assigned to you. Open one at the cabinet to see its banks, the cautions, and to start it."
       />
-      <MyVisitsList />
+      <MyVisitsList viewerId={me.data.id} />
     </div>
   );
 }

@@ -24,7 +24,8 @@ export function myVisitRange(now: Date): VisitRange {
 export const myVisitKeys = {
   all: ['my-visits'] as const,
   lists: () => [...myVisitKeys.all, 'list'] as const,
-  list: (range: VisitRange) => [...myVisitKeys.lists(), range] as const,
+  list: (range: VisitRange) => [...myVisitKeys.lists(), 'mine', range] as const,
+  atMySites: (range: VisitRange) => [...myVisitKeys.lists(), 'at-my-sites', range] as const,
   details: () => [...myVisitKeys.all, 'detail'] as const,
   detail: (visitId: string) => [...myVisitKeys.details(), visitId] as const,
   windows: (areaId: string, range: VisitRange) => [...myVisitKeys.all, 'windows', areaId, range] as const,
@@ -33,6 +34,15 @@ export const myVisitKeys = {
 /** The visits assigned to me whose planned times overlap the range, earliest first. */
 export async function getMyVisits(range: VisitRange): Promise<ListPage<Visit>> {
   const params = new URLSearchParams({ mine: 'true', ...range, sort: 'plannedStartAt', pageSize: '200' });
+  return apiFetch<ListPage<Visit>>(`/api/visits?${params}`);
+}
+
+/**
+ * Every visit I may read in the range: mine and those at my sites (the API keeps a technician
+ * to these).
+ */
+export async function getVisitsAtMySites(range: VisitRange): Promise<ListPage<Visit>> {
+  const params = new URLSearchParams({ ...range, sort: 'plannedStartAt', pageSize: '200' });
   return apiFetch<ListPage<Visit>>(`/api/visits?${params}`);
 }
 
@@ -49,6 +59,9 @@ export async function getAreaWindows(areaId: string, range: VisitRange): Promise
 export const myVisitsQueryOptions = (range: VisitRange) =>
   queryOptions({ queryKey: myVisitKeys.list(range), queryFn: () => getMyVisits(range) });
 
+export const visitsAtMySitesQueryOptions = (range: VisitRange) =>
+  queryOptions({ queryKey: myVisitKeys.atMySites(range), queryFn: () => getVisitsAtMySites(range) });
+
 export const visitQueryOptions = (visitId: string) =>
   queryOptions({ queryKey: myVisitKeys.detail(visitId), queryFn: () => getVisit(visitId) });
 
@@ -60,6 +73,9 @@ export const areaWindowsQueryOptions = (areaId: string, range: VisitRange) =>
   });
 
 export const useMyVisits = (range: VisitRange) => useQuery(myVisitsQueryOptions(range));
+
+export const useVisitsAtMySites = (range: VisitRange, enabled: boolean) =>
+  useQuery({ ...visitsAtMySitesQueryOptions(range), enabled });
 
 export const useVisit = (visitId: string) => useQuery(visitQueryOptions(visitId));
 

@@ -12,7 +12,16 @@ export function banksText(banks: Visit['banks']): string {
 }
 
 /** One visit in the list: the whole card opens it. */
-export function VisitCard({ visit, window }: { visit: Visit; window: VisitWindow | null | undefined }) {
+export function VisitCard({
+  visit,
+  window,
+  showTechnicians = false,
+}: {
+  visit: Visit;
+  window: VisitWindow | null | undefined;
+  /** Name the technicians (a colleague's visit at my site). */
+  showTechnicians?: boolean;
+}) {
   const done = visit.state === 'cancelled' || visit.state === 'logged' || visit.state === 'reviewed';
   return (
     <Link
@@ -44,6 +53,11 @@ export function VisitCard({ visit, window }: { visit: Visit; window: VisitWindow
       </p>
       <p className="text-sm text-tide-600">About {durationText(visit.estimatedMinutes)} on site</p>
       <WindowLine window={window} timeZone={visit.timeZone} />
+      {showTechnicians ? (
+        <p className="mt-1 text-sm text-tide-800">
+          <span className="text-tide-600">Technicians:</span> {visit.technicians.map((t) => t.name).join(', ')}
+        </p>
+      ) : null}
     </Link>
   );
 }

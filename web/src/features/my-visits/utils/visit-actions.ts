@@ -13,7 +13,7 @@ export interface Viewer {
 }
 
 /** True when the viewer is one of the visit's technicians. */
-export function isAssigned(visit: Pick<Visit, 'technicians'>, viewer: Viewer): boolean {
+export function isAssigned(visit: Pick<Visit, 'technicians'>, viewer: Pick<Viewer, 'id'>): boolean {
   return visit.technicians.some((t) => t.id === viewer.id);
 }
 
@@ -36,3 +36,8 @@ export const ACTION_BUTTON_TEXT: Record<MyVisitAction, string> = {
   start: 'Start visit',
   log: 'Mark as logged',
 };
+
+/** The visits of others at my sites: those of `visits` the viewer is not assigned to. */
+export function othersVisits<V extends Pick<Visit, 'technicians'>>(visits: readonly V[], viewer: Pick<Viewer, 'id'>): V[] {
+  return visits.filter((visit) => !visit.technicians.some((t) => t.id === viewer.id));
+}
