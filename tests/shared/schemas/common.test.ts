@@ -12,6 +12,7 @@ import {
   optionalText,
   requiredText,
 } from '../../../shared/schemas/common';
+import { shutdownWindowUpdateSchema } from '../../../shared/schemas/shutdown-window';
 import { siteUpdateSchema } from '../../../shared/schemas/site';
 import { spareUpdateSchema } from '../../../shared/schemas/spare';
 
@@ -105,6 +106,7 @@ describe('update schemas', () => {
     ['cabinet', cabinetUpdateSchema],
     ['bank', bankUpdateSchema],
     ['spare', spareUpdateSchema],
+    ['shutdown window', shutdownWindowUpdateSchema],
   ] as const)(
     'when a %s change names only its version, then it fills in no other field',
     (_name, schema) => {
