@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sequelize } from '../../../api/src/db/sequelize';
+import { listDueBanks } from '../../../api/src/services/due';
+import { dueListQuerySchema } from '../../../shared/schemas/due';
 import { seedDemo, type SeedSummary } from '../../../infra/seed/index';
 import { DEMO_AREA_NAMES } from '../../../infra/seed/register';
 import { localWallTimeOf, windowOccurrences } from '../../../shared/domain/shutdown-windows';
@@ -185,6 +187,28 @@ describe('the Planner’s demo', () => {
       [NOW.toISOString()],
     );
     expect(overdue!.n).toBeGreaterThan(50);
+  });
+
+  it('when the Due list is judged at the seed’s instant, then it has overdue banks, banks due this month or next quarter, banks inspected lately, planned ones and the missed one', async () => {
+    const due = await listDueBanks(dueListQuerySchema.parse({}), NOW);
+    expect(due.counts.overdue).toBeGreaterThan(50);
+    expect(due.counts['this-month'] + due.counts['next-quarter']).toBeGreaterThanOrEqual(
+      DEMO_AREA_NAMES.length,
+    );
+    expect(due.counts.later).toBeGreaterThanOrEqual(DEMO_AREA_NAMES.length);
+    const overdue = { items: [] as Awaited<ReturnType<typeof listDueBanks>>['items'] };
+    for (let page = 1; page <= Math.ceil(due.counts.overdue / 100); page += 1) {
+      const query = dueListQuerySchema.parse({
+        bucket: 'overdue',
+        pageSize: '100',
+        page: String(page),
+      });
+      overdue.items.push(...(await listDueBanks(query, NOW)).items);
+    }
+    expect(overdue.items).toHaveLength(due.counts.overdue);
+    expect(overdue.items.some((bank) => bank.plannedVisit !== null)).toBe(true);
+    expect(overdue.items.some((bank) => bank.plannedVisit === null)).toBe(true);
+    expect(overdue.items.filter((bank) => bank.missedVisit !== null).length).toBeGreaterThan(0);
   });
 
   it('when seeded, then every visit and window has its audit trail: planned by Tomas, started and logged by its technician, reviewed by Ines, missed by Ebbline itself', async () => {
