@@ -163,7 +163,7 @@ function IssuedAddress({ feed, onDone }: { feed: IssuedCalendarFeed; onDone: () 
       </p>
       <div className="mt-3 flex flex-wrap items-center gap-2">
         <code
-          className="min-w-0 flex-1 break-all rounded-lg bg-white px-3 py-2 font-mono text-sm text-tide-950 ring-1 ring-tide-200"
+          className="min-w-0 basis-full break-all rounded-lg bg-white px-3 py-2 font-mono text-sm text-tide-950 ring-1 ring-tide-200"
           data-testid="calendar-feed-url"
         >
           {feed.url}
