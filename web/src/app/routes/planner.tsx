@@ -1,6 +1,8 @@
 import { useMe } from '../../features/auth/api/get-me';
+import { PlanWindowDialog } from '../../features/plan-window/components/plan-window-dialog';
 import { PlannerScreen, type PlannerSlots } from '../../features/planner/components/planner-screen';
 import { ShutdownWindowDialog } from '../../features/shutdown-windows/components/shutdown-window-form';
+import { TechnicianLoadView } from '../../features/technician-load/components/technician-load-view';
 
 /**
  * The Planner composes the screens that plan: the calendar (features/planner) with the window
@@ -8,6 +10,12 @@ import { ShutdownWindowDialog } from '../../features/shutdown-windows/components
  */
 const slots: PlannerSlots = {
   newWindow: ({ siteId, areaId, onClose }) => <ShutdownWindowDialog siteId={siteId} areaId={areaId} onClose={onClose} />,
+  planWindow: ({ windowId, occurrenceStartsAt, siteId, areaId, onClose }) => (
+    <PlanWindowDialog windowId={windowId} occurrenceStartsAt={occurrenceStartsAt} siteId={siteId} areaId={areaId} onClose={onClose} />
+  ),
+  technicianLoad: ({ weekOn, onWeekChange, siteId, onVisitOpen }) => (
+    <TechnicianLoadView weekOn={weekOn} onWeekChange={onWeekChange} siteId={siteId} onVisitOpen={onVisitOpen} />
+  ),
 };
 
 export function Component() {

@@ -30,4 +30,4 @@ export const getWindowsInRange = (filters: WindowRangeFilters) =>
 export const windowRangeOptions = (filters: WindowRangeFilters) =>
   queryOptions({ queryKey: plannerWindowKeys.range(filters), queryFn: () => getWindowsInRange(filters), placeholderData: keepPreviousData });
 
-export const useWindowsInRange = (filters: WindowRangeFilters) => useQuery(windowRangeOptions(filters));
+export const useWindowsInRange = (filters: WindowRangeFilters, enabled = true) => useQuery({ ...windowRangeOptions(filters), enabled });

@@ -56,7 +56,7 @@ export const visitOptions = (visitId: string) => queryOptions({ queryKey: visitK
 export const visitCheckOptions = (body: VisitInput & { visitId?: string }) =>
   queryOptions({ queryKey: visitKeys.check(body), queryFn: () => checkVisit(body), staleTime: 0 });
 
-export const useVisits = (filters: VisitRangeFilters) => useQuery(visitListOptions(filters));
+export const useVisits = (filters: VisitRangeFilters, enabled = true) => useQuery({ ...visitListOptions(filters), enabled });
 export const useVisit = (visitId: string | null) => useQuery({ ...visitOptions(visitId ?? ''), enabled: visitId !== null });
 export const useVisitCheck = (body: (VisitInput & { visitId?: string }) | null) =>
   useQuery({ ...visitCheckOptions(body ?? ({} as VisitInput)), enabled: body !== null });

@@ -145,6 +145,7 @@ export function PlannerCalendar({
   onSelectSlot,
   onSelectEvent,
   onMoveVisit,
+  loading,
 }: {
   events: PlannerEvent[];
   backgroundEvents: WindowEvent[];
@@ -161,6 +162,8 @@ export function PlannerCalendar({
   onSelectSlot: (slot: SlotInfo) => void;
   onSelectEvent: (event: PlannerEvent) => void;
   onMoveVisit: (args: EventInteractionArgs<PlannerEvent>) => void;
+  /** While the first answer is awaited, the agenda says so instead of "nothing here". */
+  loading: boolean;
 }) {
   const components = useMemo(() => ({ toolbar: Toolbar, event: EventBox, agenda: { event: AgendaEvent } }), []);
   const scrollToTime = useMemo(() => new Date(1970, 0, 1, 6, 0), []);
@@ -198,7 +201,7 @@ export function PlannerCalendar({
         onEventDrop={onMoveVisit}
         onEventResize={onMoveVisit}
         length={agendaDays}
-        messages={{ noEventsInRange: 'No visits or shutdown windows in this range.', showMore: (n) => `+${n} more` }}
+        messages={{ noEventsInRange: loading ? 'Loading visits and shutdown windows…' : 'No visits or shutdown windows in this range.', showMore: (n) => `+${n} more` }}
       />
     </div>
   );

@@ -31,8 +31,7 @@ import { calendarDateOf, dateOnOf, readPlannerParams, writePlannerParams, type P
 import { describePlannerZone, plannerZone } from '../utils/planner-zone';
 import { slotTimes } from '../utils/visit-form';
 import { plannerPermissions } from '../utils/visit-rules';
-import { formatZonedRange, fromCalendarDate, toCalendarDate } from '../utils/zoned-time';
-import { Modal } from './modal';
+import { fromCalendarDate, toCalendarDate } from '../utils/zoned-time';
 import { MoveVisitDialog, type ProposedTimes } from './move-visit-dialog';
 import { PlannerCalendar } from './planner-calendar';
 import { PlannerLegend } from './planner-legend';
@@ -42,20 +41,22 @@ import { WindowPanel } from './window-panel';
 
 /** What the app hands the Planner from other screens (features do not import each other). */
 export interface PlannerSlots {
-  /** The dialog that proposes and confirms the visits of one window occurrence. */
-  planWindow?: (props: { windowId: string; occurrenceStartsAt: string; onClose: () => void }) => ReactNode;
+  /**
+   * The dialog that proposes and confirms the visits of one window occurrence: the one named, or
+   * one the planner picks there (of the filtered site and area).
+   */
+  planWindow?: (props: { windowId?: string; occurrenceStartsAt?: string; siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
   /** The dialog that adds a shutdown window. */
   newWindow?: (props: { siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
-  /** The technicians' week: hours planned against hours available. */
-  technicianLoad?: (props: { weekOn: string }) => ReactNode;
+  /** The technicians' week: hours planned against hours available; a visit opens in the Planner's panel. */
+  technicianLoad?: (props: { weekOn: string; onWeekChange: (weekOn: string) => void; siteId?: string; onVisitOpen: (visitId: string) => void }) => ReactNode;
 }
 
 type Dialog =
   | { kind: 'new-visit'; siteId: string; areaId: string; plannedStartAt: string; plannedEndAt: string }
-  | { kind: 'visit'; visit: Visit }
+  | { kind: 'visit'; visitId: string; listed?: Visit }
   | { kind: 'window'; event: WindowEvent }
-  | { kind: 'choose-window' }
-  | { kind: 'plan-window'; windowId: string; occurrenceStartsAt: string }
+  | { kind: 'plan-window'; windowId?: string; occurrenceStartsAt?: string }
   | { kind: 'new-window' };
 
 const SHOWN_STATES: VisitState[] = VISIT_STATES.filter((s) => s !== 'cancelled');
@@ -86,8 +87,10 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
   const agendaDays = agendaLengthDays(width);
   const range = viewRange(view, date, timeZone, agendaDays);
   const filters = { siteId: params.siteId || undefined, areaId: params.areaId || undefined };
-  const visits = useVisits({ ...range, ...filters, states: params.showCancelled ? undefined : SHOWN_STATES });
-  const windows = useWindowsInRange({ ...range, ...filters });
+  // the shown zone comes from the sites: wait for them rather than ask twice
+  const zoneKnown = !sites.isPending;
+  const visits = useVisits({ ...range, ...filters, states: params.showCancelled ? undefined : SHOWN_STATES }, zoneKnown);
+  const windows = useWindowsInRange({ ...range, ...filters }, zoneKnown);
 
   const [dialog, setDialog] = useState<Dialog | null>(null);
   const [move, setMove] = useState<{ visit: Visit; proposed: ProposedTimes } | null>(null);
@@ -157,14 +160,14 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
               Plan a visit
             </Button>
           ) : null}
-          {can.plan && slots.planWindow ? <Button onClick={() => setDialog({ kind: 'choose-window' })}>Plan a window</Button> : null}
+          {can.plan && slots.planWindow ? <Button onClick={() => setDialog({ kind: 'plan-window' })}>Plan a window</Button> : null}
           {can.plan && slots.newWindow ? <Button onClick={() => setDialog({ kind: 'new-window' })}>New shutdown window</Button> : null}
           <ButtonLink to="/planner/due">Due list</ButtonLink>
         </div>
       </header>
 
-      <section aria-label="Filters" className="flex flex-wrap items-end gap-3">
-        <label className="block w-full text-sm font-medium text-tide-900 sm:w-56">
+      <section aria-label="Filters" className="grid grid-cols-2 items-end gap-3 sm:flex sm:flex-wrap">
+        <label className="block min-w-0 text-sm font-medium text-tide-900 sm:w-56">
           Site
           <Select className="mt-1" value={params.siteId} onChange={(e) => setParams({ siteId: e.target.value, areaId: '' })}>
             <option value="">Every site</option>
@@ -175,7 +178,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
             ))}
           </Select>
         </label>
-        <label className="block w-full text-sm font-medium text-tide-900 sm:w-56">
+        <label className="block min-w-0 text-sm font-medium text-tide-900 sm:w-56">
           Area
           <Select className="mt-1" value={params.areaId} disabled={!params.siteId} onChange={(e) => setParams({ areaId: e.target.value })}>
             <option value="">{params.siteId ? 'Every area' : 'Choose a site first'}</option>
@@ -186,7 +189,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
             ))}
           </Select>
         </label>
-        <label className="flex min-h-10 items-center gap-2 text-sm text-tide-900">
+        <label className="col-span-2 flex min-h-10 items-center gap-2 text-sm text-tide-900">
           <input
             type="checkbox"
             className="size-4 accent-tide-800"
@@ -198,7 +201,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
       </section>
 
       <p role="note" aria-label="Time zone" className="rounded-lg bg-white px-3 py-2 text-sm text-tide-800 ring-1 ring-tide-100">
-        {describePlannerZone(zone, siteName)}
+        {zoneKnown ? describePlannerZone(zone, siteName) : 'Finding the sites’ time zones…'}
       </p>
       <PlannerLegend monthTint={view === 'month'} />
 
@@ -226,8 +229,9 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           onView={(v) => setParams({ view: v })}
           onNavigate={(d) => setParams({ dateOn: dateOnOf(d) })}
           onSelectSlot={onSelectSlot}
-          onSelectEvent={(event) => setDialog(event.kind === 'visit' ? { kind: 'visit', visit: event.visit } : { kind: 'window', event })}
+          onSelectEvent={(event) => setDialog(event.kind === 'visit' ? { kind: 'visit', visitId: event.visit.id, listed: event.visit } : { kind: 'window', event })}
           onMoveVisit={onMoveVisit}
+          loading={visits.isPending || windows.isPending}
         />
       </div>
       <div className="flex flex-wrap items-center gap-x-3 text-sm text-tide-600" aria-live="polite">
@@ -250,7 +254,12 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           <h2 id="planner-load-title" className="text-lg font-bold text-tide-900">
             Technicians this week
           </h2>
-          {slots.technicianLoad({ weekOn })}
+          {slots.technicianLoad({
+            weekOn,
+            onWeekChange: (week) => setParams({ dateOn: week }),
+            siteId: params.siteId || undefined,
+            onVisitOpen: (visitId) => setDialog({ kind: 'visit', visitId }),
+          })}
         </section>
       ) : null}
 
@@ -262,7 +271,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           onClose={() => setDialog(null)}
         />
       ) : null}
-      {dialog?.kind === 'visit' ? <VisitPanel listed={dialog.visit} can={can} onClose={() => setDialog(null)} /> : null}
+      {dialog?.kind === 'visit' ? <VisitPanel visitId={dialog.visitId} listed={dialog.listed} can={can} onClose={() => setDialog(null)} /> : null}
       {dialog?.kind === 'window' ? (
         <WindowPanel
           event={dialog.event}
@@ -286,61 +295,18 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           }}
         />
       ) : null}
-      {dialog?.kind === 'choose-window' ? (
-        <ChooseWindowDialog
-          windows={occurrenceEvents}
-          onClose={() => setDialog(null)}
-          onChoose={(event) => setDialog({ kind: 'plan-window', windowId: event.window.id, occurrenceStartsAt: event.occurrence.startsAt })}
-        />
-      ) : null}
       {dialog?.kind === 'plan-window' && slots.planWindow
-        ? slots.planWindow({ windowId: dialog.windowId, occurrenceStartsAt: dialog.occurrenceStartsAt, onClose: closeAndRefresh })
+        ? slots.planWindow({
+            windowId: dialog.windowId,
+            occurrenceStartsAt: dialog.occurrenceStartsAt,
+            siteId: params.siteId || undefined,
+            areaId: params.areaId || undefined,
+            onClose: closeAndRefresh,
+          })
         : null}
       {dialog?.kind === 'new-window' && slots.newWindow
         ? slots.newWindow({ siteId: params.siteId || undefined, areaId: params.areaId || undefined, onClose: closeAndRefresh })
         : null}
     </div>
-  );
-}
-
-/** The window occurrences of the shown range, to pick one to plan. */
-function ChooseWindowDialog({
-  windows,
-  onChoose,
-  onClose,
-}: {
-  windows: WindowEvent[];
-  onChoose: (event: WindowEvent) => void;
-  onClose: () => void;
-}) {
-  const sorted = [...windows].sort((a, b) => a.occurrence.startsAt.localeCompare(b.occurrence.startsAt));
-  return (
-    <Modal title="Plan a window" onClose={onClose}>
-      {sorted.length === 0 ? (
-        <p className="text-sm text-tide-800">
-          No shutdown window falls in the range the calendar shows. Move the calendar to the weeks you plan, or add a window first.
-        </p>
-      ) : (
-        <>
-          <p className="mb-3 text-sm text-tide-800">Choose the shutdown to fill: Ebbline proposes a visit for every bank due by its end.</p>
-          <ul className="divide-y divide-tide-100">
-            {sorted.map((event) => (
-              <li key={event.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
-                <div className="min-w-0">
-                  <p className="font-medium text-tide-900">{event.window.title}</p>
-                  <p className="text-sm text-tide-600">
-                    {event.window.siteName} · {event.window.areaName} ·{' '}
-                    {formatZonedRange(event.occurrence.startsAt, event.occurrence.endsAt, event.window.timeZone)}
-                  </p>
-                </div>
-                <Button size="sm" variant="primary" onClick={() => onChoose(event)} aria-label={`Plan ${event.window.title}, ${formatZonedRange(event.occurrence.startsAt, event.occurrence.endsAt, event.window.timeZone)}`}>
-                  Plan this window
-                </Button>
-              </li>
-            ))}
-          </ul>
-        </>
-      )}
-    </Modal>
   );
 }

@@ -38,9 +38,31 @@ export function VisitStateBadge({ state }: { state: Visit['state'] }) {
  * A visit's details with what the person may do to it: cancel (with a reason), review a logged
  * visit, and reassign its technicians (a replan: reason and warnings as for a move).
  */
-export function VisitPanel({ listed, can, onClose }: { listed: Visit; can: PlannerPermissions; onClose: () => void }) {
-  const detail = useVisit(listed.id);
+export function VisitPanel({
+  visitId,
+  listed,
+  can,
+  onClose,
+}: {
+  visitId: string;
+  /** The visit as the calendar listed it, shown until the fresh one arrives. */
+  listed?: Visit;
+  can: PlannerPermissions;
+  onClose: () => void;
+}) {
+  const detail = useVisit(visitId);
   const visit = detail.data ?? listed;
+  if (!visit) {
+    return (
+      <Modal title="Visit" onClose={onClose}>
+        {detail.isError ? <p className="text-sm font-medium text-eol-600">The visit could not be loaded: {detail.error.message}</p> : <Spinner label="Loading the visit" />}
+      </Modal>
+    );
+  }
+  return <VisitDetails visit={visit} loading={detail.isFetching && !detail.data} can={can} onClose={onClose} />;
+}
+
+function VisitDetails({ visit, loading, can, onClose }: { visit: Visit; loading: boolean; can: PlannerPermissions; onClose: () => void }) {
   const actions = visitActions(visit, can);
   const [mode, setMode] = useState<'view' | 'cancel' | 'reassign'>('view');
   const review = useTransitionVisit();
@@ -64,7 +86,7 @@ export function VisitPanel({ listed, can, onClose }: { listed: Visit; can: Plann
           {visit.unplanned ? <Badge tone="muted">unplanned</Badge> : null}
           <span className="text-sm font-medium text-tide-900">{when}</span>
         </div>
-        {detail.isFetching && !detail.data ? <Spinner label="Loading the visit" /> : null}
+        {loading ? <Spinner label="Loading the visit" /> : null}
         <DetailList
           items={[
             {
