@@ -55,7 +55,11 @@ function busyMs(spans: readonly BusySpan[] | undefined): Array<[number, number]>
 }
 
 /** The first moment ≥ `fromMs` at which `minutes` fit without meeting a busy span. */
-function firstFitMs(fromMs: number, minutes: number, busy: ReadonlyArray<[number, number]>): number {
+function firstFitMs(
+  fromMs: number,
+  minutes: number,
+  busy: ReadonlyArray<[number, number]>,
+): number {
   let at = fromMs;
   const lengthMs = minutes * MS_PER_MINUTE;
   for (const [from, to] of busy) {
@@ -129,7 +133,8 @@ export interface WindowPlan {
 }
 
 /** Compares texts as people sort tags and positions: 'DC2' before 'DC10'. */
-const naturalOrder = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
+const naturalOrder = (a: string, b: string) =>
+  a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
 
 /** "07:50" on the site's clock. */
 function clockTime(ms: number, timeZone: string): string {
@@ -155,7 +160,11 @@ function clockTime(ms: number, timeZone: string): string {
  * //   plannedEndAt: '2027-01-09T05:30:00.000Z', estimatedMinutes: 30, ... }
  */
 export function proposeWindowPlan(
-  input: { occurrence: PlanOccurrence; cabinets: readonly PlanCabinet[]; technicians: readonly PlanTechnician[] },
+  input: {
+    occurrence: PlanOccurrence;
+    cabinets: readonly PlanCabinet[];
+    technicians: readonly PlanTechnician[];
+  },
   options: DurationOptions = {},
 ): WindowPlan {
   const { occurrence, technicians } = input;
@@ -169,7 +178,9 @@ export function proposeWindowPlan(
   const candidates = input.cabinets
     .filter((cabinet) => cabinet.banks.length > 0)
     .map((cabinet) => {
-      const banks = [...cabinet.banks].sort((a, b) => naturalOrder(a.position, b.position) || naturalOrder(a.bankId, b.bankId));
+      const banks = [...cabinet.banks].sort(
+        (a, b) => naturalOrder(a.position, b.position) || naturalOrder(a.bankId, b.bankId),
+      );
       return { cabinet, banks, minutes: estimateVisitMinutes(banks, cabinet, options) };
     })
     .sort(
@@ -182,7 +193,14 @@ export function proposeWindowPlan(
   const visits: Array<ProposedVisit & { technicianIndex: number }> = [];
   const leftOut: LeftOutBank[] = [];
   const leave = (cabinet: PlanCabinet, bank: PlanBank, kind: LeftOutKind, reason: string) =>
-    leftOut.push({ bankId: bank.bankId, cabinetId: cabinet.cabinetId, cabinetTag: cabinet.cabinetTag, position: bank.position, kind, reason });
+    leftOut.push({
+      bankId: bank.bankId,
+      cabinetId: cabinet.cabinetId,
+      cabinetTag: cabinet.cabinetTag,
+      position: bank.position,
+      kind,
+      reason,
+    });
 
   const freeAtMs = technicians.map(() => startMs);
   const busy = technicians.map((t) => busyMs(t.busy));
@@ -191,20 +209,28 @@ export function proposeWindowPlan(
     let best: { index: number; fromMs: number } | null = null;
     technicians.forEach((_t, index) => {
       const fromMs = firstFitMs(freeAtMs[index]!, minutes, busy[index]!);
-      if (fromMs + minutes * MS_PER_MINUTE <= endMs && (best === null || fromMs < best.fromMs)) best = { index, fromMs };
+      if (fromMs + minutes * MS_PER_MINUTE <= endMs && (best === null || fromMs < best.fromMs))
+        best = { index, fromMs };
     });
     return best;
   };
 
   for (const { cabinet, banks } of candidates) {
     if (technicians.length === 0) {
-      for (const bank of banks) leave(cabinet, bank, 'no-technician', 'No technician is available for this window at its site.');
+      for (const bank of banks)
+        leave(
+          cabinet,
+          bank,
+          'no-technician',
+          'No technician is available for this window at its site.',
+        );
       continue;
     }
     const kept: PlanBank[] = [];
     const dropped: PlanBank[] = [];
     for (const bank of banks) {
-      if (soonest(estimateVisitMinutes([...kept, bank], cabinet, options)) !== null) kept.push(bank);
+      if (soonest(estimateVisitMinutes([...kept, bank], cabinet, options)) !== null)
+        kept.push(bank);
       else dropped.push(bank);
     }
     const keptMinutes = estimateVisitMinutes(kept, cabinet, options);
@@ -212,9 +238,15 @@ export function proposeWindowPlan(
       const needs = estimateVisitMinutes([bank], cabinet, options);
       // the technician free soonest (past any visit they already have), to say when they would finish
       let first = 0;
-      const freeFrom = technicians.map((_t, i) => firstFitMs(freeAtMs[i]!, 1 / MS_PER_MINUTE, busy[i]!));
+      const freeFrom = technicians.map((_t, i) =>
+        firstFitMs(freeAtMs[i]!, 1 / MS_PER_MINUTE, busy[i]!),
+      );
       for (let i = 1; i < freeFrom.length; i += 1) if (freeFrom[i]! < freeFrom[first]!) first = i;
-      const fromMs = freeFrom[first]! + (kept.length > 0 && soonest(keptMinutes)?.index === first ? keptMinutes * MS_PER_MINUTE : 0);
+      const fromMs =
+        freeFrom[first]! +
+        (kept.length > 0 && soonest(keptMinutes)?.index === first
+          ? keptMinutes * MS_PER_MINUTE
+          : 0);
       const wouldEndMs = fromMs + needs * MS_PER_MINUTE;
       const reason =
         wouldEndMs > endMs && busy[first]!.every(([from, to]) => to <= fromMs || from >= wouldEndMs)
@@ -251,7 +283,11 @@ export function proposeWindowPlan(
     });
   }
 
-  visits.sort((a, b) => Date.parse(a.plannedStartAt) - Date.parse(b.plannedStartAt) || a.technicianIndex - b.technicianIndex);
+  visits.sort(
+    (a, b) =>
+      Date.parse(a.plannedStartAt) - Date.parse(b.plannedStartAt) ||
+      a.technicianIndex - b.technicianIndex,
+  );
   return { visits: visits.map(({ technicianIndex: _drop, ...visit }) => visit), leftOut };
 }
 
@@ -296,8 +332,14 @@ export function packProposalRows<R extends PackableRow>(
   const freeAtMs = new Map<string, number>();
   return rows.map((row) => {
     const minutes = Math.max(0, row.estimatedMinutes);
-    const busy = busyMs(row.technicianIds.flatMap((id) => busyOf[id] ?? [])).sort((a, b) => a[0] - b[0]);
-    const fromMs = firstFitMs(Math.max(startMs, ...row.technicianIds.map((id) => freeAtMs.get(id) ?? startMs)), minutes, busy);
+    const busy = busyMs(row.technicianIds.flatMap((id) => busyOf[id] ?? [])).sort(
+      (a, b) => a[0] - b[0],
+    );
+    const fromMs = firstFitMs(
+      Math.max(startMs, ...row.technicianIds.map((id) => freeAtMs.get(id) ?? startMs)),
+      minutes,
+      busy,
+    );
     const untilMs = fromMs + minutes * MS_PER_MINUTE;
     for (const id of row.technicianIds) freeAtMs.set(id, untilMs);
     return {

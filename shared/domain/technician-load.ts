@@ -68,6 +68,9 @@ export function plannedHoursWithin(
   visits: ReadonlyArray<{ plannedStartAt: string; plannedEndAt: string }>,
   week: { startsAt: string; endsAt: string },
 ): number {
-  const hours = visits.reduce((sum, v) => sum + hoursWithin(v.plannedStartAt, v.plannedEndAt, week.startsAt, week.endsAt), 0);
+  const hours = visits.reduce(
+    (sum, v) => sum + hoursWithin(v.plannedStartAt, v.plannedEndAt, week.startsAt, week.endsAt),
+    0,
+  );
   return Math.round(hours * 10) / 10;
 }

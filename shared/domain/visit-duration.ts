@@ -35,7 +35,9 @@ export interface DurationOptions {
  */
 export function plannedWaitMinutes(cabinet: CabinetDurationFacts): number {
   const marked = cabinet.markedWaitMinutes;
-  return marked !== null && Number.isFinite(marked) && marked >= 0 ? marked : UNKNOWN_MARKED_WAIT_MINUTES;
+  return marked !== null && Number.isFinite(marked) && marked >= 0
+    ? marked
+    : UNKNOWN_MARKED_WAIT_MINUTES;
 }
 
 /**
@@ -57,7 +59,9 @@ export function estimateBankMinutes(
 ): number {
   const tau = bank.baselineTauSeconds;
   if (!(tau > 0) || !Number.isFinite(tau)) {
-    throw new RangeError(`A bank's baseline τ must be a positive number of seconds, got ${String(tau)}.`);
+    throw new RangeError(
+      `A bank's baseline τ must be a positive number of seconds, got ${String(tau)}.`,
+    );
   }
   const setup = options.setupMinutes ?? BANK_SETUP_MINUTES;
   return setup + (CAPTURE_TIME_CONSTANTS * tau) / 60 + plannedWaitMinutes(cabinet);

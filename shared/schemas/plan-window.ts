@@ -94,7 +94,11 @@ export interface WindowProposal {
    * (`all`), or those the planner chose (`chosen`). `busy` are the visits each already has
    * during the occurrence: the proposal plans around them, and so must an edit of its rows.
    */
-  technicians: { id: string; name: string; busy: { startsAt: string; endsAt: string; cabinetTag: string }[] }[];
+  technicians: {
+    id: string;
+    name: string;
+    busy: { startsAt: string; endsAt: string; cabinetTag: string }[];
+  }[];
   technicianPool: TechnicianPool;
   /** Technicians who already have visits during the occurrence, each saying which (planned around). */
   busyTechnicians: { id: string; name: string; reason: string }[];

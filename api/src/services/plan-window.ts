@@ -80,7 +80,8 @@ function localTime(at: Date, timeZone: string): string {
   return format(new TZDate(at.getTime(), timeZone), 'HH:mm');
 }
 
-const byText = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
+const byText = (a: string, b: string) =>
+  a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
 
 async function windowOf(windowId: string): Promise<WindowRow> {
   const [row] = await sequelize.query<WindowRow>(
@@ -91,7 +92,11 @@ async function windowOf(windowId: string): Promise<WindowRow> {
     { replacements: { windowId }, type: QueryTypes.SELECT },
   );
   if (!row) throw AppError.notFound('Shutdown window');
-  if (row.retired_at) throw new AppError('retired', `The shutdown window ${row.title} is retired: it cannot be planned.`);
+  if (row.retired_at)
+    throw new AppError(
+      'retired',
+      `The shutdown window ${row.title} is retired: it cannot be planned.`,
+    );
   return row;
 }
 
@@ -115,18 +120,27 @@ async function technicianPool(
   chosenIds: readonly string[] | undefined,
 ): Promise<{ pool: PersonRow[]; kind: TechnicianPool }> {
   if (chosenIds) {
-    const people = await sequelize.query<PersonRow>('SELECT id, name, roles, active FROM users WHERE id IN (:ids)', {
-      replacements: { ids: [...chosenIds] },
-      type: QueryTypes.SELECT,
-    });
+    const people = await sequelize.query<PersonRow>(
+      'SELECT id, name, roles, active FROM users WHERE id IN (:ids)',
+      {
+        replacements: { ids: [...chosenIds] },
+        type: QueryTypes.SELECT,
+      },
+    );
     const byId = new Map(people.map((p) => [p.id, p]));
     const issues = chosenIds.flatMap((id, index) => {
       const person = byId.get(id);
       return person && person.active && person.roles.includes(VISIT_TECHNICIAN_ROLE)
         ? []
-        : [{ path: `technicianIds.${index}`, message: 'Choose an active person who holds the technician role.' }];
+        : [
+            {
+              path: `technicianIds.${index}`,
+              message: 'Choose an active person who holds the technician role.',
+            },
+          ];
     });
-    if (issues.length > 0) throw AppError.badRequest(`technicianIds: ${issues[0]!.message}`, issues);
+    if (issues.length > 0)
+      throw AppError.badRequest(`technicianIds: ${issues[0]!.message}`, issues);
     return { pool: chosenIds.map((id) => byId.get(id)!), kind: 'chosen' };
   }
   const technicians = await sequelize.query<PersonRow & { at_site: boolean }>(
@@ -140,7 +154,11 @@ async function technicianPool(
 }
 
 /** Visits of these people that overlap [startsAt, endsAt) and still hold them. */
-async function busyDuring(userIds: readonly string[], startsAt: string, endsAt: string): Promise<BusyRow[]> {
+async function busyDuring(
+  userIds: readonly string[],
+  startsAt: string,
+  endsAt: string,
+): Promise<BusyRow[]> {
   if (userIds.length === 0) return [];
   return sequelize.query<BusyRow>(
     `SELECT vt.user_id, c.tag AS cabinet_tag, v.planned_start_at, v.planned_end_at
@@ -148,7 +166,10 @@ async function busyDuring(userIds: readonly string[], startsAt: string, endsAt: 
       WHERE vt.user_id IN (:userIds) AND v.state IN (:planned)
         AND v.planned_start_at < :endsAt AND v.planned_end_at > :startsAt
       ORDER BY v.planned_start_at`,
-    { replacements: { userIds: [...userIds], planned: PLANNED_STATES, startsAt, endsAt }, type: QueryTypes.SELECT },
+    {
+      replacements: { userIds: [...userIds], planned: PLANNED_STATES, startsAt, endsAt },
+      type: QueryTypes.SELECT,
+    },
   );
 }
 
@@ -163,19 +184,29 @@ async function busyDuring(userIds: readonly string[], startsAt: string, endsAt: 
  * @throws AppError `not-found` (window), `retired` (window retired), `validation-failed` naming
  *   `occurrenceStartsAt` (no occurrence starts then) or `technicianIds.N` (not an active technician)
  */
-export async function proposeWindowVisits(windowId: string, request: WindowProposalRequest, asOf: Date): Promise<WindowProposal> {
+export async function proposeWindowVisits(
+  windowId: string,
+  request: WindowProposalRequest,
+  asOf: Date,
+): Promise<WindowProposal> {
   const window = await windowOf(windowId);
   const timeZone = window.time_zone;
   const fromMs = Date.parse(request.occurrenceStartsAt);
   const occurrence = windowOccurrences(
-    { startsAt: window.starts_at.toISOString(), endsAt: window.ends_at.toISOString(), recurrence: window.recurrence },
+    {
+      startsAt: window.starts_at.toISOString(),
+      endsAt: window.ends_at.toISOString(),
+      recurrence: window.recurrence,
+    },
     timeZone,
     new Date(fromMs).toISOString(),
     new Date(fromMs + 1).toISOString(),
   ).find((o) => Date.parse(o.startsAt) === fromMs);
   if (!occurrence) {
     const message = `${window.title} has no occurrence starting at ${localDateTime(new Date(fromMs), timeZone)} (${timeZone}). Choose one of its occurrences.`;
-    throw AppError.badRequest(`occurrenceStartsAt: ${message}`, [{ path: 'occurrenceStartsAt', message }]);
+    throw AppError.badRequest(`occurrenceStartsAt: ${message}`, [
+      { path: 'occurrenceStartsAt', message },
+    ]);
   }
   const dueBy = calendarDateInZone(occurrence.endsAt, timeZone);
 
@@ -212,7 +243,11 @@ export async function proposeWindowVisits(windowId: string, request: WindowPropo
       markedWaitMinutes: b.marked_wait_minutes,
       banks: [],
     };
-    cabinet.banks.push({ bankId: b.bank_id, position: b.position, baselineTauSeconds: Number(b.baseline_tau_seconds) });
+    cabinet.banks.push({
+      bankId: b.bank_id,
+      position: b.position,
+      baselineTauSeconds: Number(b.baseline_tau_seconds),
+    });
     cabinets.set(b.cabinet_id, cabinet);
   }
 
@@ -229,7 +264,11 @@ export async function proposeWindowVisits(windowId: string, request: WindowPropo
     name: p.name,
     busy: busy
       .filter((row) => row.user_id === p.id)
-      .map((row) => ({ startsAt: row.planned_start_at.toISOString(), endsAt: row.planned_end_at.toISOString(), cabinetTag: row.cabinet_tag })),
+      .map((row) => ({
+        startsAt: row.planned_start_at.toISOString(),
+        endsAt: row.planned_end_at.toISOString(),
+        cabinetTag: row.cabinet_tag,
+      })),
   }));
   const busyTechnicians = technicians
     .filter((t) => t.busy.length > 0)
@@ -237,12 +276,19 @@ export async function proposeWindowVisits(windowId: string, request: WindowPropo
       id: t.id,
       name: t.name,
       reason: `Already has ${t.busy
-        .map((b) => `${b.cabinetTag} ${localTime(new Date(b.startsAt), timeZone)}–${localTime(new Date(b.endsAt), timeZone)}`)
+        .map(
+          (b) =>
+            `${b.cabinetTag} ${localTime(new Date(b.startsAt), timeZone)}–${localTime(new Date(b.endsAt), timeZone)}`,
+        )
         .join(', ')} (${timeZone}) during this window: planned around.`,
     }));
   const names = new Map(technicians.map((t) => [t.id, t.name]));
 
-  const plan = proposeWindowPlan({ occurrence: { ...occurrence, timeZone }, cabinets: [...cabinets.values()], technicians });
+  const plan = proposeWindowPlan({
+    occurrence: { ...occurrence, timeZone },
+    cabinets: [...cabinets.values()],
+    technicians,
+  });
   return {
     window: {
       id: window.id,

@@ -7,7 +7,11 @@ import { QueryTypes } from 'sequelize';
 import { VISIT_TECHNICIAN_ROLE } from '../../../shared/constants/planning';
 import { hoursWithin, plannedHoursWithin, weekOf } from '../../../shared/domain/technician-load';
 import type { VisitState } from '../../../shared/domain/visit-states';
-import type { TechnicianLoadList, TechnicianLoadQuery, TechnicianLoadVisit } from '../../../shared/schemas/technician-load';
+import type {
+  TechnicianLoadList,
+  TechnicianLoadQuery,
+  TechnicianLoadVisit,
+} from '../../../shared/schemas/technician-load';
 import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 
@@ -35,7 +39,8 @@ interface LoadVisitRow {
   technician_ids: string[];
 }
 
-const byText = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
+const byText = (a: string, b: string) =>
+  a.localeCompare(b, 'en', { numeric: true, sensitivity: 'base' });
 
 /**
  * Each technician's week: hours planned and available, and the visits behind them, by name.
@@ -47,11 +52,17 @@ const byText = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: tru
 export async function listTechnicianLoad(query: TechnicianLoadQuery): Promise<TechnicianLoadList> {
   let timeZone = query.timeZone ?? 'UTC';
   if (query.siteId) {
-    const [site] = await sequelize.query<{ time_zone: string }>('SELECT time_zone FROM sites WHERE id = :id', {
-      replacements: { id: query.siteId },
-      type: QueryTypes.SELECT,
-    });
-    if (!site) throw AppError.badRequest('siteId: This site does not exist.', [{ path: 'siteId', message: 'This site does not exist.' }]);
+    const [site] = await sequelize.query<{ time_zone: string }>(
+      'SELECT time_zone FROM sites WHERE id = :id',
+      {
+        replacements: { id: query.siteId },
+        type: QueryTypes.SELECT,
+      },
+    );
+    if (!site)
+      throw AppError.badRequest('siteId: This site does not exist.', [
+        { path: 'siteId', message: 'This site does not exist.' },
+      ]);
     timeZone = site.time_zone;
   }
   const week = weekOf(query.weekOn, timeZone);
@@ -60,11 +71,24 @@ export async function listTechnicianLoad(query: TechnicianLoadQuery): Promise<Te
     `SELECT u.id, u.name, u.available_hours_per_week,
             EXISTS (SELECT 1 FROM person_sites ps WHERE ps.user_id = u.id AND ps.site_id = CAST(:siteId AS uuid)) AS at_site
        FROM users u WHERE u.active AND :role = ANY(u.roles)`,
-    { replacements: { siteId: query.siteId ?? null, role: VISIT_TECHNICIAN_ROLE }, type: QueryTypes.SELECT },
+    {
+      replacements: { siteId: query.siteId ?? null, role: VISIT_TECHNICIAN_ROLE },
+      type: QueryTypes.SELECT,
+    },
   );
   const atSite = everyone.filter((t) => t.at_site);
-  const technicians = (query.siteId && atSite.length > 0 ? atSite : everyone).sort((a, b) => byText(a.name, b.name) || byText(a.id, b.id));
-  if (technicians.length === 0) return { items: [], total: 0, weekStartOn: week.weekStartOn, weekStartsAt: week.startsAt, weekEndsAt: week.endsAt, timeZone };
+  const technicians = (query.siteId && atSite.length > 0 ? atSite : everyone).sort(
+    (a, b) => byText(a.name, b.name) || byText(a.id, b.id),
+  );
+  if (technicians.length === 0)
+    return {
+      items: [],
+      total: 0,
+      weekStartOn: week.weekStartOn,
+      weekStartsAt: week.startsAt,
+      weekEndsAt: week.endsAt,
+      timeZone,
+    };
 
   const visits = await sequelize.query<LoadVisitRow>(
     `SELECT v.id, v.cabinet_id, c.tag AS cabinet_tag, s.name AS site_name, a.name AS area_name, s.time_zone,
@@ -76,7 +100,12 @@ export async function listTechnicianLoad(query: TechnicianLoadQuery): Promise<Te
         AND EXISTS (SELECT 1 FROM visit_technicians vt WHERE vt.visit_id = v.id AND vt.user_id IN (:userIds))
       ORDER BY v.planned_start_at, c.tag, v.id`,
     {
-      replacements: { states: LOADING_STATES, startsAt: week.startsAt, endsAt: week.endsAt, userIds: technicians.map((t) => t.id) },
+      replacements: {
+        states: LOADING_STATES,
+        startsAt: week.startsAt,
+        endsAt: week.endsAt,
+        userIds: technicians.map((t) => t.id),
+      },
       type: QueryTypes.SELECT,
     },
   );
@@ -95,7 +124,9 @@ export async function listTechnicianLoad(query: TechnicianLoadQuery): Promise<Te
       state: v.state,
       version: v.version,
       technicianIds: v.technician_ids ?? [],
-      hoursInWeek: Math.round(hoursWithin(plannedStartAt, plannedEndAt, week.startsAt, week.endsAt) * 100) / 100,
+      hoursInWeek:
+        Math.round(hoursWithin(plannedStartAt, plannedEndAt, week.startsAt, week.endsAt) * 100) /
+        100,
     };
   });
 
@@ -109,5 +140,12 @@ export async function listTechnicianLoad(query: TechnicianLoadQuery): Promise<Te
       visits: own,
     };
   });
-  return { items, total: items.length, weekStartOn: week.weekStartOn, weekStartsAt: week.startsAt, weekEndsAt: week.endsAt, timeZone };
+  return {
+    items,
+    total: items.length,
+    weekStartOn: week.weekStartOn,
+    weekStartsAt: week.startsAt,
+    weekEndsAt: week.endsAt,
+    timeZone,
+  };
 }

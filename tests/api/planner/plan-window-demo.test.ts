@@ -25,36 +25,70 @@ describe('plan a window on the demo', () => {
     const now = Date.now();
     const from = new Date(now).toISOString();
     const to = new Date(now + 28 * 86_400_000).toISOString();
-    const list = await request(app).get(`/api/shutdown-windows?from=${from}&to=${to}&pageSize=200`).set('Authorization', auth);
+    const list = await request(app)
+      .get(`/api/shutdown-windows?from=${from}&to=${to}&pageSize=200`)
+      .set('Authorization', auth);
     expect(list.status).toBe(200);
     const occurrences = (list.body.items as ShutdownWindow[]).flatMap((w) =>
-      (w.occurrences ?? []).filter((o) => Date.parse(o.startsAt) > now).map((o) => ({ window: w, startsAt: o.startsAt })),
+      (w.occurrences ?? [])
+        .filter((o) => Date.parse(o.startsAt) > now)
+        .map((o) => ({ window: w, startsAt: o.startsAt })),
     );
     expect(occurrences.length).toBeGreaterThan(0);
 
     const proposals: WindowProposal[] = [];
     for (const { window, startsAt } of occurrences) {
-      const res = await request(app).post(`/api/shutdown-windows/${window.id}/proposal`).set('Authorization', auth).send({ occurrenceStartsAt: startsAt });
-      expect(res.status, `${window.title} ${startsAt}: ${JSON.stringify(res.body).slice(0, 300)}`).toBe(200);
+      const res = await request(app)
+        .post(`/api/shutdown-windows/${window.id}/proposal`)
+        .set('Authorization', auth)
+        .send({ occurrenceStartsAt: startsAt });
+      expect(
+        res.status,
+        `${window.title} ${startsAt}: ${JSON.stringify(res.body).slice(0, 300)}`,
+      ).toBe(200);
       const proposal = res.body as WindowProposal;
       for (const visit of proposal.visits) {
-        expect(Date.parse(visit.plannedStartAt)).toBeGreaterThanOrEqual(Date.parse(proposal.window.startsAt));
-        expect(Date.parse(visit.plannedEndAt)).toBeLessThanOrEqual(Date.parse(proposal.window.endsAt));
+        expect(Date.parse(visit.plannedStartAt)).toBeGreaterThanOrEqual(
+          Date.parse(proposal.window.startsAt),
+        );
+        expect(Date.parse(visit.plannedEndAt)).toBeLessThanOrEqual(
+          Date.parse(proposal.window.endsAt),
+        );
       }
       proposals.push(proposal);
     }
     const withVisits = proposals.find((p) => p.visits.length > 0);
     expect(withVisits, 'some coming occurrence has due banks and free technicians').toBeDefined();
-    const countVisits = async () => ((await sequelize.query('SELECT count(*)::int AS count FROM visits'))[0] as Array<{ count: number }>)[0]!.count;
+    const countVisits = async () =>
+      (
+        (await sequelize.query('SELECT count(*)::int AS count FROM visits'))[0] as Array<{
+          count: number;
+        }>
+      )[0]!.count;
     const before = await countVisits();
-    const visits = withVisits!.visits.map(({ cabinetId, bankIds, plannedStartAt, plannedEndAt, technicianIds, notes }) => ({
-      cabinetId, bankIds, plannedStartAt, plannedEndAt, technicianIds, notes,
-    }));
-    const res = await request(app).post('/api/visits/batch').set('Authorization', auth).send({ visits });
+    const visits = withVisits!.visits.map(
+      ({ cabinetId, bankIds, plannedStartAt, plannedEndAt, technicianIds, notes }) => ({
+        cabinetId,
+        bankIds,
+        plannedStartAt,
+        plannedEndAt,
+        technicianIds,
+        notes,
+      }),
+    );
+    const res = await request(app)
+      .post('/api/visits/batch')
+      .set('Authorization', auth)
+      .send({ visits });
     expect(res.status, JSON.stringify(res.body).slice(0, 600)).toBe(201);
     expect(await countVisits()).toBe(before + visits.length);
     console.log(
-      proposals.map((p) => `${p.window.title} ${p.window.startsAt}: ${p.visits.length} visits, ${p.leftOut.length} left out, ${p.technicians.length} technicians`).join('\n'),
+      proposals
+        .map(
+          (p) =>
+            `${p.window.title} ${p.window.startsAt}: ${p.visits.length} visits, ${p.leftOut.length} left out, ${p.technicians.length} technicians`,
+        )
+        .join('\n'),
     );
   }, 120_000);
 });

@@ -19,7 +19,9 @@ export async function makePerson(
   availableHoursPerWeek?: number,
 ): Promise<TestCaller & { id: string; name: string }> {
   const caller = await createCaller(roles, name.replace(/\s+/g, '-').toLowerCase());
-  await sequelize.query('UPDATE users SET name = :name WHERE id = :id', { replacements: { name, id: caller.user.id } });
+  await sequelize.query('UPDATE users SET name = :name WHERE id = :id', {
+    replacements: { name, id: caller.user.id },
+  });
   if (availableHoursPerWeek !== undefined) {
     await sequelize.query('UPDATE users SET available_hours_per_week = :hours WHERE id = :id', {
       replacements: { hours: availableHoursPerWeek, id: caller.user.id },
@@ -46,11 +48,21 @@ export async function makeBankWithTau(
   installedOn = '2020-01-15',
 ): Promise<string> {
   const bank = await withUnitOfWork(actor, (uow) =>
-    createBank(uow, { cabinetId, bankDesignId, position, serialNumber: '', installedOn, notes: '' }),
+    createBank(uow, {
+      cabinetId,
+      bankDesignId,
+      position,
+      serialNumber: '',
+      installedOn,
+      notes: '',
+    }),
   );
-  await sequelize.query(`UPDATE banks SET baseline_tau_seconds = :tau, baseline_source = 'manual' WHERE id = :id`, {
-    replacements: { tau: tauSeconds, id: bank.id },
-  });
+  await sequelize.query(
+    `UPDATE banks SET baseline_tau_seconds = :tau, baseline_source = 'manual' WHERE id = :id`,
+    {
+      replacements: { tau: tauSeconds, id: bank.id },
+    },
+  );
   return bank.id;
 }
 
@@ -67,7 +79,11 @@ export async function insertWindow(input: {
     `INSERT INTO shutdown_windows (area_id, title, starts_at, ends_at, recurrence, retired_at)
      VALUES (:areaId, :title, :startsAt, :endsAt, :recurrence, CASE WHEN :retired THEN now() END) RETURNING id`,
     {
-      replacements: { ...input, recurrence: input.recurrence ?? null, retired: input.retired ?? false },
+      replacements: {
+        ...input,
+        recurrence: input.recurrence ?? null,
+        retired: input.retired ?? false,
+      },
       type: QueryTypes.SELECT,
     },
   );
@@ -88,20 +104,30 @@ export async function insertVisit(input: {
     { replacements: { ...input, state: input.state ?? 'planned' }, type: QueryTypes.SELECT },
   );
   for (const bankId of input.bankIds) {
-    await sequelize.query('INSERT INTO visit_banks (visit_id, bank_id) VALUES (:visitId, :bankId)', {
-      replacements: { visitId: row!.id, bankId },
-    });
+    await sequelize.query(
+      'INSERT INTO visit_banks (visit_id, bank_id) VALUES (:visitId, :bankId)',
+      {
+        replacements: { visitId: row!.id, bankId },
+      },
+    );
   }
   for (const userId of input.technicianIds) {
-    await sequelize.query('INSERT INTO visit_technicians (visit_id, user_id) VALUES (:visitId, :userId)', {
-      replacements: { visitId: row!.id, userId },
-    });
+    await sequelize.query(
+      'INSERT INTO visit_technicians (visit_id, user_id) VALUES (:visitId, :userId)',
+      {
+        replacements: { visitId: row!.id, userId },
+      },
+    );
   }
   return row!.id;
 }
 
 /** Rows of the visits' tables, to show that a proposal stores nothing. */
-export async function visitRowCounts(): Promise<{ visits: number; banks: number; technicians: number }> {
+export async function visitRowCounts(): Promise<{
+  visits: number;
+  banks: number;
+  technicians: number;
+}> {
   const [row] = await sequelize.query<{ visits: number; banks: number; technicians: number }>(
     `SELECT (SELECT count(*)::int FROM visits) AS visits, (SELECT count(*)::int FROM visit_banks) AS banks,
             (SELECT count(*)::int FROM visit_technicians) AS technicians`,

@@ -9,7 +9,13 @@ import { createApp } from '../../../api/src/app';
 import type { WindowProposal } from '../../../shared/schemas/plan-window';
 import { assertCorpusHolds } from '../../support/hostile-bodies';
 import { createActor, makeArea, makeCabinet, makeDesign, makeSite } from '../../support/register';
-import { insertVisit, insertWindow, makeBankWithTau, makePerson, visitRowCounts } from './plan-window-fixtures';
+import {
+  insertVisit,
+  insertWindow,
+  makeBankWithTau,
+  makePerson,
+  visitRowCounts,
+} from './plan-window-fixtures';
 
 /*
  * The hand-computed case, seeded.
@@ -67,7 +73,9 @@ beforeAll(async () => {
     carla = await makePerson(['technician'], 'Carla Diaz', [other.id]);
   });
   await import('../../../api/src/db/sequelize').then(({ sequelize }) =>
-    sequelize.query(`UPDATE sites SET time_zone = 'Europe/Berlin' WHERE id = :id`, { replacements: { id: site.id } }),
+    sequelize.query(`UPDATE sites SET time_zone = 'Europe/Berlin' WHERE id = :id`, {
+      replacements: { id: site.id },
+    }),
   );
   const area = await makeArea(planner.actor, site.id, 'Press hall');
   areaId = area.id;
@@ -87,7 +95,14 @@ beforeAll(async () => {
     const cabinet = await makeCabinet(planner.actor, area.id, { tag, markedWaitMinutes });
     cabinetIds[tag] = cabinet.id;
     for (const position of positions) {
-      bankIds[`${tag} ${position}`] = await makeBankWithTau(planner.actor, cabinet.id, design.id, position, tau, installedOn);
+      bankIds[`${tag} ${position}`] = await makeBankWithTau(
+        planner.actor,
+        cabinet.id,
+        design.id,
+        position,
+        tau,
+        installedOn,
+      );
     }
   }
   const elsewhere = await makeCabinet(planner.actor, paint.id, { tag: 'DR-900' });
@@ -139,7 +154,13 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
     });
     expect(proposal.dueBy).toBe('2027-01-09');
     expect(
-      proposal.visits.map((v) => [v.cabinetTag, v.technicians.map((t) => t.name), v.plannedStartAt, v.plannedEndAt, v.estimatedMinutes]),
+      proposal.visits.map((v) => [
+        v.cabinetTag,
+        v.technicians.map((t) => t.name),
+        v.plannedStartAt,
+        v.plannedEndAt,
+        v.estimatedMinutes,
+      ]),
     ).toEqual([
       ['DR-104', ['Ana Brandt'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:10:00.000Z', 70],
       ['DR-101', ['Ben Okafor'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:00:00.000Z', 60],
@@ -154,14 +175,17 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
       markedWaitMinutes: 5,
       notes: 'Shutdown window: Saturday stop',
     });
-    expect(dr104.banks.map((b) => [b.position, b.baselineTauSeconds, b.estimatedMinutes, b.dueOn])).toEqual([
+    expect(
+      dr104.banks.map((b) => [b.position, b.baselineTauSeconds, b.estimatedMinutes, b.dueOn]),
+    ).toEqual([
       ['DC1', 180, 35, '2021-01-14'],
       ['DC2', 180, 35, '2021-01-14'],
     ]);
   });
 
   it('when the hand-computed case is proposed, then DR-103 is left out for the window’s end and DR-107 for its planned visit, each saying why', async () => {
-    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
+    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE }))
+      .body as WindowProposal;
     expect(proposal.leftOut).toEqual([
       {
         bankId: bankIds['DR-103 DC1'],
@@ -170,7 +194,8 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
         position: 'DC1',
         dueOn: '2021-01-14',
         kind: 'past-window-end',
-        reason: 'Needs about 35 min; Dmitri Falk, free soonest (from 07:30), would finish at 08:05, after the window ends at 08:00 (Europe/Berlin).',
+        reason:
+          'Needs about 35 min; Dmitri Falk, free soonest (from 07:30), would finish at 08:05, after the window ends at 08:00 (Europe/Berlin).',
       },
       {
         bankId: bankIds['DR-107 DC1'],
@@ -182,51 +207,90 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
         reason: 'Already in a planned visit on Sat 6 Feb 2027, 06:00 (Europe/Berlin).',
       },
     ]);
-    const mentioned = [...proposal.visits.flatMap((v) => v.bankIds), ...proposal.leftOut.map((b) => b.bankId)];
+    const mentioned = [
+      ...proposal.visits.flatMap((v) => v.bankIds),
+      ...proposal.leftOut.map((b) => b.bankId),
+    ];
     expect(mentioned).not.toContain(bankIds['DR-106 DC1']);
     expect(mentioned).not.toContain(bankIds['DR-900 DC1']);
   });
 
   it('when a technician of the site already has a visit during the occurrence, then it is planned around and said; one of another site is not offered', async () => {
-    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
+    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE }))
+      .body as WindowProposal;
     expect(proposal.technicianPool).toBe('site');
     expect(proposal.technicians).toEqual([
       { id: ana.id, name: 'Ana Brandt', busy: [] },
       { id: ben.id, name: 'Ben Okafor', busy: [] },
-      { id: dmitri.id, name: 'Dmitri Falk', busy: [{ startsAt: '2027-01-09T05:00:00.000Z', endsAt: '2027-01-09T06:30:00.000Z', cabinetTag: 'DR-900' }] },
+      {
+        id: dmitri.id,
+        name: 'Dmitri Falk',
+        busy: [
+          {
+            startsAt: '2027-01-09T05:00:00.000Z',
+            endsAt: '2027-01-09T06:30:00.000Z',
+            cabinetTag: 'DR-900',
+          },
+        ],
+      },
     ]);
     expect(proposal.busyTechnicians).toEqual([
-      { id: dmitri.id, name: 'Dmitri Falk', reason: 'Already has DR-900 06:00–07:30 (Europe/Berlin) during this window: planned around.' },
+      {
+        id: dmitri.id,
+        name: 'Dmitri Falk',
+        reason:
+          'Already has DR-900 06:00–07:30 (Europe/Berlin) during this window: planned around.',
+      },
     ]);
   });
 
   it('when the planner chooses the technicians, then the visits are split across them alone', async () => {
-    const res = await propose(windowId, { occurrenceStartsAt: OCCURRENCE, technicianIds: [carla.id] });
+    const res = await propose(windowId, {
+      occurrenceStartsAt: OCCURRENCE,
+      technicianIds: [carla.id],
+    });
     expect(res.status).toBe(200);
     const proposal = res.body as WindowProposal;
     expect(proposal.technicianPool).toBe('chosen');
     expect(new Set(proposal.visits.flatMap((v) => v.technicianIds))).toEqual(new Set([carla.id]));
     // one person, 120 min: DR-104 (70) 06:00–07:10, DR-101 (60) would pass 08:00: DC1 (30) fits to 07:40, DC2 is left out
-    expect(proposal.visits.map((v) => [v.cabinetTag, v.banks.map((b) => b.position), v.plannedEndAt])).toEqual([
+    expect(
+      proposal.visits.map((v) => [v.cabinetTag, v.banks.map((b) => b.position), v.plannedEndAt]),
+    ).toEqual([
       ['DR-104', ['DC1', 'DC2'], '2027-01-09T06:10:00.000Z'],
       ['DR-101', ['DC1'], '2027-01-09T06:40:00.000Z'],
     ]);
   });
 
   it('when a chosen person is not an active technician, then it answers 400 naming that entry', async () => {
-    const res = await propose(windowId, { occurrenceStartsAt: OCCURRENCE, technicianIds: [ana.id, planner.user.id] });
+    const res = await propose(windowId, {
+      occurrenceStartsAt: OCCURRENCE,
+      technicianIds: [ana.id, planner.user.id],
+    });
     expect(res.status).toBe(400);
-    expect(res.body.error.issues).toEqual([{ path: 'technicianIds.1', message: 'Choose an active person who holds the technician role.' }]);
+    expect(res.body.error.issues).toEqual([
+      {
+        path: 'technicianIds.1',
+        message: 'Choose an active person who holds the technician role.',
+      },
+    ]);
   });
 
   it('when nobody is attached to the window’s site, then every technician free during the occurrence is offered', async () => {
     const lonely = await makeSite(planner.actor, { name: 'Oder Works', code: 'ODR' });
     const hall = await makeArea(planner.actor, lonely.id, 'Hall 1');
-    const id = await insertWindow({ areaId: hall.id, title: 'One-off stop', startsAt: OCCURRENCE, endsAt: '2027-01-09T07:00:00Z' });
+    const id = await insertWindow({
+      areaId: hall.id,
+      title: 'One-off stop',
+      startsAt: OCCURRENCE,
+      endsAt: '2027-01-09T07:00:00Z',
+    });
     const proposal = (await propose(id, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
     expect(proposal.technicianPool).toBe('all');
     const offered = proposal.technicians.map((t) => t.name);
-    expect(offered).toEqual(expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz', 'Dmitri Falk']));
+    expect(offered).toEqual(
+      expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz', 'Dmitri Falk']),
+    );
     expect(offered).not.toContain('Erik Planner');
     expect(proposal.visits).toEqual([]);
   });
@@ -235,30 +299,49 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
     const res = await propose(windowId, { occurrenceStartsAt: '2027-01-09T06:00:00Z' });
     expect(res.status).toBe(400);
     expect(res.body.error.issues[0]).toMatchObject({ path: 'occurrenceStartsAt' });
-    expect(res.body.error.message).toContain('Saturday stop has no occurrence starting at Sat 9 Jan 2027, 07:00 (Europe/Berlin)');
+    expect(res.body.error.message).toContain(
+      'Saturday stop has no occurrence starting at Sat 9 Jan 2027, 07:00 (Europe/Berlin)',
+    );
     // after its 4 occurrences the window does not repeat
-    expect((await propose(windowId, { occurrenceStartsAt: '2027-01-30T05:00:00Z' })).status).toBe(400);
+    expect((await propose(windowId, { occurrenceStartsAt: '2027-01-30T05:00:00Z' })).status).toBe(
+      400,
+    );
   });
 
   it('when the body has no occurrence, then it answers 400 naming the field', async () => {
     const res = await propose(windowId, {});
     expect(res.status).toBe(400);
-    expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain('occurrenceStartsAt');
+    expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain(
+      'occurrenceStartsAt',
+    );
   });
 
   it('when the window does not exist or is retired, then 404 and 409', async () => {
-    expect((await propose('00000000-0000-4000-8000-000000000000', { occurrenceStartsAt: OCCURRENCE })).status).toBe(404);
+    expect(
+      (await propose('00000000-0000-4000-8000-000000000000', { occurrenceStartsAt: OCCURRENCE }))
+        .status,
+    ).toBe(404);
     expect((await propose('not-an-id', { occurrenceStartsAt: OCCURRENCE })).status).toBe(404);
-    const retired = await insertWindow({ areaId, title: 'Old stop', startsAt: OCCURRENCE, endsAt: '2027-01-09T07:00:00Z', retired: true });
+    const retired = await insertWindow({
+      areaId,
+      title: 'Old stop',
+      startsAt: OCCURRENCE,
+      endsAt: '2027-01-09T07:00:00Z',
+      retired: true,
+    });
     const res = await propose(retired, { occurrenceStartsAt: OCCURRENCE });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('retired');
   });
 
   it('when a technician or a reliability engineer asks, then 403', async () => {
-    expect((await propose(windowId, { occurrenceStartsAt: OCCURRENCE }, ana.auth)).status).toBe(403);
+    expect((await propose(windowId, { occurrenceStartsAt: OCCURRENCE }, ana.auth)).status).toBe(
+      403,
+    );
     const reliability = await createActor(['reliability']);
-    expect((await propose(windowId, { occurrenceStartsAt: OCCURRENCE }, reliability.auth)).status).toBe(403);
+    expect(
+      (await propose(windowId, { occurrenceStartsAt: OCCURRENCE }, reliability.auth)).status,
+    ).toBe(403);
   });
 
   it('when a proposal is made, then nothing is stored', async () => {
@@ -270,7 +353,11 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
   it('when hostile bodies are sent, then it never answers 5xx and stores nothing', async () => {
     const tally = await assertCorpusHolds(
       app,
-      { method: 'post', path: `/api/shutdown-windows/${windowId}/proposal`, headers: { Authorization: planner.auth } },
+      {
+        method: 'post',
+        path: `/api/shutdown-windows/${windowId}/proposal`,
+        headers: { Authorization: planner.auth },
+      },
       { occurrenceStartsAt: OCCURRENCE, technicianIds: [ana.id, ben.id] },
       300,
     );
@@ -281,17 +368,23 @@ describe('POST /api/shutdown-windows/:windowId/proposal', () => {
 
 describe('confirming a proposal through POST /api/visits/batch', () => {
   it('when the proposal’s visits are confirmed, then all are planned in one step and a new proposal finds their banks planned', async () => {
-    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
-    const visits = proposal.visits.map(({ cabinetId, bankIds: ids, plannedStartAt, plannedEndAt, technicianIds, notes }) => ({
-      cabinetId,
-      bankIds: ids,
-      plannedStartAt,
-      plannedEndAt,
-      technicianIds,
-      notes,
-    }));
+    const proposal = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE }))
+      .body as WindowProposal;
+    const visits = proposal.visits.map(
+      ({ cabinetId, bankIds: ids, plannedStartAt, plannedEndAt, technicianIds, notes }) => ({
+        cabinetId,
+        bankIds: ids,
+        plannedStartAt,
+        plannedEndAt,
+        technicianIds,
+        notes,
+      }),
+    );
     const before = await visitRowCounts();
-    const res = await request(app).post('/api/visits/batch').set('Authorization', planner.auth).send({ visits });
+    const res = await request(app)
+      .post('/api/visits/batch')
+      .set('Authorization', planner.auth)
+      .send({ visits });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.items).toHaveLength(4);
     expect(await visitRowCounts()).toEqual({
@@ -300,11 +393,20 @@ describe('confirming a proposal through POST /api/visits/batch', () => {
       technicians: before.technicians + 4,
     });
 
-    const again = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE })).body as WindowProposal;
+    const again = (await propose(windowId, { occurrenceStartsAt: OCCURRENCE }))
+      .body as WindowProposal;
     // Ana and Ben now have their visits in this occurrence; nobody has 35 min left for DR-103
-    expect(again.busyTechnicians.map((t) => t.name)).toEqual(['Ana Brandt', 'Ben Okafor', 'Dmitri Falk']);
+    expect(again.busyTechnicians.map((t) => t.name)).toEqual([
+      'Ana Brandt',
+      'Ben Okafor',
+      'Dmitri Falk',
+    ]);
     expect(again.visits).toEqual([]);
-    expect(again.leftOut.filter((b) => b.kind === 'already-planned').map((b) => `${b.cabinetTag} ${b.position}`)).toEqual([
+    expect(
+      again.leftOut
+        .filter((b) => b.kind === 'already-planned')
+        .map((b) => `${b.cabinetTag} ${b.position}`),
+    ).toEqual([
       'DR-101 DC1',
       'DR-101 DC2',
       'DR-102 DC1',

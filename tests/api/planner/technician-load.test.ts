@@ -29,13 +29,16 @@ let ben: Awaited<ReturnType<typeof makePerson>>;
 let siteId: string;
 const visitIds: Record<string, string> = {};
 
-const load = (query: string, auth = planner.auth) => request(app).get(`/api/technician-load?${query}`).set('Authorization', auth);
+const load = (query: string, auth = planner.auth) =>
+  request(app).get(`/api/technician-load?${query}`).set('Authorization', auth);
 
 beforeAll(async () => {
   planner = await createActor(['planner']);
   const site = await makeSite(planner.actor, { name: 'Elbe Works', code: 'ELB' });
   siteId = site.id;
-  await sequelize.query(`UPDATE sites SET time_zone = 'Europe/Berlin' WHERE id = :id`, { replacements: { id: site.id } });
+  await sequelize.query(`UPDATE sites SET time_zone = 'Europe/Berlin' WHERE id = :id`, {
+    replacements: { id: site.id },
+  });
   const other = await makeSite(planner.actor, { name: 'Rhine Works', code: 'RHN' });
   const area = await makeArea(planner.actor, site.id, 'Press hall');
   const design = await makeDesign(planner.actor);
@@ -43,7 +46,12 @@ beforeAll(async () => {
   ben = await makePerson(['technician'], 'Ben Okafor', [site.id]);
   await makePerson(['technician'], 'Carla Diaz', [other.id]);
   // a window over the whole week, so a replan inside it raises no outside-window warning
-  await insertWindow({ areaId: area.id, title: 'Week stop', startsAt: '2027-01-03T23:00:00Z', endsAt: '2027-01-10T23:00:00Z' });
+  await insertWindow({
+    areaId: area.id,
+    title: 'Week stop',
+    startsAt: '2027-01-03T23:00:00Z',
+    endsAt: '2027-01-10T23:00:00Z',
+  });
 
   const visits: Array<[string, string, string, string]> = [
     ['DR-1', '2027-01-09T05:00:00Z', '2027-01-09T06:10:00Z', 'planned'],
@@ -56,7 +64,14 @@ beforeAll(async () => {
   for (const [tag, startsAt, endsAt, state] of visits) {
     const cabinet = await makeCabinet(planner.actor, area.id, { tag });
     const bankId = await makeBankWithTau(planner.actor, cabinet.id, design.id, 'DC1', 120);
-    visitIds[tag] = await insertVisit({ cabinetId: cabinet.id, bankIds: [bankId], technicianIds: [ana.id], startsAt, endsAt, state });
+    visitIds[tag] = await insertVisit({
+      cabinetId: cabinet.id,
+      bankIds: [bankId],
+      technicianIds: [ana.id],
+      startsAt,
+      endsAt,
+      state,
+    });
   }
 }, 120_000);
 
@@ -95,11 +110,14 @@ describe('GET /api/technician-load', () => {
 
   it('when no site is named, then every technician is listed and the week is counted in UTC (or the zone asked)', async () => {
     const utc = (await load('weekOn=2027-01-09')).body as TechnicianLoadList;
-    expect(utc.items.map((t) => t.name)).toEqual(expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz']));
+    expect(utc.items.map((t) => t.name)).toEqual(
+      expect.arrayContaining(['Ana Brandt', 'Ben Okafor', 'Carla Diaz']),
+    );
     expect(utc.weekStartsAt).toBe('2027-01-04T00:00:00.000Z');
     // DR-3 ends at 00:00Z Monday: wholly inside the UTC week, so Ana has 1.9166 + 2 = 3.9 h
     expect(utc.items.find((t) => t.name === 'Ana Brandt')!.plannedHours).toBe(3.9);
-    const chicago = (await load('weekOn=2027-01-09&timeZone=America/Chicago')).body as TechnicianLoadList;
+    const chicago = (await load('weekOn=2027-01-09&timeZone=America/Chicago'))
+      .body as TechnicianLoadList;
     expect(chicago.weekStartsAt).toBe('2027-01-04T06:00:00.000Z');
   });
 
@@ -113,7 +131,10 @@ describe('GET /api/technician-load', () => {
     ] as const) {
       const res = await load(query);
       expect(res.status, query).toBe(400);
-      expect(res.body.error.issues.map((i: { path: string }) => i.path), query).toContain(field);
+      expect(
+        res.body.error.issues.map((i: { path: string }) => i.path),
+        query,
+      ).toContain(field);
     }
   });
 
@@ -130,7 +151,9 @@ describe('GET /api/technician-load', () => {
       .send({ version: dr2.version, reason: 'Ana is on the DR-1 run', technicianIds: [ben.id] });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const after = (await load(`weekOn=2027-01-09&siteId=${siteId}`)).body as TechnicianLoadList;
-    expect(after.items.map((t) => [t.name, t.plannedHours, t.visits.map((v) => v.cabinetTag)])).toEqual([
+    expect(
+      after.items.map((t) => [t.name, t.plannedHours, t.visits.map((v) => v.cabinetTag)]),
+    ).toEqual([
       ['Ana Brandt', 2.2, ['DR-1', 'DR-3']],
       ['Ben Okafor', 0.8, ['DR-2']],
     ]);

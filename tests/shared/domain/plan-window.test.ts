@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { packProposalRows, proposeWindowPlan, type PlanCabinet, type PlanTechnician } from '../../../shared/domain/plan-window';
+import {
+  packProposalRows,
+  proposeWindowPlan,
+  type PlanCabinet,
+  type PlanTechnician,
+} from '../../../shared/domain/plan-window';
 
 /*
  * The hand-computed case.
@@ -28,16 +33,29 @@ import { packProposalRows, proposeWindowPlan, type PlanCabinet, type PlanTechnic
  * In UTC (minus one hour): DR-104 05:00–06:10, DR-101 05:00–06:00, DR-105 06:00–06:50,
  * DR-102 06:10–06:55. Planned: 70 + 60 + 50 + 45 = 225 of the 240 technician-minutes.
  */
-const occurrence = { startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T07:00:00Z', timeZone: 'Europe/Berlin' };
+const occurrence = {
+  startsAt: '2027-01-09T05:00:00Z',
+  endsAt: '2027-01-09T07:00:00Z',
+  timeZone: 'Europe/Berlin',
+};
 const ana: PlanTechnician = { id: 't-ana', name: 'Ana Brandt' };
 const ben: PlanTechnician = { id: 't-ben', name: 'Ben Okafor' };
 
-function cabinet(tag: string, markedWaitMinutes: number | null, tauSeconds: number, positions: string[]): PlanCabinet {
+function cabinet(
+  tag: string,
+  markedWaitMinutes: number | null,
+  tauSeconds: number,
+  positions: string[],
+): PlanCabinet {
   return {
     cabinetId: `c-${tag}`,
     cabinetTag: tag,
     markedWaitMinutes,
-    banks: positions.map((position) => ({ bankId: `b-${tag}-${position}`, position, baselineTauSeconds: tauSeconds })),
+    banks: positions.map((position) => ({
+      bankId: `b-${tag}-${position}`,
+      position,
+      baselineTauSeconds: tauSeconds,
+    })),
   };
 }
 
@@ -53,7 +71,13 @@ describe('proposeWindowPlan', () => {
   it('when the hand-computed case is planned, then the visits, technicians and times are those worked out above', () => {
     const plan = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
     expect(
-      plan.visits.map((v) => [v.cabinetTag, v.technicianIds, v.plannedStartAt, v.plannedEndAt, v.estimatedMinutes]),
+      plan.visits.map((v) => [
+        v.cabinetTag,
+        v.technicianIds,
+        v.plannedStartAt,
+        v.plannedEndAt,
+        v.estimatedMinutes,
+      ]),
     ).toEqual([
       ['DR-104', ['t-ana'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:10:00.000Z', 70],
       ['DR-101', ['t-ben'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:00:00.000Z', 60],
@@ -82,18 +106,25 @@ describe('proposeWindowPlan', () => {
 
   it('when no visit ends after the occurrence’s end and no technician’s visits overlap, then the proposal keeps both rules', () => {
     const plan = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
-    for (const visit of plan.visits) expect(Date.parse(visit.plannedEndAt)).toBeLessThanOrEqual(Date.parse(occurrence.endsAt));
+    for (const visit of plan.visits)
+      expect(Date.parse(visit.plannedEndAt)).toBeLessThanOrEqual(Date.parse(occurrence.endsAt));
     for (const technician of [ana, ben]) {
       const own = plan.visits.filter((v) => v.technicianIds.includes(technician.id));
       for (let i = 1; i < own.length; i += 1) {
-        expect(Date.parse(own[i]!.plannedStartAt)).toBeGreaterThanOrEqual(Date.parse(own[i - 1]!.plannedEndAt));
+        expect(Date.parse(own[i]!.plannedStartAt)).toBeGreaterThanOrEqual(
+          Date.parse(own[i - 1]!.plannedEndAt),
+        );
       }
     }
   });
 
   it('when the cabinets come in another order, then the proposal is the same', () => {
     const forward = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
-    const reversed = proposeWindowPlan({ occurrence, cabinets: [...handCase].reverse(), technicians: [ana, ben] });
+    const reversed = proposeWindowPlan({
+      occurrence,
+      cabinets: [...handCase].reverse(),
+      technicians: [ana, ben],
+    });
     expect(reversed).toEqual(forward);
   });
 
@@ -130,7 +161,11 @@ describe('proposeWindowPlan', () => {
   });
 
   it('when a cabinet has no banks to cover, then it gets no visit', () => {
-    const plan = proposeWindowPlan({ occurrence, cabinets: [cabinet('DR-401', 5, 120, [])], technicians: [ana] });
+    const plan = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-401', 5, 120, [])],
+      technicians: [ana],
+    });
     expect(plan).toEqual({ visits: [], leftOut: [] });
   });
 
@@ -146,10 +181,17 @@ describe('proposeWindowPlan', () => {
   it('when the occurrence spans the change to summer time, then durations are real minutes and the reasons show the site’s clock', () => {
     // 28 Mar 2027, Europe/Berlin: 02:00 CET becomes 03:00 CEST, so 00:00Z–02:00Z is 01:00–04:00 on the
     // site's clock but two real hours
-    const dst = { startsAt: '2027-03-28T00:00:00Z', endsAt: '2027-03-28T02:00:00Z', timeZone: 'Europe/Berlin' };
+    const dst = {
+      startsAt: '2027-03-28T00:00:00Z',
+      endsAt: '2027-03-28T02:00:00Z',
+      timeZone: 'Europe/Berlin',
+    };
     const plan = proposeWindowPlan({
       occurrence: dst,
-      cabinets: [cabinet('DR-501', 5, 120, ['DC1', 'DC2', 'DC3']), cabinet('DR-502', 5, 120, ['DC1'])],
+      cabinets: [
+        cabinet('DR-501', 5, 120, ['DC1', 'DC2', 'DC3']),
+        cabinet('DR-502', 5, 120, ['DC1']),
+      ],
       technicians: [ana],
     });
     // DR-501: 90 min, 00:00Z–01:30Z (01:00 CET to 03:30 CEST); DR-502 needs 30 min, only 30 are left: it fits
@@ -159,7 +201,10 @@ describe('proposeWindowPlan', () => {
     ]);
     const tight = proposeWindowPlan({
       occurrence: { ...dst, endsAt: '2027-03-28T01:45:00Z' },
-      cabinets: [cabinet('DR-501', 5, 120, ['DC1', 'DC2', 'DC3']), cabinet('DR-502', 5, 120, ['DC1'])],
+      cabinets: [
+        cabinet('DR-501', 5, 120, ['DC1', 'DC2', 'DC3']),
+        cabinet('DR-502', 5, 120, ['DC1']),
+      ],
       technicians: [ana],
     });
     expect(tight.leftOut[0]!.reason).toBe(
@@ -169,7 +214,11 @@ describe('proposeWindowPlan', () => {
 
   it('when the occurrence ends before it starts, then it refuses', () => {
     expect(() =>
-      proposeWindowPlan({ occurrence: { ...occurrence, endsAt: occurrence.startsAt }, cabinets: handCase, technicians: [ana] }),
+      proposeWindowPlan({
+        occurrence: { ...occurrence, endsAt: occurrence.startsAt },
+        cabinets: handCase,
+        technicians: [ana],
+      }),
     ).toThrow(RangeError);
   });
 });
@@ -181,9 +230,14 @@ describe('proposeWindowPlan around visits the technicians already have', () => {
     const plan = proposeWindowPlan({
       occurrence,
       cabinets: [cabinet('DR-A', 5, 120, ['DC1', 'DC2']), cabinet('DR-B', 5, 120, ['DC1'])],
-      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T05:30:00Z' }] }, ben],
+      technicians: [
+        { ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T05:30:00Z' }] },
+        ben,
+      ],
     });
-    expect(plan.visits.map((v) => [v.cabinetTag, v.technicianIds, v.plannedStartAt, v.plannedEndAt])).toEqual([
+    expect(
+      plan.visits.map((v) => [v.cabinetTag, v.technicianIds, v.plannedStartAt, v.plannedEndAt]),
+    ).toEqual([
       ['DR-A', ['t-ben'], '2027-01-09T05:00:00.000Z', '2027-01-09T06:00:00.000Z'],
       ['DR-B', ['t-ana'], '2027-01-09T05:30:00.000Z', '2027-01-09T06:00:00.000Z'],
     ]);
@@ -191,11 +245,22 @@ describe('proposeWindowPlan around visits the technicians already have', () => {
 
   it('when a visit fits in the gap before a busy span, then it goes there; a longer one goes after it', () => {
     const busy = [{ startsAt: '2027-01-09T05:40:00Z', endsAt: '2027-01-09T06:00:00Z' }];
-    const short = proposeWindowPlan({ occurrence, cabinets: [cabinet('DR-C', 5, 120, ['DC1'])], technicians: [{ ...ana, busy }] });
+    const short = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-C', 5, 120, ['DC1'])],
+      technicians: [{ ...ana, busy }],
+    });
     expect(short.visits[0]!.plannedStartAt).toBe('2027-01-09T05:00:00.000Z');
     // 45 min (τ 240 s, wait 10) does not fit 05:00–05:40: it starts at 06:00Z
-    const long = proposeWindowPlan({ occurrence, cabinets: [cabinet('DR-D', 10, 240, ['DC1'])], technicians: [{ ...ana, busy }] });
-    expect([long.visits[0]!.plannedStartAt, long.visits[0]!.plannedEndAt]).toEqual(['2027-01-09T06:00:00.000Z', '2027-01-09T06:45:00.000Z']);
+    const long = proposeWindowPlan({
+      occurrence,
+      cabinets: [cabinet('DR-D', 10, 240, ['DC1'])],
+      technicians: [{ ...ana, busy }],
+    });
+    expect([long.visits[0]!.plannedStartAt, long.visits[0]!.plannedEndAt]).toEqual([
+      '2027-01-09T06:00:00.000Z',
+      '2027-01-09T06:45:00.000Z',
+    ]);
   });
 
   it('when the technician free soonest is free only after a visit they have, then the reason counts from its end', () => {
@@ -203,7 +268,9 @@ describe('proposeWindowPlan around visits the technicians already have', () => {
     const plan = proposeWindowPlan({
       occurrence,
       cabinets: [cabinet('DR-F', 5, 120, ['DC1'])],
-      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T06:40:00Z' }] }],
+      technicians: [
+        { ...ana, busy: [{ startsAt: '2027-01-09T05:00:00Z', endsAt: '2027-01-09T06:40:00Z' }] },
+      ],
     });
     expect(plan.leftOut.map((b) => b.reason)).toEqual([
       'Needs about 30 min; Ana Brandt, free soonest (from 07:40), would finish at 08:10, after the window ends at 08:00 (Europe/Berlin).',
@@ -215,7 +282,9 @@ describe('proposeWindowPlan around visits the technicians already have', () => {
     const plan = proposeWindowPlan({
       occurrence,
       cabinets: [cabinet('DR-E', 5, 120, ['DC1'])],
-      technicians: [{ ...ana, busy: [{ startsAt: '2027-01-09T05:20:00Z', endsAt: '2027-01-09T07:00:00Z' }] }],
+      technicians: [
+        { ...ana, busy: [{ startsAt: '2027-01-09T05:20:00Z', endsAt: '2027-01-09T07:00:00Z' }] },
+      ],
     });
     expect(plan.visits).toEqual([]);
     expect(plan.leftOut.map((b) => b.reason)).toEqual([
@@ -236,22 +305,32 @@ describe('packProposalRows', () => {
   it('when a row is removed, then the technician’s later rows move up to close the gap', () => {
     const plan = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
     // without DR-101 (Ben 06:00–07:00), DR-105 starts at 06:00 local (05:00Z)
-    const packed = packProposalRows(plan.visits.filter((v) => v.cabinetTag !== 'DR-101'), occurrence);
-    expect(packed.find((r) => r.cabinetTag === 'DR-105')!.plannedStartAt).toBe('2027-01-09T05:00:00.000Z');
+    const packed = packProposalRows(
+      plan.visits.filter((v) => v.cabinetTag !== 'DR-101'),
+      occurrence,
+    );
+    expect(packed.find((r) => r.cabinetTag === 'DR-105')!.plannedStartAt).toBe(
+      '2027-01-09T05:00:00.000Z',
+    );
   });
 
   it('when a row goes to another technician, then it follows that technician’s rows and may end after the window', () => {
     const plan = proposeWindowPlan({ occurrence, cabinets: handCase, technicians: [ana, ben] });
     // DR-105 (50 min) moved from Ben to Ana: Ana has DR-104 until 07:10 local, so DR-105 runs 07:10–08:00 and DR-102 (45) 08:00–08:45
-    const rows = plan.visits.map((v) => (v.cabinetTag === 'DR-105' ? { ...v, technicianIds: ['t-ana'] } : v));
+    const rows = plan.visits.map((v) =>
+      v.cabinetTag === 'DR-105' ? { ...v, technicianIds: ['t-ana'] } : v,
+    );
     const packed = packProposalRows(rows, occurrence);
     const byTag = Object.fromEntries(packed.map((r) => [r.cabinetTag, r]));
-    expect([byTag['DR-105']!.plannedStartAt, byTag['DR-105']!.plannedEndAt, byTag['DR-105']!.endsAfterWindow]).toEqual([
-      '2027-01-09T06:10:00.000Z',
+    expect([
+      byTag['DR-105']!.plannedStartAt,
+      byTag['DR-105']!.plannedEndAt,
+      byTag['DR-105']!.endsAfterWindow,
+    ]).toEqual(['2027-01-09T06:10:00.000Z', '2027-01-09T07:00:00.000Z', false]);
+    expect([byTag['DR-102']!.plannedStartAt, byTag['DR-102']!.endsAfterWindow]).toEqual([
       '2027-01-09T07:00:00.000Z',
-      false,
+      true,
     ]);
-    expect([byTag['DR-102']!.plannedStartAt, byTag['DR-102']!.endsAfterWindow]).toEqual(['2027-01-09T07:00:00.000Z', true]);
   });
 
   it('when a technician already has a visit, then a row laid out for them goes around it', () => {

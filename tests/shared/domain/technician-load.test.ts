@@ -19,7 +19,11 @@ describe('weekOf', () => {
   it('when the week holds the change to summer time, then it is 167 real hours long', () => {
     // 28 Mar 2027 is a Sunday; Europe/Berlin goes from UTC+1 to UTC+2 that night
     const week = weekOf('2027-03-24', 'Europe/Berlin');
-    expect(week).toEqual({ weekStartOn: '2027-03-22', startsAt: '2027-03-21T23:00:00.000Z', endsAt: '2027-03-28T22:00:00.000Z' });
+    expect(week).toEqual({
+      weekStartOn: '2027-03-22',
+      startsAt: '2027-03-21T23:00:00.000Z',
+      endsAt: '2027-03-28T22:00:00.000Z',
+    });
     expect((Date.parse(week.endsAt) - Date.parse(week.startsAt)) / 3_600_000).toBe(167);
   });
 
@@ -36,11 +40,15 @@ describe('hoursWithin and plannedHoursWithin', () => {
   const week = { startsAt: '2027-01-04T00:00:00Z', endsAt: '2027-01-11T00:00:00Z' };
 
   it('when a visit runs over the week’s end, then only its hours inside count', () => {
-    expect(hoursWithin('2027-01-10T22:00:00Z', '2027-01-11T02:00:00Z', week.startsAt, week.endsAt)).toBe(2);
+    expect(
+      hoursWithin('2027-01-10T22:00:00Z', '2027-01-11T02:00:00Z', week.startsAt, week.endsAt),
+    ).toBe(2);
   });
 
   it('when a visit lies outside the week, then it counts nothing', () => {
-    expect(hoursWithin('2027-01-11T00:00:00Z', '2027-01-11T02:00:00Z', week.startsAt, week.endsAt)).toBe(0);
+    expect(
+      hoursWithin('2027-01-11T00:00:00Z', '2027-01-11T02:00:00Z', week.startsAt, week.endsAt),
+    ).toBe(0);
   });
 
   it('when visits add up, then the sum is rounded to a tenth of an hour (70 + 45 min = 1.9166… h → 1.9)', () => {

@@ -4,7 +4,11 @@ import {
   CAPTURE_TIME_CONSTANTS,
   UNKNOWN_MARKED_WAIT_MINUTES,
 } from '../../../shared/constants/planning-estimates';
-import { estimateBankMinutes, estimateVisitMinutes, plannedWaitMinutes } from '../../../shared/domain/visit-duration';
+import {
+  estimateBankMinutes,
+  estimateVisitMinutes,
+  plannedWaitMinutes,
+} from '../../../shared/domain/visit-duration';
 
 describe('the estimate’s constants', () => {
   it('when a capture lasts 5 τ, then less than 1 % of the voltage is left (DOMAIN.md: e^-5 ≈ 0.67 %)', () => {
@@ -40,31 +44,52 @@ describe('estimateBankMinutes', () => {
   });
 
   it('when τ is not a whole share of a minute, then the minutes are not rounded (5 × 100 s = 8⅓ min)', () => {
-    expect(estimateBankMinutes({ baselineTauSeconds: 100 }, { markedWaitMinutes: 5 })).toBeCloseTo(15 + 500 / 60 + 5, 10);
+    expect(estimateBankMinutes({ baselineTauSeconds: 100 }, { markedWaitMinutes: 5 })).toBeCloseTo(
+      15 + 500 / 60 + 5,
+      10,
+    );
   });
 
   it('when another setup time is given, then it replaces the default', () => {
-    expect(estimateBankMinutes({ baselineTauSeconds: 120 }, { markedWaitMinutes: 5 }, { setupMinutes: 0 })).toBe(15);
+    expect(
+      estimateBankMinutes(
+        { baselineTauSeconds: 120 },
+        { markedWaitMinutes: 5 },
+        { setupMinutes: 0 },
+      ),
+    ).toBe(15);
   });
 
   it('when the cabinet’s wait is unknown, then 15 min are planned for it', () => {
-    expect(estimateBankMinutes({ baselineTauSeconds: 60 }, { markedWaitMinutes: null })).toBe(15 + 5 + 15);
+    expect(estimateBankMinutes({ baselineTauSeconds: 60 }, { markedWaitMinutes: null })).toBe(
+      15 + 5 + 15,
+    );
   });
 
   it('when τ is zero, negative or not a number, then it refuses', () => {
     for (const tau of [0, -1, Number.NaN, Number.POSITIVE_INFINITY]) {
-      expect(() => estimateBankMinutes({ baselineTauSeconds: tau }, { markedWaitMinutes: 5 })).toThrow(RangeError);
+      expect(() =>
+        estimateBankMinutes({ baselineTauSeconds: tau }, { markedWaitMinutes: 5 }),
+      ).toThrow(RangeError);
     }
   });
 });
 
 describe('estimateVisitMinutes', () => {
   it('when a visit covers two banks, then their minutes add up', () => {
-    expect(estimateVisitMinutes([{ baselineTauSeconds: 120 }, { baselineTauSeconds: 180 }], { markedWaitMinutes: 5 })).toBe(30 + 35);
+    expect(
+      estimateVisitMinutes([{ baselineTauSeconds: 120 }, { baselineTauSeconds: 180 }], {
+        markedWaitMinutes: 5,
+      }),
+    ).toBe(30 + 35);
   });
 
   it('when the sum has a fraction, then it is rounded up to the next minute (2 × 28⅓ = 56⅔ → 57)', () => {
-    expect(estimateVisitMinutes([{ baselineTauSeconds: 100 }, { baselineTauSeconds: 100 }], { markedWaitMinutes: 5 })).toBe(57);
+    expect(
+      estimateVisitMinutes([{ baselineTauSeconds: 100 }, { baselineTauSeconds: 100 }], {
+        markedWaitMinutes: 5,
+      }),
+    ).toBe(57);
   });
 
   it('when the sum is whole but float arithmetic leaves a crumb above it, then it is not rounded up', () => {

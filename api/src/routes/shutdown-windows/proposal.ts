@@ -12,9 +12,13 @@ import { idParam } from '../params';
  */
 export const windowProposalRouter = Router();
 
-windowProposalRouter.post('/:windowId/proposal', requireRole(...VISIT_PLANNERS), async (req, res) => {
-  const windowId = idParam(req, 'windowId', 'Shutdown window');
-  const request = windowProposalRequestSchema.parse(req.body);
-  // due dates are judged at the request's instant, each bank on its site's clock
-  res.json(await proposeWindowVisits(windowId, request, new Date()));
-});
+windowProposalRouter.post(
+  '/:windowId/proposal',
+  requireRole(...VISIT_PLANNERS),
+  async (req, res) => {
+    const windowId = idParam(req, 'windowId', 'Shutdown window');
+    const request = windowProposalRequestSchema.parse(req.body);
+    // due dates are judged at the request's instant, each bank on its site's clock
+    res.json(await proposeWindowVisits(windowId, request, new Date()));
+  },
+);

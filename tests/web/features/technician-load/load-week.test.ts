@@ -41,7 +41,9 @@ describe('the week shown', () => {
   });
 
   it('when a visit is shown, then on its site’s clock with the zone named', () => {
-    expect(visitTimesText('2027-01-09T05:00:00Z', '2027-01-09T06:10:00Z', 'Europe/Berlin')).toBe('Sat 9 Jan, 06:00–07:10 Europe/Berlin');
+    expect(visitTimesText('2027-01-09T05:00:00Z', '2027-01-09T06:10:00Z', 'Europe/Berlin')).toBe(
+      'Sat 9 Jan, 06:00–07:10 Europe/Berlin',
+    );
     expect(visitTimesText('2027-01-10T22:00:00Z', '2027-01-11T00:00:00Z', 'Europe/Berlin')).toBe(
       'Sun 10 Jan, 23:00–Mon 11 Jan, 01:00 Europe/Berlin',
     );

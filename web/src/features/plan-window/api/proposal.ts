@@ -20,13 +20,17 @@ export interface OccurrenceFilters {
 
 export const planWindowKeys = {
   all: ['plan-window'] as const,
-  occurrences: (filters: OccurrenceFilters) => [...planWindowKeys.all, 'occurrences', filters] as const,
+  occurrences: (filters: OccurrenceFilters) =>
+    [...planWindowKeys.all, 'occurrences', filters] as const,
   proposals: () => [...planWindowKeys.all, 'proposal'] as const,
-  proposal: (windowId: string, occurrenceStartsAt: string) => [...planWindowKeys.proposals(), windowId, occurrenceStartsAt] as const,
+  proposal: (windowId: string, occurrenceStartsAt: string) =>
+    [...planWindowKeys.proposals(), windowId, occurrenceStartsAt] as const,
 };
 
 /** GET /api/shutdown-windows with a range: the windows with an occurrence in it, each with its occurrences. */
-export function getWindowsWithOccurrences(filters: OccurrenceFilters): Promise<ListPage<ShutdownWindow>> {
+export function getWindowsWithOccurrences(
+  filters: OccurrenceFilters,
+): Promise<ListPage<ShutdownWindow>> {
   const search = new URLSearchParams({ from: filters.from, to: filters.to, pageSize: '200' });
   if (filters.siteId) search.set('siteId', filters.siteId);
   if (filters.areaId) search.set('areaId', filters.areaId);
@@ -34,16 +38,26 @@ export function getWindowsWithOccurrences(filters: OccurrenceFilters): Promise<L
 }
 
 export const occurrencesOptions = (filters: OccurrenceFilters) =>
-  queryOptions({ queryKey: planWindowKeys.occurrences(filters), queryFn: () => getWindowsWithOccurrences(filters) });
+  queryOptions({
+    queryKey: planWindowKeys.occurrences(filters),
+    queryFn: () => getWindowsWithOccurrences(filters),
+  });
 
-export const useWindowOccurrences = (filters: OccurrenceFilters) => useQuery(occurrencesOptions(filters));
+export const useWindowOccurrences = (filters: OccurrenceFilters) =>
+  useQuery(occurrencesOptions(filters));
 
 /** POST /api/shutdown-windows/:windowId/proposal: reads only, so it is a query. */
-export function getWindowProposal(windowId: string, occurrenceStartsAt: string): Promise<WindowProposal> {
-  return apiFetch<WindowProposal>(`/api/shutdown-windows/${encodeURIComponent(windowId)}/proposal`, {
-    method: 'POST',
-    body: JSON.stringify({ occurrenceStartsAt }),
-  });
+export function getWindowProposal(
+  windowId: string,
+  occurrenceStartsAt: string,
+): Promise<WindowProposal> {
+  return apiFetch<WindowProposal>(
+    `/api/shutdown-windows/${encodeURIComponent(windowId)}/proposal`,
+    {
+      method: 'POST',
+      body: JSON.stringify({ occurrenceStartsAt }),
+    },
+  );
 }
 
 export const proposalOptions = (windowId: string, occurrenceStartsAt: string) =>
@@ -56,11 +70,17 @@ export const proposalOptions = (windowId: string, occurrenceStartsAt: string) =>
   });
 
 export const useWindowProposal = (windowId: string | null, occurrenceStartsAt: string | null) =>
-  useQuery({ ...proposalOptions(windowId ?? '', occurrenceStartsAt ?? ''), enabled: Boolean(windowId && occurrenceStartsAt) });
+  useQuery({
+    ...proposalOptions(windowId ?? '', occurrenceStartsAt ?? ''),
+    enabled: Boolean(windowId && occurrenceStartsAt),
+  });
 
 /** POST /api/visits/batch: the plan's visits, all or none. */
 export function confirmWindowPlan(body: ReturnType<typeof batchBody>): Promise<{ items: Visit[] }> {
-  return apiFetch<{ items: Visit[] }>('/api/visits/batch', { method: 'POST', body: JSON.stringify(body) });
+  return apiFetch<{ items: Visit[] }>('/api/visits/batch', {
+    method: 'POST',
+    body: JSON.stringify(body),
+  });
 }
 
 /**

@@ -54,13 +54,26 @@ const DAY_MS = 86_400_000;
 /** How far ahead the picker offers occurrences. */
 const PICK_AHEAD_DAYS = 90;
 
-export function PlanWindowDialog({ onClose, windowId, occurrenceStartsAt, siteId, areaId, onConfirmed }: PlanWindowDialogProps) {
+export function PlanWindowDialog({
+  onClose,
+  windowId,
+  occurrenceStartsAt,
+  siteId,
+  areaId,
+  onConfirmed,
+}: PlanWindowDialogProps) {
   const [picked, setPicked] = useState<{ windowId: string; startsAt: string } | null>(
     windowId && occurrenceStartsAt ? { windowId, startsAt: occurrenceStartsAt } : null,
   );
   return (
     <DialogShell title="Plan a shutdown window" onClose={onClose}>
-      <OccurrencePicker windowId={windowId} siteId={siteId} areaId={areaId} picked={picked} onPick={setPicked} />
+      <OccurrencePicker
+        windowId={windowId}
+        siteId={siteId}
+        areaId={areaId}
+        picked={picked}
+        onPick={setPicked}
+      />
       {picked ? (
         <ProposalSection
           key={`${picked.windowId}|${picked.startsAt}`}
@@ -78,7 +91,15 @@ export function PlanWindowDialog({ onClose, windowId, occurrenceStartsAt, siteId
 }
 
 /** The browser's modal dialog: focus kept inside, Escape closes; full width on a phone. */
-function DialogShell({ title, onClose, children }: { title: string; onClose: () => void; children: ReactNode }) {
+function DialogShell({
+  title,
+  onClose,
+  children,
+}: {
+  title: string;
+  onClose: () => void;
+  children: ReactNode;
+}) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
   useEffect(() => {
@@ -130,19 +151,32 @@ function OccurrencePicker({
   // the range is fixed when the dialog opens: a re-render must not ask again for a moving range
   const [range] = useState(() => {
     const now = Date.now();
-    return { nowAt: new Date(now).toISOString(), from: new Date(now - DAY_MS).toISOString(), to: new Date(now + PICK_AHEAD_DAYS * DAY_MS).toISOString() };
+    return {
+      nowAt: new Date(now).toISOString(),
+      from: new Date(now - DAY_MS).toISOString(),
+      to: new Date(now + PICK_AHEAD_DAYS * DAY_MS).toISOString(),
+    };
   });
   const pickerId = useId();
   const windows = useWindowOccurrences({ from: range.from, to: range.to, siteId, areaId });
-  const choices = useMemo(() => occurrenceChoices(windows.data?.items ?? [], range.nowAt, windowId), [windows.data, range.nowAt, windowId]);
+  const choices = useMemo(
+    () => occurrenceChoices(windows.data?.items ?? [], range.nowAt, windowId),
+    [windows.data, range.nowAt, windowId],
+  );
   const value = picked ? `${picked.windowId}|${picked.startsAt}` : '';
 
   if (windows.isPending) return <Spinner label="Loading shutdown windows" />;
-  if (windows.isError) return <ErrorPanel title="The shutdown windows could not be loaded.">{windows.error.message}</ErrorPanel>;
+  if (windows.isError)
+    return (
+      <ErrorPanel title="The shutdown windows could not be loaded.">
+        {windows.error.message}
+      </ErrorPanel>
+    );
   if (choices.length === 0 && !picked) {
     return (
       <p className="text-sm text-tide-800">
-        No shutdown window falls in the next {PICK_AHEAD_DAYS} days{siteId || areaId ? ' here' : ''}. Add one on the calendar first.
+        No shutdown window falls in the next {PICK_AHEAD_DAYS} days{siteId || areaId ? ' here' : ''}
+        . Add one on the calendar first.
       </p>
     );
   }
@@ -163,10 +197,13 @@ function OccurrencePicker({
         <option value="">Choose an occurrence…</option>
         {choices.map((c) => (
           <option key={c.key} value={c.key}>
-            {c.title} · {c.areaName}, {c.siteName} · {zonedRangeText(c.startsAt, c.endsAt, c.timeZone)}
+            {c.title} · {c.areaName}, {c.siteName} ·{' '}
+            {zonedRangeText(c.startsAt, c.endsAt, c.timeZone)}
           </option>
         ))}
-        {picked && !choices.some((c) => c.key === value) ? <option value={value}>The occurrence asked for</option> : null}
+        {picked && !choices.some((c) => c.key === value) ? (
+          <option value={value}>The occurrence asked for</option>
+        ) : null}
       </select>
     </div>
   );
@@ -185,7 +222,8 @@ function ProposalSection({
 }) {
   const proposal = useWindowProposal(windowId, occurrenceStartsAt);
   if (proposal.isPending) return <Spinner label="Working out the proposal" />;
-  if (proposal.isError) return <ErrorPanel title="No proposal could be made.">{proposal.error.message}</ErrorPanel>;
+  if (proposal.isError)
+    return <ErrorPanel title="No proposal could be made.">{proposal.error.message}</ErrorPanel>;
   return <ProposalEditor proposal={proposal.data} onCancel={onCancel} onConfirmed={onConfirmed} />;
 }
 
@@ -206,10 +244,19 @@ function ProposalEditor({
   const confirm = useConfirmWindowPlan();
   const reasonId = useId();
 
-  const laidOut = useMemo(() => layOutRows(rows, occurrence, proposal.technicians), [rows, occurrence, proposal.technicians]);
-  const groups = useMemo(() => rowsByTechnician(laidOut, proposal.technicians), [laidOut, proposal.technicians]);
-  const windowMinutes = Math.round((Date.parse(occurrence.endsAt) - Date.parse(occurrence.startsAt)) / 60_000);
-  const overrideReady = warnings.length === 0 || overrideReason.trim().length >= PLANNING_REASON_MIN_CHARS;
+  const laidOut = useMemo(
+    () => layOutRows(rows, occurrence, proposal.technicians),
+    [rows, occurrence, proposal.technicians],
+  );
+  const groups = useMemo(
+    () => rowsByTechnician(laidOut, proposal.technicians),
+    [laidOut, proposal.technicians],
+  );
+  const windowMinutes = Math.round(
+    (Date.parse(occurrence.endsAt) - Date.parse(occurrence.startsAt)) / 60_000,
+  );
+  const overrideReady =
+    warnings.length === 0 || overrideReason.trim().length >= PLANNING_REASON_MIN_CHARS;
 
   const edit = (next: ProposalRow[]) => {
     setRows(next);
@@ -219,11 +266,13 @@ function ProposalEditor({
   };
 
   const submit = () => {
-    const overrides = warnings.length > 0 ? overridesForWarnings(warnings, overrideReason) : undefined;
+    const overrides =
+      warnings.length > 0 ? overridesForWarnings(warnings, overrideReason) : undefined;
     confirm.mutate(batchBody(laidOut, overrides), {
       onSuccess: (answer) => onConfirmed(answer.items),
       onError: (error) => {
-        if (error instanceof ApiError && error.code === 'override-needed') setWarnings(rowWarningsOf(error.issues));
+        if (error instanceof ApiError && error.code === 'override-needed')
+          setWarnings(rowWarningsOf(error.issues));
       },
     });
   };
@@ -236,19 +285,24 @@ function ProposalEditor({
         </p>
         <p>{zonedRangeText(occurrence.startsAt, occurrence.endsAt, zone)}</p>
         <p className="text-tide-800">
-          Banks due by {proposal.dueBy}. Estimate per bank: setup, about 5 τ of capture from its baseline, and the cabinet’s marked
-          wait. Times are on the site’s clock ({zone}).
+          Banks due by {proposal.dueBy}. Estimate per bank: setup, about 5 τ of capture from its
+          baseline, and the cabinet’s marked wait. Times are on the site’s clock ({zone}).
         </p>
       </div>
 
       <DischargeCaution compact />
 
       {proposal.technicianPool === 'all' ? (
-        <p className="text-sm text-tide-800">Nobody is attached to {occurrence.siteName}, so every technician free during the window is offered.</p>
+        <p className="text-sm text-tide-800">
+          Nobody is attached to {occurrence.siteName}, so every technician free during the window is
+          offered.
+        </p>
       ) : null}
       {proposal.busyTechnicians.length > 0 ? (
         <div className="text-sm text-tide-800">
-          <p className="font-medium text-tide-900">Visits already planned in this window (planned around)</p>
+          <p className="font-medium text-tide-900">
+            Visits already planned in this window (planned around)
+          </p>
           <ul className="list-disc pl-5">
             {proposal.busyTechnicians.map((t) => (
               <li key={t.id}>
@@ -262,7 +316,9 @@ function ProposalEditor({
       <section aria-label="Proposed visits" className="space-y-3">
         {groups.length === 0 ? (
           <p className="text-sm text-tide-800">
-            {proposal.visits.length === 0 ? 'No visit to propose for this occurrence.' : 'Every row has been removed.'}
+            {proposal.visits.length === 0
+              ? 'No visit to propose for this occurrence.'
+              : 'Every row has been removed.'}
           </p>
         ) : null}
         {groups.map((group) => (
@@ -275,17 +331,26 @@ function ProposalEditor({
             </h3>
             <ul className="divide-y divide-tide-100">
               {group.rows.map((row) => (
-                <li key={row.key} className="flex flex-col gap-2 px-3 py-2 sm:flex-row sm:items-center sm:justify-between">
+                <li
+                  key={row.key}
+                  className="flex flex-col gap-2 px-3 py-2 sm:flex-row sm:items-center sm:justify-between"
+                >
                   <div className="text-sm">
                     <p className="font-medium text-tide-950">
-                      {zonedTimesText(row.plannedStartAt, row.plannedEndAt, zone)} · {row.visit.cabinetTag}
+                      {zonedTimesText(row.plannedStartAt, row.plannedEndAt, zone)} ·{' '}
+                      {row.visit.cabinetTag}
                     </p>
                     <p className="text-tide-800">
-                      Banks {row.visit.banks.map((b) => b.position).join(', ')} · about {minutesText(row.estimatedMinutes)}
-                      {row.visit.markedWaitMinutes === null ? ' (no marked wait: 15 min planned)' : ''}
+                      Banks {row.visit.banks.map((b) => b.position).join(', ')} · about{' '}
+                      {minutesText(row.estimatedMinutes)}
+                      {row.visit.markedWaitMinutes === null
+                        ? ' (no marked wait: 15 min planned)'
+                        : ''}
                     </p>
                     {row.endsAfterWindow ? (
-                      <p className="font-medium text-eol-600">Ends after the window’s end: remove it or give it to someone with time left.</p>
+                      <p className="font-medium text-eol-600">
+                        Ends after the window’s end: remove it or give it to someone with time left.
+                      </p>
                     ) : null}
                   </div>
                   <div className="flex flex-wrap items-center gap-2">
@@ -304,7 +369,12 @@ function ProposalEditor({
                         </option>
                       ))}
                     </select>
-                    <Button size="sm" variant="danger" onClick={() => edit(removeRow(rows, row.key))} aria-label={`Remove ${row.visit.cabinetTag}`}>
+                    <Button
+                      size="sm"
+                      variant="danger"
+                      onClick={() => edit(removeRow(rows, row.key))}
+                      aria-label={`Remove ${row.visit.cabinetTag}`}
+                    >
                       Remove
                     </Button>
                   </div>
@@ -352,14 +422,21 @@ function ProposalEditor({
           />
         </div>
       ) : null}
-      {confirm.isError && !(confirm.error instanceof ApiError && confirm.error.code === 'override-needed') ? (
+      {confirm.isError &&
+      !(confirm.error instanceof ApiError && confirm.error.code === 'override-needed') ? (
         <ErrorPanel title="The visits were not planned.">{confirm.error.message}</ErrorPanel>
       ) : null}
 
       <div className="flex flex-wrap justify-end gap-2 border-t border-tide-100 pt-3">
         <Button onClick={onCancel}>Cancel</Button>
-        <Button variant="primary" disabled={!canConfirm(laidOut) || !overrideReady || confirm.isPending} onClick={submit}>
-          {confirm.isPending ? 'Planning…' : `Plan ${laidOut.length} visit${laidOut.length === 1 ? '' : 's'}`}
+        <Button
+          variant="primary"
+          disabled={!canConfirm(laidOut) || !overrideReady || confirm.isPending}
+          onClick={submit}
+        >
+          {confirm.isPending
+            ? 'Planning…'
+            : `Plan ${laidOut.length} visit${laidOut.length === 1 ? '' : 's'}`}
         </Button>
       </div>
     </div>

@@ -18,7 +18,11 @@ export interface OccurrenceChoice {
  * The occurrences of the windows, soonest first; those already over at `nowAt` are left out
  * (one under way stays: what is left of it may still be planned by hand, but it is shown).
  */
-export function occurrenceChoices(windows: readonly ShutdownWindow[], nowAt: string, windowId?: string): OccurrenceChoice[] {
+export function occurrenceChoices(
+  windows: readonly ShutdownWindow[],
+  nowAt: string,
+  windowId?: string,
+): OccurrenceChoice[] {
   const now = Date.parse(nowAt);
   return windows
     .filter((w) => !windowId || w.id === windowId)
@@ -36,5 +40,7 @@ export function occurrenceChoices(windows: readonly ShutdownWindow[], nowAt: str
           endsAt: o.endsAt,
         })),
     )
-    .sort((a, b) => Date.parse(a.startsAt) - Date.parse(b.startsAt) || a.title.localeCompare(b.title));
+    .sort(
+      (a, b) => Date.parse(a.startsAt) - Date.parse(b.startsAt) || a.title.localeCompare(b.title),
+    );
 }

@@ -4,7 +4,10 @@
  * so they never overlap, and a row that would end after the window is flagged.
  */
 import type { PlanningOverride } from '../../../../../shared/schemas/visit';
-import type { ProposedWindowVisit, WindowProposal } from '../../../../../shared/schemas/plan-window';
+import type {
+  ProposedWindowVisit,
+  WindowProposal,
+} from '../../../../../shared/schemas/plan-window';
 import { packProposalRows, type PackedRow } from '../../../../../shared/domain/plan-window';
 
 /** A row of the proposal being edited. */
@@ -38,7 +41,11 @@ export function removeRow(rows: readonly ProposalRow[], key: string): ProposalRo
  * The rows with the row of `key` given to `technicianId` alone. It moves to the end of the
  * list, so it follows the rows that technician already has.
  */
-export function reassignRow(rows: readonly ProposalRow[], key: string, technicianId: string): ProposalRow[] {
+export function reassignRow(
+  rows: readonly ProposalRow[],
+  key: string,
+  technicianId: string,
+): ProposalRow[] {
   const row = rows.find((r) => r.key === key);
   if (!row) return [...rows];
   return [...rows.filter((r) => r.key !== key), { ...row, technicianIds: [technicianId] }];
@@ -51,9 +58,16 @@ export function reassignRow(rows: readonly ProposalRow[], key: string, technicia
 export function layOutRows(
   rows: readonly ProposalRow[],
   occurrence: { startsAt: string; endsAt: string },
-  technicians: ReadonlyArray<{ id: string; busy?: ReadonlyArray<{ startsAt: string; endsAt: string }> }> = [],
+  technicians: ReadonlyArray<{
+    id: string;
+    busy?: ReadonlyArray<{ startsAt: string; endsAt: string }>;
+  }> = [],
 ): LaidOutRow[] {
-  return packProposalRows(rows, occurrence, Object.fromEntries(technicians.map((t) => [t.id, t.busy ?? []])));
+  return packProposalRows(
+    rows,
+    occurrence,
+    Object.fromEntries(technicians.map((t) => [t.id, t.busy ?? []])),
+  );
 }
 
 /** One technician's part of the plan. */
@@ -69,7 +83,10 @@ export interface TechnicianRows {
  * The laid-out rows grouped by technician, in the order of `technicians` (a row of two
  * technicians shows under each); technicians with no row are left out.
  */
-export function rowsByTechnician(rows: readonly LaidOutRow[], technicians: readonly { id: string; name: string }[]): TechnicianRows[] {
+export function rowsByTechnician(
+  rows: readonly LaidOutRow[],
+  technicians: readonly { id: string; name: string }[],
+): TechnicianRows[] {
   return technicians
     .map((technician) => {
       const own = rows
@@ -97,7 +114,17 @@ export function canConfirm(rows: readonly LaidOutRow[]): boolean {
 export function batchBody(
   rows: readonly LaidOutRow[],
   overrides: ReadonlyMap<number, PlanningOverride[]> = new Map(),
-): { visits: Array<{ cabinetId: string; bankIds: string[]; plannedStartAt: string; plannedEndAt: string; technicianIds: string[]; notes: string; overrides: PlanningOverride[] }> } {
+): {
+  visits: Array<{
+    cabinetId: string;
+    bankIds: string[];
+    plannedStartAt: string;
+    plannedEndAt: string;
+    technicianIds: string[];
+    notes: string;
+    overrides: PlanningOverride[];
+  }>;
+} {
   return {
     visits: rows.map((row, index) => ({
       cabinetId: row.visit.cabinetId,
@@ -122,19 +149,27 @@ export interface RowWarning {
  * The warnings of a batch's `override-needed` issues (`path: 'visits.3.overrides'`, `kind`,
  * `message`), by row index; issues of any other shape are left out.
  */
-export function rowWarningsOf(issues: ReadonlyArray<{ path: string; message: string; kind?: string }>): RowWarning[] {
+export function rowWarningsOf(
+  issues: ReadonlyArray<{ path: string; message: string; kind?: string }>,
+): RowWarning[] {
   return issues.flatMap((issue) => {
     const match = /^visits\.(\d+)\.overrides/.exec(issue.path);
-    return match && issue.kind ? [{ index: Number(match[1]), kind: issue.kind, message: issue.message }] : [];
+    return match && issue.kind
+      ? [{ index: Number(match[1]), kind: issue.kind, message: issue.message }]
+      : [];
   });
 }
 
 /** Overrides, by row index, accepting every warning given with one reason. */
-export function overridesForWarnings(warnings: readonly RowWarning[], reason: string): Map<number, PlanningOverride[]> {
+export function overridesForWarnings(
+  warnings: readonly RowWarning[],
+  reason: string,
+): Map<number, PlanningOverride[]> {
   const out = new Map<number, PlanningOverride[]>();
   for (const warning of warnings) {
     const list = out.get(warning.index) ?? [];
-    if (!list.some((o) => o.kind === warning.kind)) list.push({ kind: warning.kind as PlanningOverride['kind'], reason: reason.trim() });
+    if (!list.some((o) => o.kind === warning.kind))
+      list.push({ kind: warning.kind as PlanningOverride['kind'], reason: reason.trim() });
     out.set(warning.index, list);
   }
   return out;

@@ -1,5 +1,11 @@
 /** The technicians' week (GET /api/technician-load) and a reassignment from it (PATCH /api/visits/:id). */
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import {
+  keepPreviousData,
+  queryOptions,
+  useMutation,
+  useQuery,
+  useQueryClient,
+} from '@tanstack/react-query';
 import type { TechnicianLoadList } from '../../../../../shared/schemas/technician-load';
 import type { PlanningOverride, Visit } from '../../../../../shared/schemas/visit';
 import { apiFetch } from '../../../lib/api-client';
@@ -24,7 +30,11 @@ export function getTechnicianLoad(filters: LoadFilters): Promise<TechnicianLoadL
 }
 
 export const technicianLoadOptions = (filters: LoadFilters) =>
-  queryOptions({ queryKey: technicianLoadKeys.week(filters), queryFn: () => getTechnicianLoad(filters), placeholderData: keepPreviousData });
+  queryOptions({
+    queryKey: technicianLoadKeys.week(filters),
+    queryFn: () => getTechnicianLoad(filters),
+    placeholderData: keepPreviousData,
+  });
 
 export const useTechnicianLoad = (filters: LoadFilters) => useQuery(technicianLoadOptions(filters));
 
@@ -38,11 +48,17 @@ export interface Reassignment {
 }
 
 export function reassignVisit({ visitId, ...change }: Reassignment): Promise<Visit> {
-  return apiFetch<Visit>(`/api/visits/${encodeURIComponent(visitId)}`, { method: 'PATCH', body: JSON.stringify(change) });
+  return apiFetch<Visit>(`/api/visits/${encodeURIComponent(visitId)}`, {
+    method: 'PATCH',
+    body: JSON.stringify(change),
+  });
 }
 
 /** Reassigns a visit; the calendar, My visits and the load all show it, so every cached list is marked stale. */
 export function useReassignVisit() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: reassignVisit, onSuccess: () => queryClient.invalidateQueries() });
+  return useMutation({
+    mutationFn: reassignVisit,
+    onSuccess: () => queryClient.invalidateQueries(),
+  });
 }

@@ -20,14 +20,24 @@
  */
 import { useId, useState } from 'react';
 import { PLANNING_REASON_MIN_CHARS } from '../../../../../shared/constants/planning';
-import type { TechnicianLoad, TechnicianLoadVisit } from '../../../../../shared/schemas/technician-load';
+import type {
+  TechnicianLoad,
+  TechnicianLoadVisit,
+} from '../../../../../shared/schemas/technician-load';
 import type { PlanningOverride } from '../../../../../shared/schemas/visit';
 import { Button } from '../../../components/ui/button';
 import { ErrorPanel } from '../../../components/ui/error-panel';
 import { Spinner } from '../../../components/ui/spinner';
 import { ApiError } from '../../../lib/api-client';
 import { useReassignVisit, useTechnicianLoad } from '../api/technician-load';
-import { loadBar, reassignedTechnicians, shiftWeek, todayOn, visitTimesText, weekText } from '../utils/load-week';
+import {
+  loadBar,
+  reassignedTechnicians,
+  shiftWeek,
+  todayOn,
+  visitTimesText,
+  weekText,
+} from '../utils/load-week';
 
 export interface TechnicianLoadViewProps {
   weekOn?: string;
@@ -43,7 +53,12 @@ const STATE_LABELS: Record<string, string> = {
   reviewed: 'reviewed',
 };
 
-export function TechnicianLoadView({ weekOn: controlledWeekOn, onWeekChange, siteId, onVisitOpen }: TechnicianLoadViewProps) {
+export function TechnicianLoadView({
+  weekOn: controlledWeekOn,
+  onWeekChange,
+  siteId,
+  onVisitOpen,
+}: TechnicianLoadViewProps) {
   const [browserZone] = useState(() => Intl.DateTimeFormat().resolvedOptions().timeZone);
   const controlled = controlledWeekOn !== undefined && onWeekChange !== undefined;
   const [ownWeekOn, setOwnWeekOn] = useState(() => controlledWeekOn ?? todayOn(Date.now()));
@@ -65,7 +80,9 @@ export function TechnicianLoadView({ weekOn: controlledWeekOn, onWeekChange, sit
       <div className="flex flex-wrap items-center justify-between gap-2">
         <h2 className="text-lg font-bold text-tide-900">
           {load.data ? `Week ${weekText(load.data.weekStartOn)}` : 'Technicians’ week'}
-          {load.data ? <span className="ml-2 text-sm font-normal text-tide-800">({load.data.timeZone})</span> : null}
+          {load.data ? (
+            <span className="ml-2 text-sm font-normal text-tide-800">({load.data.timeZone})</span>
+          ) : null}
         </h2>
         <div className="flex flex-wrap gap-2">
           <Button size="sm" onClick={() => moveTo(shiftWeek(weekOn, -1))}>
@@ -80,14 +97,25 @@ export function TechnicianLoadView({ weekOn: controlledWeekOn, onWeekChange, sit
         </div>
       </div>
       {load.isPending ? <Spinner label="Loading the technicians’ week" /> : null}
-      {load.isError ? <ErrorPanel title="The technicians’ week could not be loaded.">{load.error.message}</ErrorPanel> : null}
+      {load.isError ? (
+        <ErrorPanel title="The technicians’ week could not be loaded.">
+          {load.error.message}
+        </ErrorPanel>
+      ) : null}
       {load.data && load.data.items.length === 0 ? (
-        <p className="text-sm text-tide-800">No one holds the technician role yet. An admin gives it on the People screen.</p>
+        <p className="text-sm text-tide-800">
+          No one holds the technician role yet. An admin gives it on the People screen.
+        </p>
       ) : null}
       {load.data ? (
         <ul className="space-y-3">
           {load.data.items.map((technician) => (
-            <TechnicianWeek key={technician.technicianId} technician={technician} everyone={load.data.items} onVisitOpen={onVisitOpen} />
+            <TechnicianWeek
+              key={technician.technicianId}
+              technician={technician}
+              everyone={load.data.items}
+              onVisitOpen={onVisitOpen}
+            />
           ))}
         </ul>
       ) : null}
@@ -124,14 +152,23 @@ function TechnicianWeek({
         aria-valuetext={bar.text}
         className="mt-2 h-3 overflow-hidden rounded-full bg-tide-100"
       >
-        <div className={`h-full rounded-full ${bar.over ? 'bg-eol-600' : 'bg-tide-600'}`} style={{ width: `${percent}%` }} />
+        <div
+          className={`h-full rounded-full ${bar.over ? 'bg-eol-600' : 'bg-tide-600'}`}
+          style={{ width: `${percent}%` }}
+        />
       </div>
       {technician.visits.length === 0 ? (
         <p className="mt-2 text-sm text-tide-800">No visits this week.</p>
       ) : (
         <ul className="mt-2 divide-y divide-tide-100">
           {technician.visits.map((visit) => (
-            <LoadVisitRow key={visit.id} visit={visit} technician={technician} everyone={everyone} onVisitOpen={onVisitOpen} />
+            <LoadVisitRow
+              key={visit.id}
+              visit={visit}
+              technician={technician}
+              everyone={everyone}
+              onVisitOpen={onVisitOpen}
+            />
           ))}
         </ul>
       )}
@@ -156,7 +193,8 @@ function LoadVisitRow({
       <div className="flex flex-col gap-2 sm:flex-row sm:items-center sm:justify-between">
         <div>
           <p className="font-medium text-tide-950">
-            {visit.cabinetTag} · {visitTimesText(visit.plannedStartAt, visit.plannedEndAt, visit.timeZone)}
+            {visit.cabinetTag} ·{' '}
+            {visitTimesText(visit.plannedStartAt, visit.plannedEndAt, visit.timeZone)}
           </p>
           <p className="text-tide-800">
             {visit.areaName}, {visit.siteName} · {STATE_LABELS[visit.state] ?? visit.state}
@@ -169,14 +207,23 @@ function LoadVisitRow({
             </Button>
           ) : null}
           {visit.state === 'planned' && !reassigning ? (
-            <Button size="sm" onClick={() => setReassigning(true)} aria-label={`Reassign ${visit.cabinetTag} from ${technician.name}`}>
+            <Button
+              size="sm"
+              onClick={() => setReassigning(true)}
+              aria-label={`Reassign ${visit.cabinetTag} from ${technician.name}`}
+            >
               Reassign
             </Button>
           ) : null}
         </div>
       </div>
       {reassigning ? (
-        <ReassignForm visit={visit} fromTechnician={technician} everyone={everyone} onDone={() => setReassigning(false)} />
+        <ReassignForm
+          visit={visit}
+          fromTechnician={technician}
+          everyone={everyone}
+          onDone={() => setReassigning(false)}
+        />
       ) : null}
     </li>
   );
@@ -223,14 +270,25 @@ function ReassignForm({
         visitId: visit.id,
         version: visit.version,
         reason: reason.trim(),
-        technicianIds: reassignedTechnicians(visit.technicianIds, fromTechnician.technicianId, toId),
+        technicianIds: reassignedTechnicians(
+          visit.technicianIds,
+          fromTechnician.technicianId,
+          toId,
+        ),
         ...(overrides.length > 0 ? { overrides } : {}),
       },
       {
         onSuccess: onDone,
         onError: (error) => {
           if (error instanceof ApiError && error.code === 'override-needed') {
-            setWarnings(error.issues.map((issue) => ({ kind: (issue as { kind?: string }).kind ?? '', message: issue.message })).filter((w) => w.kind));
+            setWarnings(
+              error.issues
+                .map((issue) => ({
+                  kind: (issue as { kind?: string }).kind ?? '',
+                  message: issue.message,
+                }))
+                .filter((w) => w.kind),
+            );
           }
         },
       },
@@ -281,7 +339,9 @@ function ReassignForm({
       </div>
       {warnings.length > 0 ? (
         <div role="alert" className="text-watch-600">
-          <p className="font-semibold">Saving again accepts these warnings with the reason above:</p>
+          <p className="font-semibold">
+            Saving again accepts these warnings with the reason above:
+          </p>
           <ul className="list-disc pl-5">
             {warnings.map((w) => (
               <li key={`${w.kind}-${w.message}`}>{w.message}</li>
@@ -289,7 +349,8 @@ function ReassignForm({
           </ul>
         </div>
       ) : null}
-      {reassign.isError && !(reassign.error instanceof ApiError && reassign.error.code === 'override-needed') ? (
+      {reassign.isError &&
+      !(reassign.error instanceof ApiError && reassign.error.code === 'override-needed') ? (
         <p role="alert" className="text-eol-600">
           {reassign.error.message}
         </p>
@@ -298,7 +359,12 @@ function ReassignForm({
         <Button size="sm" onClick={onDone}>
           Cancel
         </Button>
-        <Button size="sm" variant="primary" type="submit" disabled={!reasonGiven || !toId || reassign.isPending}>
+        <Button
+          size="sm"
+          variant="primary"
+          type="submit"
+          disabled={!reasonGiven || !toId || reassign.isPending}
+        >
           {reassign.isPending ? 'Saving…' : warnings.length > 0 ? 'Reassign anyway' : 'Reassign'}
         </Button>
       </div>

@@ -24,7 +24,8 @@ function hoursText(hours: number): string {
  */
 export function loadBar(plannedHours: number, availableHours: number): LoadBar {
   const over = plannedHours > availableHours;
-  const fraction = availableHours > 0 ? Math.min(1, plannedHours / availableHours) : plannedHours > 0 ? 1 : 0;
+  const fraction =
+    availableHours > 0 ? Math.min(1, plannedHours / availableHours) : plannedHours > 0 ? 1 : 0;
   return { fraction, over, text: `${hoursText(plannedHours)} of ${hoursText(availableHours)}` };
 }
 
@@ -38,14 +39,20 @@ export function shiftWeek(weekOn: string, weeks: number): string {
 
 /** Today on the clock of `timeZone` (the browser's when none), `YYYY-MM-DD`. */
 export function todayOn(nowMs: number, timeZone?: string): string {
-  return timeZone ? format(new TZDate(nowMs, timeZone), 'yyyy-MM-dd') : format(new Date(nowMs), 'yyyy-MM-dd');
+  return timeZone
+    ? format(new TZDate(nowMs, timeZone), 'yyyy-MM-dd')
+    : format(new Date(nowMs), 'yyyy-MM-dd');
 }
 
 /**
  * The visit's technicians with `fromId` replaced by `toId`, each once (a visit of two keeps the other).
  * @example reassignedTechnicians(['a', 'b'], 'a', 'c') // ['c', 'b']
  */
-export function reassignedTechnicians(technicianIds: readonly string[], fromId: string, toId: string): string[] {
+export function reassignedTechnicians(
+  technicianIds: readonly string[],
+  fromId: string,
+  toId: string,
+): string[] {
   return [...new Set(technicianIds.map((id) => (id === fromId ? toId : id)))];
 }
 
@@ -56,7 +63,10 @@ export function reassignedTechnicians(technicianIds: readonly string[], fromId: 
 export function visitTimesText(startsAt: string, endsAt: string, timeZone: string): string {
   const start = new TZDate(Date.parse(startsAt), timeZone);
   const end = new TZDate(Date.parse(endsAt), timeZone);
-  const endText = format(start, 'yyyy-MM-dd') === format(end, 'yyyy-MM-dd') ? format(end, 'HH:mm') : format(end, 'EEE d MMM, HH:mm');
+  const endText =
+    format(start, 'yyyy-MM-dd') === format(end, 'yyyy-MM-dd')
+      ? format(end, 'HH:mm')
+      : format(end, 'EEE d MMM, HH:mm');
   return `${format(start, 'EEE d MMM, HH:mm')}–${endText} ${timeZone}`;
 }
 
