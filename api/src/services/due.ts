@@ -52,7 +52,13 @@ class Binds {
  */
 function dueBanksSql(asOf: string): string {
   return `
-    WITH judged AS (
+    WITH logged AS (
+      -- the latest logged or reviewed visit of each bank by the instant (one pass, not one per bank)
+      SELECT vb.bank_id, max(vi.logged_at) AS last_logged_at
+      FROM visit_banks vb JOIN visits vi ON vi.id = vb.visit_id
+      WHERE vi.state IN ('logged', 'reviewed') AND vi.logged_at <= ${asOf}::timestamptz
+      GROUP BY vb.bank_id
+    ), judged AS (
       SELECT
         b.id AS bank_id, b.position, b.installed_on, b.bank_design_id,
         d.code AS design_code, v.inspection_interval_days,
@@ -60,9 +66,7 @@ function dueBanksSql(asOf: string): string {
         a.id AS area_id, a.name AS area_name, s.id AS site_id, s.name AS site_name, s.time_zone,
         (${asOf}::timestamptz AT TIME ZONE s.time_zone)::date AS today_on,
         (b.baseline_set_at AT TIME ZONE s.time_zone)::date AS baseline_set_on,
-        (SELECT max(vi.logged_at) FROM visit_banks vb JOIN visits vi ON vi.id = vb.visit_id
-          WHERE vb.bank_id = b.id AND vi.state IN ('logged', 'reviewed') AND vi.logged_at <= ${asOf}::timestamptz
-        ) AS last_logged_at,
+        (l.last_logged_at AT TIME ZONE s.time_zone)::date AS last_inspected_on,
         NULL::date AS forecast_next_visit_on,
         'unmeasured'::text AS health
       FROM banks b
@@ -71,13 +75,13 @@ function dueBanksSql(asOf: string): string {
       JOIN sites s ON s.id = a.site_id
       JOIN bank_designs d ON d.id = b.bank_design_id
       JOIN bank_design_versions v ON v.id = d.current_version_id
+      LEFT JOIN logged l ON l.bank_id = b.id
       WHERE b.status = 'in-service' AND b.retired_at IS NULL
         AND c.retired_at IS NULL AND c.status <> 'retired' AND a.retired_at IS NULL AND s.retired_at IS NULL
     ), started AS (
       SELECT judged.*,
-        (last_logged_at AT TIME ZONE time_zone)::date AS last_inspected_on,
-        COALESCE((last_logged_at AT TIME ZONE time_zone)::date, installed_on, baseline_set_on) AS start_on,
-        CASE WHEN last_logged_at IS NOT NULL THEN 'last-visit'
+        COALESCE(last_inspected_on, installed_on, baseline_set_on) AS start_on,
+        CASE WHEN last_inspected_on IS NOT NULL THEN 'last-visit'
              WHEN installed_on IS NOT NULL THEN 'installed' ELSE 'baseline' END AS start_kind
       FROM judged
     ), due AS (
