@@ -1,6 +1,7 @@
 import ICAL from 'ical.js';
 import pg from 'pg';
 import { describe, expect, inject, it } from 'vitest';
+import { DISCHARGE_CAUTION } from '../../shared/constants/safety';
 import { localWallTimeOf } from '../../shared/domain/shutdown-windows';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
@@ -84,10 +85,14 @@ describe('My visits (technician, phone)', () => {
     const console = watchConsole(page);
     await signIn(page, 'lucia', 'tidewater-tech', { returnTo: '/profile' });
     await page.getByRole('heading', { name: 'Your profile' }).waitFor();
-    await page.getByRole('button', { name: 'Make my calendar feed' }).click();
-    const shown = page.getByRole('textbox', { name: 'Calendar feed address' });
-    await eventually(() => shown.inputValue()).toMatch(/\/feeds\/visits\/[^/]+\.ics$/);
-    const feedUrl = await shown.inputValue();
+    await page.getByRole('button', { name: 'Make a calendar address' }).click();
+    // shown once, in the notice that says to copy it now
+    const shown = page
+      .getByRole('status')
+      .filter({ hasText: 'Copy your calendar address now' })
+      .getByTestId('calendar-feed-url');
+    await eventually(() => shown.textContent()).toMatch(/\/feeds\/visits\/[^/]+\.ics$/);
+    const feedUrl = ((await shown.textContent()) ?? '').trim();
     expect(new URL(feedUrl).origin).toBe(new URL(baseUrl).origin);
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
       390,
@@ -110,7 +115,10 @@ describe('My visits (technician, phone)', () => {
       expect(event!.component.getFirstProperty('dtstart')!.getParameter('tzid')).toBe(
         visit.timeZone,
       );
+      // the cabinet, its banks and the discharge caution, as the app words it
+      expect(event!.description).toContain(visit.tag);
       expect(event!.description).toMatch(/[Bb]ank/);
+      expect(event!.description).toContain(DISCHARGE_CAUTION.title);
     }
     expect(console.problems).toEqual([]);
   });
