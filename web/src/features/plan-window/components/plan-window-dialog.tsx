@@ -294,8 +294,7 @@ function ProposalEditor({
 
       {proposal.technicianPool === 'all' ? (
         <p className="text-sm text-tide-800">
-          Nobody is attached to {occurrence.siteName}, so every technician free during the window is
-          offered.
+          Nobody is attached to {occurrence.siteName}, so every technician is offered.
         </p>
       ) : null}
       {proposal.busyTechnicians.length > 0 ? (
