@@ -181,7 +181,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
         <label className="block min-w-0 text-sm font-medium text-tide-900 sm:w-56">
           Area
           <Select className="mt-1" value={params.areaId} disabled={!params.siteId} onChange={(e) => setParams({ areaId: e.target.value })}>
-            <option value="">{params.siteId ? 'Every area' : 'Choose a site first'}</option>
+            <option value="">{params.siteId ? 'Every area' : 'Every area (pick a site)'}</option>
             {areas.data?.items.map((a) => (
               <option key={a.id} value={a.id}>
                 {a.name}
