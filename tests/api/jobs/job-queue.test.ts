@@ -136,6 +136,27 @@ describe('the job queue at run time', () => {
       .toBe('missed');
   });
 
+  it('when two instances run the queue on one database, then both start and a visit is marked missed once, with one audit entry', async () => {
+    const overdue = await visitEnded(48);
+    running = await startJobQueue({ pollingIntervalSeconds: 0.5 });
+    const second = await startJobQueue({ pollingIntervalSeconds: 0.5 });
+    try {
+      await expect.poll(async () => (await storedVisit(overdue.id)).state, WAIT).toBe('missed');
+      // both ask for a check; the queue keeps at most one waiting, and a second run finds nothing
+      await Promise.all([
+        running.boss.send(MISSED_VISITS_QUEUE, {}),
+        second.boss.send(MISSED_VISITS_QUEUE, {}),
+      ]);
+      await expect
+        .poll(() => running!.boss.getQueueSize(MISSED_VISITS_QUEUE, { before: 'active' }), WAIT)
+        .toBe(0);
+      expect(await visitAuditEntries(overdue.id)).toHaveLength(1);
+      expect((await running.boss.getSchedules()).map((s) => s.name)).toEqual([MISSED_VISITS_QUEUE]);
+    } finally {
+      await second.stop();
+    }
+  });
+
   it('when it stops, then it stops once: a second stop waits for the same', async () => {
     running = await startJobQueue({ pollingIntervalSeconds: 0.5 });
     const stopped = new Promise<void>((resolve) => running!.boss.once('stopped', () => resolve()));
