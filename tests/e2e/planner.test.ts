@@ -174,8 +174,15 @@ describe('the Planner (planner, desktop)', () => {
       returnTo: `/planner?siteId=${window!.siteId}&areaId=${window!.areaId}&view=week&date=${format(day, 'yyyy-MM-dd')}`,
     });
     await page.getByRole('heading', { name: 'Planner', exact: true }).waitFor();
-    await page.getByRole('button', { name: 'Plan a window' }).click();
-    await page.getByRole('button', { name: new RegExp(`^Plan ${window!.title},`) }).click();
+    // the window's occurrence on the calendar opens with "Plan this window"
+    const occurrence = page.getByTitle(new RegExp(`(^|: )${window!.title} · `)).first();
+    await occurrence.waitFor();
+    const box = (await occurrence.boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await page
+      .getByRole('dialog', { name: window!.title })
+      .getByRole('button', { name: 'Plan this window' })
+      .click();
 
     // the proposal: a visit for every bank due by the window's end, split across the technicians
     const proposal = page.getByRole('dialog', { name: 'Plan a shutdown window' });
