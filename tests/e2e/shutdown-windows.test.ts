@@ -14,9 +14,9 @@ describe('shutdown windows (planner)', () => {
     await page.getByRole('button', { name: 'New shutdown window' }).click();
     const dialog = page.getByRole('dialog', { name: 'New shutdown window' });
     await dialog.waitFor();
-    await expect.poll(() => dialog.getByLabel('Site').locator('option').count()).toBeGreaterThan(1);
+    await eventually(() => dialog.getByLabel('Site').locator('option').count()).toBeGreaterThan(1);
     await dialog.getByLabel('Site').selectOption({ index: 1 });
-    await expect.poll(() => dialog.getByLabel('Area').locator('option').count()).toBeGreaterThan(1);
+    await eventually(() => dialog.getByLabel('Area').locator('option').count()).toBeGreaterThan(1);
     await dialog.getByLabel('Area').selectOption({ index: 1 });
     await dialog.getByLabel('Title').fill('Browser weekend stop');
     // Saturday 9 January 2027 (1 January 2027 is a Friday)

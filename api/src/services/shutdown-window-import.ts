@@ -190,6 +190,12 @@ async function checkAgainstRegister(read: ReadFile, asOf: Date, transaction?: Tr
     const site = siteOf(r.site.toLowerCase());
     if (!site) {
       r.problems.push({ row: r.row, column: 'site', reason: `no site in use has the code or name ${r.site}` });
+      // the times' form needs no zone: name a bad one now rather than after the site is fixed
+      for (const column of ['start', 'end'] as const) {
+        const text = r.values[column]?.trim() ?? '';
+        if (text && !instantOfLocalWallTime(text, 'UTC'))
+          r.problems.push({ row: r.row, column, reason: `"${text}" is not a date and time (YYYY-MM-DD HH:MM, local time at the site)` });
+      }
       continue;
     }
     const area = areaByKey.get(`${site.id}|${r.area.toLowerCase()}`);

@@ -44,9 +44,10 @@ function ruleCheck(startsAt: string | null, endsAt: string | null, recurrence: s
   if (!startsAt || !endsAt || recurrence === undefined || !timeZone) return null;
   const times = { startsAt, endsAt, recurrence };
   const found = windowTimesProblems(times, timeZone);
-  if (found.length > 0) return { problem: found[0]!.message, next: [] };
+  if (found.length > 0) return { problem: found[0]!.message, next: [], more: false };
   const yearsAhead = new Date(Date.parse(startsAt) + 3 * 366 * 86_400_000).toISOString();
-  return { problem: null, next: windowOccurrences(times, timeZone, startsAt, yearsAhead, SHOWN_OCCURRENCES) };
+  const coming = windowOccurrences(times, timeZone, startsAt, yearsAhead, SHOWN_OCCURRENCES + 1);
+  return { problem: null, next: coming.slice(0, SHOWN_OCCURRENCES), more: coming.length > SHOWN_OCCURRENCES };
 }
 
 export interface ShutdownWindowFormProps {
@@ -271,7 +272,7 @@ export function ShutdownWindowForm({ window, siteId: initialSiteId, areaId: init
                 {(check?.next ?? []).map((o) => (
                   <li key={o.startsAt}>{windowTimeText(o.startsAt, o.endsAt, timeZone)}</li>
                 ))}
-                {recurrenceCheck.recurrence && (check?.next.length ?? 0) >= SHOWN_OCCURRENCES ? <li className="text-tide-600">…</li> : null}
+                {check?.more ? <li className="text-tide-600">and more</li> : null}
               </ul>
             </>
           )}
