@@ -9,6 +9,7 @@ import { ErrorPanel } from '../../../components/ui/error-panel';
 import { Select } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { useAreas, useSites } from '../api/lookups';
+import { usePlanRequestContext } from '../api/plan-request';
 import type { Visit, VisitState } from '../api/shapes';
 import { VISIT_STATES } from '../api/shapes';
 import { plannerWindowKeys, useWindowsInRange } from '../api/shutdown-windows';
@@ -27,11 +28,20 @@ import {
   type PlannerView,
   type WindowEvent,
 } from '../utils/calendar-events';
-import { calendarDateOf, dateOnOf, readPlannerParams, writePlannerParams, type PlannerParams } from '../utils/planner-params';
+import {
+  calendarDateOf,
+  dateOnOf,
+  readPlannerParams,
+  readPlanRequest,
+  requestedVisitTimes,
+  withoutPlanRequest,
+  writePlannerParams,
+  type PlannerParams,
+} from '../utils/planner-params';
 import { describePlannerZone, plannerZone } from '../utils/planner-zone';
 import { slotTimes } from '../utils/visit-form';
 import { plannerPermissions } from '../utils/visit-rules';
-import { fromCalendarDate, toCalendarDate } from '../utils/zoned-time';
+import { fromCalendarDate, fromZonedInputValue, toCalendarDate, zonedDateOn } from '../utils/zoned-time';
 import { MoveVisitDialog, type ProposedTimes } from './move-visit-dialog';
 import { PlannerCalendar } from './planner-calendar';
 import { PlannerLegend } from './planner-legend';
@@ -93,6 +103,24 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
   const windows = useWindowsInRange({ ...range, ...filters }, zoneKnown);
 
   const [dialog, setDialog] = useState<Dialog | null>(null);
+
+  // "Plan a visit" from the Due list: the address names the cabinet and banks; the form opens
+  // with them at the next shutdown window of the cabinet's area until it is closed
+  const planRequest = can.plan ? readPlanRequest(search) : null;
+  const [requestNow] = useState(() => Date.now());
+  const requested = usePlanRequestContext(planRequest?.cabinetId ?? '', requestNow);
+  const requestedCabinet = requested.cabinet.data;
+  const requestZone = siteZones.find((s) => s.id === requestedCabinet?.siteId)?.timeZone;
+  const requestedVisit =
+    planRequest && requestedCabinet && requestZone && (requested.windows.isSuccess || requested.windows.isError)
+      ? {
+          siteId: requestedCabinet.siteId,
+          areaId: requestedCabinet.areaId,
+          cabinetId: requestedCabinet.id,
+          bankIds: planRequest.bankIds,
+          ...requestedVisitTimes((requested.windows.data?.items ?? []).flatMap((w) => w.occurrences ?? []), requestNow, tomorrowMorning(requestNow, requestZone)),
+        }
+      : null;
   const [move, setMove] = useState<{ visit: Visit; proposed: ProposedTimes } | null>(null);
 
   const visitEvents = (visits.data?.items ?? []).map((v) => visitEvent(v, timeZone, move?.visit.id === v.id ? move.proposed : undefined));
@@ -264,9 +292,21 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
       ) : null}
 
       {move ? <MoveVisitDialog visit={move.visit} proposed={move.proposed} onClose={() => setMove(null)} /> : null}
+      {requestedVisit && !dialog ? (
+        <VisitFormDialog
+          initial={requestedVisit}
+          fallbackZone={timeZone}
+          onClose={() => setSearch(withoutPlanRequest(search), { replace: true })}
+        />
+      ) : null}
       {dialog?.kind === 'new-visit' ? (
         <VisitFormDialog
-          initial={{ siteId: dialog.siteId, areaId: dialog.areaId, plannedStartAt: dialog.plannedStartAt, plannedEndAt: dialog.plannedEndAt }}
+          initial={{
+            siteId: dialog.siteId,
+            areaId: dialog.areaId,
+            plannedStartAt: dialog.plannedStartAt,
+            plannedEndAt: dialog.plannedEndAt,
+          }}
           fallbackZone={timeZone}
           onClose={() => setDialog(null)}
         />
@@ -309,4 +349,11 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
         : null}
     </div>
   );
+}
+
+/** Tomorrow 08:00–10:00 on the site's clock: a requested visit's times when no window is ahead. */
+function tomorrowMorning(nowMs: number, timeZone: string): { plannedStartAt: string; plannedEndAt: string } {
+  const tomorrowOn = zonedDateOn(new Date(nowMs + 86_400_000), timeZone);
+  const start = Date.parse(fromZonedInputValue(`${tomorrowOn}T08:00`, timeZone)!);
+  return { plannedStartAt: new Date(start).toISOString(), plannedEndAt: new Date(start + 2 * 3600_000).toISOString() };
 }

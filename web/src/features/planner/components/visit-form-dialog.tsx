@@ -22,12 +22,18 @@ export function VisitFormDialog({
   fallbackZone,
   onClose,
 }: {
-  initial: Pick<VisitDraft, 'siteId' | 'areaId' | 'plannedStartAt' | 'plannedEndAt'>;
+  initial: Pick<VisitDraft, 'siteId' | 'areaId' | 'plannedStartAt' | 'plannedEndAt'> & Partial<Pick<VisitDraft, 'cabinetId' | 'bankIds'>>;
   /** The zone the times are read in until a site is chosen. */
   fallbackZone: string;
   onClose: (created: boolean) => void;
 }) {
-  const [draft, setDraft] = useState<VisitDraft>({ ...initial, cabinetId: '', bankIds: [], technicianIds: [], notes: '' });
+  const [draft, setDraft] = useState<VisitDraft>({
+    ...initial,
+    cabinetId: initial.cabinetId ?? '',
+    bankIds: initial.bankIds ?? [],
+    technicianIds: [],
+    notes: '',
+  });
   const [cabinetSearch, setCabinetSearch] = useState('');
   const [reasons, setReasons] = useState<Partial<Record<PlanningWarningKind, string>>>({});
   const [serverWarnings, setServerWarnings] = useState<PlanningWarning[] | null>(null);

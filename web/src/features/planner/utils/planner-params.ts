@@ -44,3 +44,51 @@ export function calendarDateOf(dateOn: string): Date {
 export function dateOnOf(date: Date): string {
   return format(date, 'yyyy-MM-dd');
 }
+
+/** A visit asked for by another screen (the Due list's "Plan a visit"): a cabinet and some of its banks. */
+export interface PlanRequest {
+  cabinetId: string;
+  bankIds: string[];
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * The visit asked for in the address (`?cabinetId=…&bankIds=a,b`), or null; ids that are not
+ * record ids are dropped, so a mangled link opens the calendar rather than a broken form.
+ */
+export function readPlanRequest(search: URLSearchParams): PlanRequest | null {
+  const cabinetId = search.get('cabinetId') ?? '';
+  if (!UUID.test(cabinetId)) return null;
+  const bankIds = (search.get('bankIds') ?? '').split(',').filter((id) => UUID.test(id));
+  return { cabinetId, bankIds: [...new Set(bankIds)] };
+}
+
+/** The address without the request, once its form is closed. */
+export function withoutPlanRequest(search: URLSearchParams): URLSearchParams {
+  const next = new URLSearchParams(search);
+  next.delete('cabinetId');
+  next.delete('bankIds');
+  return next;
+}
+
+/**
+ * Times a requested visit starts with: the first shutdown-window occurrence of the cabinet's
+ * area that has not ended yet (from its start, or from now when it is under way, for two hours
+ * or to its end), else tomorrow 08:00–10:00 on the site's clock (`fallback`).
+ */
+export function requestedVisitTimes(
+  occurrences: readonly { startsAt: string; endsAt: string }[],
+  nowMs: number,
+  fallback: { plannedStartAt: string; plannedEndAt: string },
+): { plannedStartAt: string; plannedEndAt: string } {
+  const next = occurrences
+    .filter((o) => Date.parse(o.endsAt) > nowMs)
+    .sort((a, b) => Date.parse(a.startsAt) - Date.parse(b.startsAt))[0];
+  if (!next) return fallback;
+  // whole minutes, so the form's time fields show what is stored
+  const start = Math.max(Date.parse(next.startsAt), Math.ceil(nowMs / 60_000) * 60_000);
+  const end = Math.min(start + 2 * 3600_000, Date.parse(next.endsAt));
+  if (end <= start) return fallback;
+  return { plannedStartAt: new Date(start).toISOString(), plannedEndAt: new Date(end).toISOString() };
+}
