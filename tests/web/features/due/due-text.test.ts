@@ -4,6 +4,7 @@ import {
   banksToPlanWith,
   dueBasisText,
   dueDistance,
+  dueWhenText,
   formatDueOn,
   formatSiteTime,
   planVisitHref,
@@ -111,6 +112,26 @@ describe('Due list links', () => {
     expect(banksToPlanWith(page[3]!, page)).toEqual(['b4']);
     expect(planVisitHref(page[1]!, ['b2', 'b1'])).toBe(
       '/planner?siteId=s1&cabinetId=c1&bankIds=b2%2Cb1',
+    );
+  });
+});
+
+describe('dueWhenText', () => {
+  it('when a bank was never inspected and is overdue, then it reads due now rather than years overdue', () => {
+    expect(dueWhenText({ daysUntilDue: -6532, lastInspectedOn: null, basis: 'design-interval', inspectionIntervalDays: 365 })).toBe(
+      'never inspected: due now',
+    );
+  });
+
+  it('when a bank was inspected, then the distance and the reason', () => {
+    expect(dueWhenText({ daysUntilDue: -3, lastInspectedOn: '2025-11-01', basis: 'yearly', inspectionIntervalDays: 730 })).toBe(
+      '3 days overdue · at least yearly',
+    );
+  });
+
+  it('when a bank never inspected is not yet due, then the distance and the reason', () => {
+    expect(dueWhenText({ daysUntilDue: 40, lastInspectedOn: null, basis: 'design-interval', inspectionIntervalDays: 365 })).toBe(
+      'in 40 days · every 365 days (design)',
     );
   });
 });

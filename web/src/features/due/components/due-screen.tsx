@@ -20,8 +20,7 @@ import { useDueAreas, useDueDesigns, useDueSites } from '../api/get-filter-choic
 import { DUE_FILTERS, useDueParams, type DueParamsUpdate } from '../hooks/use-due-params';
 import {
   banksToPlanWith,
-  dueBasisText,
-  dueDistance,
+  dueWhenText,
   formatDueOn,
   formatSiteTime,
   planVisitHref,
@@ -344,7 +343,7 @@ function DueWhen({ bank }: { bank: DueBank }) {
         {formatDueOn(bank.dueOn)}
       </span>
       <span className="block text-xs text-tide-600">
-        {dueDistance(bank.daysUntilDue)} · {dueBasisText(bank.basis, bank.inspectionIntervalDays)}
+        {dueWhenText(bank)}
       </span>
     </span>
   );

@@ -43,6 +43,21 @@ function plural(n: number, unit: string): string {
 }
 
 /**
+ * How far away the due date is and why, in a few words. A bank never inspected that is already
+ * overdue reads "never inspected: due now": counting years since its install date says nothing
+ * a planner can act on.
+ *
+ * @example dueWhenText({ daysUntilDue: -6532, lastInspectedOn: null, basis: 'design-interval', inspectionIntervalDays: 365 }) // 'never inspected: due now'
+ * @example dueWhenText({ daysUntilDue: -3, lastInspectedOn: '2025-11-01', basis: 'yearly', inspectionIntervalDays: 730 }) // '3 days overdue · at least yearly'
+ */
+export function dueWhenText(
+  bank: Pick<DueBank, 'daysUntilDue' | 'lastInspectedOn' | 'basis' | 'inspectionIntervalDays'>,
+): string {
+  if (bank.lastInspectedOn === null && bank.daysUntilDue < 0) return 'never inspected: due now';
+  return `${dueDistance(bank.daysUntilDue)} · ${dueBasisText(bank.basis, bank.inspectionIntervalDays)}`;
+}
+
+/**
  * Why the bank is due then, in a few words.
  *
  * @example dueBasisText('yearly', 730) // 'at least yearly'
