@@ -10,11 +10,12 @@ import { TechnicianLoadView } from '../../features/technician-load/components/te
  */
 const slots: PlannerSlots = {
   newWindow: ({ siteId, areaId, onClose }) => <ShutdownWindowDialog siteId={siteId} areaId={areaId} onClose={onClose} />,
+  editWindow: ({ window, onClose }) => <ShutdownWindowDialog window={window} onClose={onClose} />,
   planWindow: ({ windowId, occurrenceStartsAt, siteId, areaId, onClose }) => (
     <PlanWindowDialog windowId={windowId} occurrenceStartsAt={occurrenceStartsAt} siteId={siteId} areaId={areaId} onClose={onClose} />
   ),
-  technicianLoad: ({ weekOn, onWeekChange, siteId, onVisitOpen }) => (
-    <TechnicianLoadView weekOn={weekOn} onWeekChange={onWeekChange} siteId={siteId} onVisitOpen={onVisitOpen} />
+  technicianLoad: ({ weekOn, onWeekChange, siteId, timeZone, onVisitOpen }) => (
+    <TechnicianLoadView weekOn={weekOn} onWeekChange={onWeekChange} siteId={siteId} timeZone={timeZone} onVisitOpen={onVisitOpen} />
   ),
 };
 

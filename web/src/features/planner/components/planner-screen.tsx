@@ -10,7 +10,7 @@ import { Select } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { useAreas, useSites } from '../api/lookups';
 import { usePlanRequestContext } from '../api/plan-request';
-import type { Visit, VisitState } from '../api/shapes';
+import type { ShutdownWindow, Visit, VisitState } from '../api/shapes';
 import { VISIT_STATES } from '../api/shapes';
 import { plannerWindowKeys, useWindowsInRange } from '../api/shutdown-windows';
 import { useVisits, visitKeys } from '../api/visits';
@@ -58,8 +58,17 @@ export interface PlannerSlots {
   planWindow?: (props: { windowId?: string; occurrenceStartsAt?: string; siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
   /** The dialog that adds a shutdown window. */
   newWindow?: (props: { siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
+  /** The dialog that changes or retires a shutdown window (every occurrence of it). */
+  editWindow?: (props: { window: ShutdownWindow; onClose: () => void }) => ReactNode;
   /** The technicians' week: hours planned against hours available; a visit opens in the Planner's panel. */
-  technicianLoad?: (props: { weekOn: string; onWeekChange: (weekOn: string) => void; siteId?: string; onVisitOpen: (visitId: string) => void }) => ReactNode;
+  technicianLoad?: (props: {
+    weekOn: string;
+    onWeekChange: (weekOn: string) => void;
+    siteId?: string;
+    /** The calendar's zone, for the week when no site is chosen. */
+    timeZone: string;
+    onVisitOpen: (visitId: string) => void;
+  }) => ReactNode;
 }
 
 type Dialog =
@@ -67,7 +76,8 @@ type Dialog =
   | { kind: 'visit'; visitId: string; listed?: Visit }
   | { kind: 'window'; event: WindowEvent }
   | { kind: 'plan-window'; windowId?: string; occurrenceStartsAt?: string }
-  | { kind: 'new-window' };
+  | { kind: 'new-window' }
+  | { kind: 'edit-window'; window: ShutdownWindow };
 
 const SHOWN_STATES: VisitState[] = VISIT_STATES.filter((s) => s !== 'cancelled');
 
@@ -286,6 +296,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
             weekOn,
             onWeekChange: (week) => setParams({ dateOn: week }),
             siteId: params.siteId || undefined,
+            timeZone,
             onVisitOpen: (visitId) => setDialog({ kind: 'visit', visitId }),
           })}
         </section>
@@ -322,6 +333,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
               ? () => setDialog({ kind: 'plan-window', windowId: dialog.event.window.id, occurrenceStartsAt: dialog.event.occurrence.startsAt })
               : undefined
           }
+          onEditWindow={slots.editWindow ? () => setDialog({ kind: 'edit-window', window: dialog.event.window }) : undefined}
           onPlanVisit={() => {
             const { occurrence, window } = dialog.event;
             const end = Math.min(Date.parse(occurrence.startsAt) + 2 * 3600_000, Date.parse(occurrence.endsAt));
@@ -344,6 +356,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
             onClose: closeAndRefresh,
           })
         : null}
+      {dialog?.kind === 'edit-window' && slots.editWindow ? slots.editWindow({ window: dialog.window, onClose: closeAndRefresh }) : null}
       {dialog?.kind === 'new-window' && slots.newWindow
         ? slots.newWindow({ siteId: params.siteId || undefined, areaId: params.areaId || undefined, onClose: closeAndRefresh })
         : null}

@@ -11,6 +11,7 @@ export function WindowPanel({
   canPlan,
   onPlanVisit,
   onPlanWindow,
+  onEditWindow,
   onClose,
 }: {
   event: WindowEvent;
@@ -18,6 +19,8 @@ export function WindowPanel({
   onPlanVisit: () => void;
   /** Absent while planning a whole window is not available. */
   onPlanWindow?: () => void;
+  /** Absent while changing windows is not available. */
+  onEditWindow?: () => void;
   onClose: () => void;
 }): ReactNode {
   const { window, occurrence } = event;
@@ -40,6 +43,7 @@ export function WindowPanel({
               </Button>
             ) : null}
             <Button onClick={onPlanVisit}>Plan one visit in it</Button>
+            {onEditWindow ? <Button onClick={onEditWindow}>Change or retire this window</Button> : null}
           </div>
         ) : null}
       </div>

@@ -43,6 +43,8 @@ export interface TechnicianLoadViewProps {
   weekOn?: string;
   onWeekChange?: (weekOn: string) => void;
   siteId?: string;
+  /** The zone the week is counted in when no site is chosen (the calendar's); default the browser's. */
+  timeZone?: string;
   onVisitOpen?: (visitId: string) => void;
 }
 
@@ -57,6 +59,7 @@ export function TechnicianLoadView({
   weekOn: controlledWeekOn,
   onWeekChange,
   siteId,
+  timeZone,
   onVisitOpen,
 }: TechnicianLoadViewProps) {
   const [browserZone] = useState(() => Intl.DateTimeFormat().resolvedOptions().timeZone);
@@ -73,7 +76,7 @@ export function TechnicianLoadView({
     if (!controlled) setOwnWeekOn(day);
     onWeekChange?.(day);
   };
-  const load = useTechnicianLoad({ weekOn, siteId, timeZone: siteId ? undefined : browserZone });
+  const load = useTechnicianLoad({ weekOn, siteId, timeZone: siteId ? undefined : (timeZone ?? browserZone) });
 
   return (
     <section aria-label="Technicians’ week" className="space-y-3">
