@@ -207,6 +207,11 @@ describe('the Planner (planner, desktop)', () => {
       await confirm.click();
     }
     await proposal.waitFor({ state: 'detached' });
+    // the Planner says what it did and where the visits went
+    await page
+      .getByRole('status')
+      .filter({ hasText: new RegExp(`^${proposed} visits? planned, the first `) })
+      .waitFor();
 
     await eventually(countVisits).toBe(proposed);
     const planned = await query<{ tag: string }>(

@@ -11,8 +11,15 @@ import { TechnicianLoadView } from '../../features/technician-load/components/te
 const slots: PlannerSlots = {
   newWindow: ({ siteId, areaId, onClose }) => <ShutdownWindowDialog siteId={siteId} areaId={areaId} onClose={onClose} />,
   editWindow: ({ window, onClose }) => <ShutdownWindowDialog window={window} onClose={onClose} />,
-  planWindow: ({ windowId, occurrenceStartsAt, siteId, areaId, onClose }) => (
-    <PlanWindowDialog windowId={windowId} occurrenceStartsAt={occurrenceStartsAt} siteId={siteId} areaId={areaId} onClose={onClose} />
+  planWindow: ({ windowId, occurrenceStartsAt, siteId, areaId, onConfirmed, onClose }) => (
+    <PlanWindowDialog
+      windowId={windowId}
+      occurrenceStartsAt={occurrenceStartsAt}
+      siteId={siteId}
+      areaId={areaId}
+      onConfirmed={onConfirmed}
+      onClose={onClose}
+    />
   ),
   technicianLoad: ({ weekOn, onWeekChange, siteId, timeZone, onVisitOpen }) => (
     <TechnicianLoadView weekOn={weekOn} onWeekChange={onWeekChange} siteId={siteId} timeZone={timeZone} onVisitOpen={onVisitOpen} />

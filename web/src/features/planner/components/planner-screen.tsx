@@ -41,7 +41,7 @@ import {
 import { describePlannerZone, plannerZone } from '../utils/planner-zone';
 import { slotTimes } from '../utils/visit-form';
 import { plannerPermissions } from '../utils/visit-rules';
-import { fromCalendarDate, fromZonedInputValue, toCalendarDate, zonedDateOn } from '../utils/zoned-time';
+import { formatZonedRange, fromCalendarDate, fromZonedInputValue, toCalendarDate, zonedDateOn } from '../utils/zoned-time';
 import { MoveVisitDialog, type ProposedTimes } from './move-visit-dialog';
 import { PlannerCalendar } from './planner-calendar';
 import { PlannerLegend } from './planner-legend';
@@ -55,7 +55,15 @@ export interface PlannerSlots {
    * The dialog that proposes and confirms the visits of one window occurrence: the one named, or
    * one the planner picks there (of the filtered site and area).
    */
-  planWindow?: (props: { windowId?: string; occurrenceStartsAt?: string; siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
+  planWindow?: (props: {
+    windowId?: string;
+    occurrenceStartsAt?: string;
+    siteId?: string;
+    areaId?: string;
+    /** The visits just planned (before onClose). */
+    onConfirmed: (visits: Visit[]) => void;
+    onClose: () => void;
+  }) => ReactNode;
   /** The dialog that adds a shutdown window. */
   newWindow?: (props: { siteId?: string; areaId?: string; onClose: () => void }) => ReactNode;
   /** The dialog that changes or retires a shutdown window (every occurrence of it). */
@@ -131,6 +139,7 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
           ...requestedVisitTimes((requested.windows.data?.items ?? []).flatMap((w) => w.occurrences ?? []), requestNow, tomorrowMorning(requestNow, requestZone)),
         }
       : null;
+  const [plannedNotice, setPlannedNotice] = useState<string | null>(null);
   const [move, setMove] = useState<{ visit: Visit; proposed: ProposedTimes } | null>(null);
 
   const visitEvents = (visits.data?.items ?? []).map((v) => visitEvent(v, timeZone, move?.visit.id === v.id ? move.proposed : undefined));
@@ -242,6 +251,14 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
         {zoneKnown ? describePlannerZone(zone, siteName) : 'Finding the sites’ time zones…'}
       </p>
       <PlannerLegend monthTint={view === 'month'} />
+      {plannedNotice ? (
+        <p role="status" className="flex items-start justify-between gap-3 rounded-lg bg-white px-3 py-2 text-sm font-medium text-tide-900 ring-2 ring-ok-600">
+          <span>{plannedNotice}</span>
+          <button type="button" className="shrink-0 underline" onClick={() => setPlannedNotice(null)}>
+            Dismiss
+          </button>
+        </p>
+      ) : null}
 
       {visits.isError ? (
         <ErrorPanel title="The visits could not be loaded" action={<Button onClick={() => void visits.refetch()}>Try again</Button>}>
@@ -353,6 +370,13 @@ export function PlannerScreen({ roles, slots }: { roles: readonly string[]; slot
             occurrenceStartsAt: dialog.occurrenceStartsAt,
             siteId: params.siteId || undefined,
             areaId: params.areaId || undefined,
+            onConfirmed: (planned) => {
+              // show where they went: the calendar moves to the first of them
+              const first = [...planned].sort((a, b) => Date.parse(a.plannedStartAt) - Date.parse(b.plannedStartAt))[0];
+              if (!first) return;
+              setParams({ dateOn: zonedDateOn(first.plannedStartAt, timeZone) });
+              setPlannedNotice(plannedNoticeText(planned, first, timeZone));
+            },
             onClose: closeAndRefresh,
           })
         : null}
@@ -369,4 +393,10 @@ function tomorrowMorning(nowMs: number, timeZone: string): { plannedStartAt: str
   const tomorrowOn = zonedDateOn(new Date(nowMs + 86_400_000), timeZone);
   const start = Date.parse(fromZonedInputValue(`${tomorrowOn}T08:00`, timeZone)!);
   return { plannedStartAt: new Date(start).toISOString(), plannedEndAt: new Date(start + 2 * 3600_000).toISOString() };
+}
+
+/** "6 visits planned, the first Thu 10 Dec, 07:00–08:54 Europe/London: they are on the calendar." */
+function plannedNoticeText(planned: readonly Visit[], first: Visit, timeZone: string): string {
+  const count = planned.length === 1 ? '1 visit planned' : `${planned.length} visits planned`;
+  return `${count}, the first ${formatZonedRange(first.plannedStartAt, first.plannedEndAt, timeZone)}: they are on the calendar and in the technicians' week below.`;
 }
