@@ -33,6 +33,10 @@ export function Component() {
             </dd>
           </dl>
         </Card>
+        {/* before the tokens: a technician on a phone comes here for the calendar, rarely for a token */}
+        <Card title="Your visits in your calendar">
+          <CalendarFeedSection />
+        </Card>
         <Card title="API tokens">
           <p className="mb-4 text-sm leading-relaxed text-tide-800">
             For scripts and logger gateways that send readings to Ebbline. A token acts for you,
@@ -47,9 +51,6 @@ export function Component() {
               <ApiTokenList />
             </div>
           </div>
-        </Card>
-        <Card title="Your visits in your calendar" className="lg:col-start-2">
-          <CalendarFeedSection />
         </Card>
       </div>
     </div>
