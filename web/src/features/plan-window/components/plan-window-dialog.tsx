@@ -15,13 +15,14 @@
  * transaction). Warnings the server raises (override-needed) are shown and may be accepted with
  * one reason. Works at 390 px: rows stack, controls wrap.
  */
-import { useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useId, useMemo, useState } from 'react';
 import { PLANNING_REASON_MIN_CHARS } from '../../../../../shared/constants/planning';
 import type { WindowProposal } from '../../../../../shared/schemas/plan-window';
 import type { Visit } from '../../../../../shared/schemas/visit';
 import { Button } from '../../../components/ui/button';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import { ErrorPanel } from '../../../components/ui/error-panel';
+import { Modal } from '../../../components/ui/modal';
 import { Spinner } from '../../../components/ui/spinner';
 import { ApiError } from '../../../lib/api-client';
 import { useConfirmWindowPlan, useWindowOccurrences, useWindowProposal } from '../api/proposal';
@@ -66,7 +67,7 @@ export function PlanWindowDialog({
     windowId && occurrenceStartsAt ? { windowId, startsAt: occurrenceStartsAt } : null,
   );
   return (
-    <DialogShell title="Plan a shutdown window" onClose={onClose}>
+    <Modal title="Plan a shutdown window" onClose={onClose} wide tall bodyClassName="space-y-4">
       <OccurrencePicker
         windowId={windowId}
         siteId={siteId}
@@ -86,52 +87,7 @@ export function PlanWindowDialog({
           }}
         />
       ) : null}
-    </DialogShell>
-  );
-}
-
-/** The browser's modal dialog: focus kept inside, Escape closes; full width on a phone. */
-function DialogShell({
-  title,
-  onClose,
-  children,
-}: {
-  title: string;
-  onClose: () => void;
-  children: ReactNode;
-}) {
-  const ref = useRef<HTMLDialogElement>(null);
-  const titleId = useId();
-  useEffect(() => {
-    const dialog = ref.current;
-    if (dialog && !dialog.open) dialog.showModal();
-    return () => dialog?.close();
-  }, []);
-  return (
-    <dialog
-      ref={ref}
-      aria-labelledby={titleId}
-      onCancel={(event) => {
-        event.preventDefault();
-        onClose();
-      }}
-      className="m-auto max-h-[94dvh] w-[calc(100%-1rem)] overflow-y-auto rounded-xl border border-tide-100 bg-white p-0 text-tide-950 shadow-xl backdrop:bg-tide-950/40 sm:max-w-3xl"
-    >
-      <div className="sticky top-0 z-10 flex items-start justify-between gap-3 border-b border-tide-100 bg-white px-4 py-3">
-        <h2 id={titleId} className="text-lg font-bold text-tide-900">
-          {title}
-        </h2>
-        <button
-          type="button"
-          onClick={onClose}
-          aria-label="Close"
-          className="-m-1 inline-flex min-h-10 min-w-10 items-center justify-center rounded-lg text-xl text-tide-600 hover:bg-tide-50"
-        >
-          ×
-        </button>
-      </div>
-      <div className="space-y-4 px-4 py-4">{children}</div>
-    </dialog>
+    </Modal>
   );
 }
 

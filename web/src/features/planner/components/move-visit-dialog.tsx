@@ -1,12 +1,12 @@
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Field, TextInput } from '../../../components/ui/field';
+import { Modal } from '../../../components/ui/modal';
 import { ApiError } from '../../../lib/api-client';
 import type { PlanningWarning, PlanningWarningKind, Visit } from '../api/shapes';
 import { useChangeVisit, useVisitCheck } from '../api/visits';
 import { isReasonGiven, kindsMissingReason, MIN_REASON_LENGTH, overridesFor, warningsFromIssues } from '../utils/warnings';
 import { formatZonedRange } from '../utils/zoned-time';
-import { Modal } from './modal';
 import { WarningOverrides } from './warning-overrides';
 
 export interface ProposedTimes {

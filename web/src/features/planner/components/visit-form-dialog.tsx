@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Field, Select, TextArea, TextInput } from '../../../components/ui/field';
+import { Modal } from '../../../components/ui/modal';
 import { Spinner } from '../../../components/ui/spinner';
 import { ApiError } from '../../../lib/api-client';
 import { formatSeconds } from '../../../lib/units';
@@ -10,7 +11,6 @@ import { useCreateVisit, useVisitCheck } from '../api/visits';
 import { draftInput, draftProblems, fieldErrors, weekOnOf, type VisitDraft } from '../utils/visit-form';
 import { kindsMissingReason, overridesFor, warningsFromIssues } from '../utils/warnings';
 import { fromZonedInputValue, toZonedInputValue } from '../utils/zoned-time';
-import { Modal } from './modal';
 import { WarningOverrides } from './warning-overrides';
 
 /**

@@ -6,6 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { DetailList } from '../../../components/ui/detail-list';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import { Field, TextInput } from '../../../components/ui/field';
+import { Modal } from '../../../components/ui/modal';
 import { Spinner } from '../../../components/ui/spinner';
 import { ApiError } from '../../../lib/api-client';
 import { formatSeconds } from '../../../lib/units';
@@ -18,7 +19,6 @@ import { weekOnOf } from '../utils/visit-form';
 import { visitActions, type PlannerPermissions } from '../utils/visit-rules';
 import { isReasonGiven, kindsMissingReason, MIN_REASON_LENGTH, overridesFor, warningsFromIssues } from '../utils/warnings';
 import { formatZonedInstant, formatZonedRange } from '../utils/zoned-time';
-import { Modal } from './modal';
 import { WarningOverrides } from './warning-overrides';
 
 /** A visit's state as a pill in its calendar colour; the word carries the meaning. */

@@ -1,9 +1,9 @@
 import type { ReactNode } from 'react';
 import { Button } from '../../../components/ui/button';
 import { DetailList } from '../../../components/ui/detail-list';
+import { Modal } from '../../../components/ui/modal';
 import type { WindowEvent } from '../utils/calendar-events';
 import { formatZonedRange } from '../utils/zoned-time';
-import { Modal } from './modal';
 
 /** A shutdown window's occurrence: when, where, and the ways to plan visits into it. */
 export function WindowPanel({

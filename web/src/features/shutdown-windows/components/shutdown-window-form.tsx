@@ -20,12 +20,12 @@ import {
 import type { ShutdownWindow } from '../../../../../shared/schemas/shutdown-window';
 import { Button } from '../../../components/ui/button';
 import { Field, Select, TextArea, TextInput } from '../../../components/ui/field';
+import { Modal } from '../../../components/ui/modal';
 import { ApiError } from '../../../lib/api-client';
 import { useAreasOfSite, useSitesInUse } from '../api/places';
 import { useRetireShutdownWindow, useSaveShutdownWindow } from '../api/shutdown-windows';
 import { FORM_FIELD_OF_PATH, windowBodyOf, type WindowFormProblems } from '../utils/window-form';
 import { windowTimeText } from '../utils/window-times';
-import { WindowModal } from './window-modal';
 
 type Problems = WindowFormProblems & { siteId?: string };
 
@@ -334,7 +334,7 @@ export function ShutdownWindowDialog({
   onSaved?: (window: ShutdownWindow) => void;
 }) {
   return (
-    <WindowModal title={window ? `Change ${window.title}` : 'New shutdown window'} onClose={onClose}>
+    <Modal title={window ? `Change ${window.title}` : 'New shutdown window'} onClose={onClose} width="large">
       <ShutdownWindowForm
         window={window}
         siteId={siteId}
@@ -346,6 +346,6 @@ export function ShutdownWindowDialog({
           onClose();
         }}
       />
-    </WindowModal>
+    </Modal>
   );
 }
