@@ -133,8 +133,11 @@ export interface ImportPreviewRow {
   questions: ImportQuestion[];
 }
 
-/** What the import found in a file; `committed` is true once it stored the rows. */
-export interface ImportPreview {
+/**
+ * What an import found in a file, whatever it imports: counts, the first problems and questions,
+ * and the first rows; `committed` is true once it stored the rows.
+ */
+export interface ImportOutcome<Row> {
   fileName: string;
   /** Data rows in the file. */
   rowCount: number;
@@ -152,11 +155,15 @@ export interface ImportPreview {
   /** Questions found but not listed in `questions`: questionCount − questions.length. */
   questionsNotListed: number;
   /** The first rows of the file (at most IMPORT_ROWS_LISTED), each with its own problems. */
-  rows: ImportPreviewRow[];
-  /** New areas the import would create, as "site code / area". */
-  newAreas: string[];
+  rows: Row[];
   /** Columns of the file that the import does not know and leaves out. */
   ignoredColumns: string[];
   committed: boolean;
   createdCount: number;
+}
+
+/** What the cabinet import found in a file; `committed` is true once it stored the rows. */
+export interface ImportPreview extends ImportOutcome<ImportPreviewRow> {
+  /** New areas the import would create, as "site code / area". */
+  newAreas: string[];
 }

@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 import { isStorableText } from './common';
-import type { ImportProblem, ImportQuestion } from './cabinet-import';
+import type { ImportOutcome, ImportProblem, ImportQuestion } from './cabinet-import';
 
 export type { ImportProblem, ImportQuestion } from './cabinet-import';
 
@@ -63,22 +63,8 @@ export interface ShutdownWindowImportPreviewRow {
   questions: ImportQuestion[];
 }
 
-/** What the import found in a file; `committed` is true once it stored the rows. */
-export interface ShutdownWindowImportPreview {
-  fileName: string;
-  rowCount: number;
-  validCount: number;
-  problemCount: number;
-  /** The first problems in row order (at most IMPORT_PROBLEMS_LISTED). */
-  problems: ImportProblem[];
-  problemsNotListed: number;
-  /** Unlikely values (a start in the past, a window longer than a week), to confirm before importing. */
-  questionCount: number;
-  questions: ImportQuestion[];
-  questionsNotListed: number;
-  /** The first rows (at most IMPORT_ROWS_LISTED). */
-  rows: ShutdownWindowImportPreviewRow[];
-  ignoredColumns: string[];
-  committed: boolean;
-  createdCount: number;
-}
+/**
+ * What the import found in a file; `committed` is true once it stored the rows. Its questions
+ * are unlikely values (a start in the past, a window longer than a week), to confirm before importing.
+ */
+export type ShutdownWindowImportPreview = ImportOutcome<ShutdownWindowImportPreviewRow>;

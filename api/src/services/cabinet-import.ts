@@ -4,7 +4,6 @@
  */
 import Papa from 'papaparse';
 import { Op, type Transaction } from 'sequelize';
-import { IMPORT_MAX_ROWS, IMPORT_PROBLEMS_LISTED, IMPORT_ROWS_LISTED } from '../../../shared/constants/register';
 import {
   CABINET_IMPORT_COLUMNS,
   cabinetImportRowSchema,
@@ -15,27 +14,24 @@ import {
   type ImportQuestion,
 } from '../../../shared/schemas/cabinet-import';
 import { sequelize } from '../db/sequelize';
-import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { Cabinet } from '../models/cabinet';
 import { Site } from '../models/site';
-import { recordAuditBatch, type AuditRecordInput } from './audit';
-import { readCsvInChunks, yieldToEventLoop } from './csv-in-chunks';
+import type { AuditRecordInput } from './audit';
+import {
+  importPreviewOf,
+  readImportRows,
+  recordImportAudit,
+  refuseUnlessImportable,
+  sortProblemsByColumn,
+  writeInStatements,
+  type ImportFile,
+  type ImportRead,
+} from './csv-import';
 import { AREA_AUDITED, CABINET_AUDITED } from './audited-fields';
 import { cabinetQuestions, dateOn } from './register-checks';
 import { snapshotOf } from './register-records';
 import type { UnitOfWork } from './unit-of-work';
-
-/** An uploaded file: its name and bytes. */
-export interface ImportFile {
-  name: string;
-  bytes: Buffer;
-}
-
-const KNOWN_COLUMNS = new Set<string>(CABINET_IMPORT_COLUMNS.map((c) => c.name));
-const REQUIRED_COLUMNS = CABINET_IMPORT_COLUMNS.filter((c) => c.required).map((c) => c.name);
-// spreadsheet numbering: the header is row 1, the first data row is row 2
-const FIRST_DATA_ROW = 2;
 
 /** The template: the header and two example rows. */
 export function cabinetImportTemplate(): string {
@@ -56,11 +52,6 @@ function decode(bytes: Buffer): string {
   }
 }
 
-/** "Drive Make", "drive-make" and "DRIVE_MAKE" all name the column drive_make. */
-function columnName(header: string): string {
-  return header.trim().toLowerCase().replace(/[\s-]+/g, '_');
-}
-
 interface ReadRow {
   row: number;
   values: Record<string, string>;
@@ -72,11 +63,7 @@ interface ReadRow {
   newArea: boolean;
 }
 
-interface ReadFile {
-  fileName: string;
-  rows: ReadRow[];
-  fileProblems: ImportProblem[];
-  ignoredColumns: string[];
+interface ReadFile extends ImportRead<ReadRow> {
   newAreas: Map<string, { siteId: string; name: string }>;
 }
 
@@ -89,57 +76,28 @@ function rowQuestions(row: number, data: CabinetImportRow, asOfOn: string): Impo
   return cabinetQuestions(figures, 'all', asOfOn).map((issue) => ({ row, column: COLUMN_OF_FIELD[issue.path] ?? issue.path, message: issue.message }));
 }
 
-/** Rows checked between two turns of the event loop (a few milliseconds of schema checks). */
-const ROWS_PER_TURN = 250;
-
-/** The row limit, as the answer names it. */
-function tooManyRows(): AppError {
-  const limit = IMPORT_MAX_ROWS.toLocaleString('en-GB');
-  const message = `The file has more than ${limit} rows; import at most ${limit} at a time. Split it and import the parts.`;
-  return new AppError('file-too-large', message, [{ path: 'file', message }]);
-}
-
 /**
  * Reads the file and checks every row against the schema and the file itself (no database).
  * Parsing and checking go in slices that let other requests run between them.
  * @throws AppError `file-too-large` as soon as the file passes IMPORT_MAX_ROWS data rows
  */
 async function readRows(file: ImportFile, asOfOn: string): Promise<ReadFile> {
-  const csv = await readCsvInChunks(decode(file.bytes), { maxRows: IMPORT_MAX_ROWS, transformHeader: columnName });
-  if (csv.overRowLimit) throw tooManyRows();
-  const fields = csv.fields;
-  const fileProblems: ImportProblem[] = [];
-  for (const column of REQUIRED_COLUMNS) {
-    if (!fields.includes(column)) fileProblems.push({ row: 1, column, reason: 'this column is missing from the header' });
-  }
-  if (csv.rows.length === 0) fileProblems.push({ row: 1, column: '', reason: 'the file has no data rows under the header' });
-  const ignoredColumns = fields.filter((f) => f && !KNOWN_COLUMNS.has(f));
-
-  const rows: ReadRow[] = [];
-  for (let start = 0; start < csv.rows.length; start += ROWS_PER_TURN) {
-    if (start > 0) await yieldToEventLoop();
-    for (const [offset, raw] of csv.rows.slice(start, start + ROWS_PER_TURN).entries()) {
-      const row = start + offset + FIRST_DATA_ROW;
-      const values: Record<string, string> = {};
-      for (const column of KNOWN_COLUMNS) values[column] = (raw[column] ?? '').toString();
-      const result = cabinetImportRowSchema.safeParse(values);
-      const problems: ImportProblem[] = result.success
-        ? []
-        : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
-      const questions = result.success ? rowQuestions(row, result.data, asOfOn) : [];
-      rows.push({ row, values, data: result.success ? result.data : null, problems, questions, areaId: null, siteId: null, newArea: false });
-    }
-  }
-  for (const error of csv.errors) {
-    const target = error.dataIndex !== undefined ? rows[error.dataIndex] : undefined;
-    const problem = {
-      row: (error.dataIndex ?? 0) + FIRST_DATA_ROW,
-      column: '',
-      reason: error.code === 'TooFewFields' ? 'the row has fewer cells than the header' : error.code === 'TooManyFields' ? 'the row has more cells than the header' : error.message,
-    };
-    if (target) target.problems.push(problem);
-    else fileProblems.push(problem);
-  }
+  const { rows, ...rest } = await readImportRows(file, {
+    columns: CABINET_IMPORT_COLUMNS,
+    decode,
+    schema: cabinetImportRowSchema,
+    tooManyCellsReason: 'the row has more cells than the header',
+    toRow: (row, values, data, problems): ReadRow => ({
+      row,
+      values,
+      data,
+      problems,
+      questions: data ? rowQuestions(row, data, asOfOn) : [],
+      areaId: null,
+      siteId: null,
+      newArea: false,
+    }),
+  });
 
   // a tag twice in the file
   const firstRowOfTag = new Map<string, number>();
@@ -150,7 +108,7 @@ async function readRows(file: ImportFile, asOfOn: string): Promise<ReadFile> {
     if (first !== undefined) r.problems.push({ row: r.row, column: 'tag', reason: `${r.data.tag} is also on row ${first}` });
     else firstRowOfTag.set(key, r.row);
   }
-  return { fileName: file.name, rows, fileProblems, ignoredColumns, newAreas: new Map() };
+  return { ...rest, rows, newAreas: new Map() };
 }
 
 /** Checks the rows read against the register: sites by code, areas by name, tags in use. */
@@ -194,84 +152,30 @@ async function checkAgainstRegister(read: ReadFile, transaction?: Transaction): 
       if (!newAreas.has(key)) newAreas.set(key, { siteId: site.id, name: data.area });
     }
   }
-  for (const r of rows) r.problems.sort((a, b) => order(a.column) - order(b.column));
+  sortProblemsByColumn(rows, CABINET_IMPORT_COLUMNS);
   return { ...read, newAreas };
-}
-
-/** The refusal of a commit: how many problems on how many rows, the first ones listed. */
-function importRejected(problems: ImportProblem[]): AppError {
-  const rowsWithProblems = new Set(problems.map((p) => p.row)).size;
-  const listed = problems.slice(0, IMPORT_PROBLEMS_LISTED);
-  const more = problems.length > listed.length ? ` The first ${listed.length} are listed; ${problems.length - listed.length} more are not.` : '';
-  return new AppError(
-    'import-rejected',
-    `${problems.length} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.${more}`,
-    listed.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
-  );
-}
-
-function order(column: string): number {
-  const i = CABINET_IMPORT_COLUMNS.findIndex((c) => c.name === column);
-  return i < 0 ? -1 : i;
-}
-
-/** The refusal of a commit whose unlikely values are not confirmed: the rows and columns, the first ones listed. */
-function questionsUnconfirmed(questions: ImportQuestion[]): AppError {
-  const rowsAsked = new Set(questions.map((q) => q.row)).size;
-  const listed = questions.slice(0, IMPORT_PROBLEMS_LISTED);
-  const more = questions.length > listed.length ? ` The first ${listed.length} are listed; ${questions.length - listed.length} more are not.` : '';
-  return new AppError(
-    'confirmation-needed',
-    `Are you sure? ${questions.length} unlikely value(s) on ${rowsAsked} row(s); nothing was imported. Correct them in the file, or confirm them to import it as it is.${more}`,
-    listed.map((q) => ({ path: `row ${q.row}, column ${q.column}`, message: q.message })),
-  );
-}
-
-/** Every question of the file, in row order. */
-function allQuestions(read: ReadFile): ImportQuestion[] {
-  return read.rows.flatMap((r) => r.questions);
-}
-
-/** Every problem of the file, in row order. */
-function allProblems(read: ReadFile): ImportProblem[] {
-  return [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
 }
 
 /** The preview: counts of everything, the first problems and rows one by one (the answer stays small). */
 function toPreview(read: ReadFile, committed: boolean, createdCount: number): ImportPreview {
-  const problems = allProblems(read);
-  const questions = allQuestions(read);
   const siteCodeOf = new Map(read.rows.filter((r) => r.siteId).map((r) => [r.siteId!, r.data!.site_code]));
-  const rows: ImportPreviewRow[] = read.rows.slice(0, IMPORT_ROWS_LISTED).map((r) => ({
-    row: r.row,
-    tag: r.data?.tag ?? r.values.tag ?? '',
-    siteCode: r.data?.site_code ?? r.values.site_code ?? '',
-    area: r.data?.area ?? r.values.area ?? '',
-    newArea: r.newArea,
-    values: r.values,
-    problems: r.problems,
-    questions: r.questions,
-  }));
-  return {
-    fileName: read.fileName,
-    rowCount: read.rows.length,
+  return importPreviewOf(read, {
     validCount: read.rows.filter((r) => r.problems.length === 0 && r.data).length,
-    problemCount: problems.length,
-    problems: problems.slice(0, IMPORT_PROBLEMS_LISTED),
-    problemsNotListed: Math.max(0, problems.length - IMPORT_PROBLEMS_LISTED),
-    questionCount: questions.length,
-    questions: questions.slice(0, IMPORT_PROBLEMS_LISTED),
-    questionsNotListed: Math.max(0, questions.length - IMPORT_PROBLEMS_LISTED),
-    rows,
-    newAreas: [...read.newAreas.values()].map((a) => `${siteCodeOf.get(a.siteId) ?? ''} / ${a.name}`),
-    ignoredColumns: read.ignoredColumns,
+    toPreviewRow: (r): ImportPreviewRow => ({
+      row: r.row,
+      tag: r.data?.tag ?? r.values.tag ?? '',
+      siteCode: r.data?.site_code ?? r.values.site_code ?? '',
+      area: r.data?.area ?? r.values.area ?? '',
+      newArea: r.newArea,
+      values: r.values,
+      problems: r.problems,
+      questions: r.questions,
+    }),
+    extra: { newAreas: [...read.newAreas.values()].map((a) => `${siteCodeOf.get(a.siteId) ?? ''} / ${a.name}`) },
     committed,
     createdCount,
-  };
+  });
 }
-
-/** Cabinets (and their audit entries) written in one statement of an import. */
-const ROWS_PER_STATEMENT = 250;
 
 /** Inserts rows of a checked import as cabinets, in one statement. */
 function insertCabinets(rows: ReadRow[], areaIdByKey: Map<string, string>, transaction: Transaction): Promise<Cabinet[]> {
@@ -323,10 +227,7 @@ export async function importCabinets(uow: UnitOfWork, file: ImportFile, confirme
   // a table lock keeps two imports (or an import and a form) from taking the same tag at once
   await sequelize.query('LOCK TABLE cabinets IN SHARE ROW EXCLUSIVE MODE', { transaction });
   const read = await checkAgainstRegister(rowsRead, transaction);
-  const problems = allProblems(read);
-  if (problems.length > 0) throw importRejected(problems);
-  const questions = allQuestions(read);
-  if (questions.length > 0 && !confirmed) throw questionsUnconfirmed(questions);
+  refuseUnlessImportable(read, confirmed);
   const audit: AuditRecordInput[] = [];
   const areaIdByKey = new Map<string, string>();
   for (const [key, area] of read.newAreas) {
@@ -341,11 +242,7 @@ export async function importCabinets(uow: UnitOfWork, file: ImportFile, confirme
       after: snapshotOf(created, AREA_AUDITED),
     });
   }
-  const cabinets: Cabinet[] = [];
-  // in statements of a few hundred rows: building one statement never holds other requests up for long
-  for (let start = 0; start < read.rows.length; start += ROWS_PER_STATEMENT) {
-    cabinets.push(...(await insertCabinets(read.rows.slice(start, start + ROWS_PER_STATEMENT), areaIdByKey, transaction)));
-  }
+  const cabinets = await writeInStatements(read.rows, (rows) => insertCabinets(rows, areaIdByKey, transaction));
   // bulkCreate returns the cabinets in the order of the rows
   for (const [i, cabinet] of cabinets.entries()) {
     const asked = read.rows[i]?.questions.map((q) => q.column) ?? [];
@@ -358,9 +255,6 @@ export async function importCabinets(uow: UnitOfWork, file: ImportFile, confirme
       after: snapshotOf(cabinet, CABINET_AUDITED),
     });
   }
-  // the audit entries in the same few hundreds: one statement's JSON never holds other requests up for long
-  for (let start = 0; start < audit.length; start += ROWS_PER_STATEMENT) {
-    await recordAuditBatch(uow, audit.slice(start, start + ROWS_PER_STATEMENT));
-  }
+  await recordImportAudit(uow, audit);
   return toPreview(read, true, cabinets.length);
 }

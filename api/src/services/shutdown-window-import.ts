@@ -6,7 +6,6 @@
  */
 import Papa from 'papaparse';
 import { Op, type Transaction } from 'sequelize';
-import { IMPORT_MAX_ROWS, IMPORT_PROBLEMS_LISTED, IMPORT_ROWS_LISTED } from '../../../shared/constants/register';
 import { decodeTextBytes } from '../../../shared/domain/text-decoding';
 import {
   instantOfLocalWallTime,
@@ -27,19 +26,21 @@ import { AppError } from '../errors';
 import { Area } from '../models/area';
 import { ShutdownWindow } from '../models/shutdown-window';
 import { Site } from '../models/site';
-import { recordAuditBatch, type AuditRecordInput } from './audit';
-import type { ImportFile } from './cabinet-import';
-import { readCsvInChunks, yieldToEventLoop } from './csv-in-chunks';
+import type { AuditRecordInput } from './audit';
+import {
+  importPreviewOf,
+  readImportRows,
+  recordImportAudit,
+  refuseUnlessImportable,
+  sortProblemsByColumn,
+  writeInStatements,
+  type ImportFile,
+  type ImportRead,
+} from './csv-import';
 import { snapshotOf } from './register-records';
 import { SHUTDOWN_WINDOW_AUDITED } from './shutdown-windows';
 import type { UnitOfWork } from './unit-of-work';
 
-const KNOWN_COLUMNS = new Set<string>(SHUTDOWN_WINDOW_IMPORT_COLUMNS.map((c) => c.name));
-const REQUIRED_COLUMNS = SHUTDOWN_WINDOW_IMPORT_COLUMNS.filter((c) => c.required).map((c) => c.name);
-// spreadsheet numbering: the header is row 1, the first data row is row 2
-const FIRST_DATA_ROW = 2;
-const ROWS_PER_TURN = 250;
-const ROWS_PER_STATEMENT = 250;
 /** A window longer than this is asked about (a shutdown of more than a week is unusual). */
 const LONG_WINDOW_MS = 7 * 86_400_000;
 
@@ -51,11 +52,6 @@ export function shutdownWindowImportTemplate(): string {
     ['M', 'Boiler house', 'Annual inspection', '2027-03-15 07:00', '2027-03-17 17:00', '', ''],
   ];
   return Papa.unparse({ fields: header, data: examples }, { newline: '\r\n' }) + '\r\n';
-}
-
-/** "Start", " START " and "start" all name the column start. */
-function columnName(header: string): string {
-  return header.trim().toLowerCase().replace(/[\s-]+/g, '_');
 }
 
 interface ReadRow {
@@ -74,18 +70,7 @@ interface ReadRow {
   recurrence: string | null;
 }
 
-interface ReadFile {
-  fileName: string;
-  rows: ReadRow[];
-  fileProblems: ImportProblem[];
-  ignoredColumns: string[];
-}
-
-function tooManyRows(): AppError {
-  const limit = IMPORT_MAX_ROWS.toLocaleString('en-GB');
-  const message = `The file has more than ${limit} rows; import at most ${limit} at a time. Split it and import the parts.`;
-  return new AppError('file-too-large', message, [{ path: 'file', message }]);
-}
+type ReadFile = ImportRead<ReadRow>;
 
 function decode(bytes: Buffer): string {
   try {
@@ -98,35 +83,20 @@ function decode(bytes: Buffer): string {
 }
 
 /** Reads the file and checks every row's cells (no database). @throws AppError `file-too-large` */
-async function readRows(file: ImportFile): Promise<ReadFile> {
-  const csv = await readCsvInChunks(decode(file.bytes), { maxRows: IMPORT_MAX_ROWS, transformHeader: columnName });
-  if (csv.overRowLimit) throw tooManyRows();
-  const fileProblems: ImportProblem[] = [];
-  for (const column of REQUIRED_COLUMNS) {
-    if (!csv.fields.includes(column)) fileProblems.push({ row: 1, column, reason: 'this column is missing from the header' });
-  }
-  if (csv.rows.length === 0) fileProblems.push({ row: 1, column: '', reason: 'the file has no data rows under the header' });
-  const ignoredColumns = csv.fields.filter((f) => f && !KNOWN_COLUMNS.has(f));
-
-  const rows: ReadRow[] = [];
-  for (let start = 0; start < csv.rows.length; start += ROWS_PER_TURN) {
-    if (start > 0) await yieldToEventLoop();
-    for (const [offset, raw] of csv.rows.slice(start, start + ROWS_PER_TURN).entries()) {
-      const row = start + offset + FIRST_DATA_ROW;
-      const values: Record<string, string> = {};
-      for (const column of KNOWN_COLUMNS) values[column] = (raw[column] ?? '').toString();
-      const result = shutdownWindowImportRowSchema.safeParse(values);
-      const problems: ImportProblem[] = result.success
-        ? []
-        : result.error.issues.map((issue) => ({ row, column: String(issue.path[0] ?? ''), reason: issue.message }));
-      const data = result.success ? result.data : null;
+function readRows(file: ImportFile): Promise<ReadFile> {
+  return readImportRows(file, {
+    columns: SHUTDOWN_WINDOW_IMPORT_COLUMNS,
+    decode,
+    schema: shutdownWindowImportRowSchema,
+    tooManyCellsReason: 'the row has more cells than the header (a recurrence with ; in a ;-separated file must be in quotes)',
+    toRow: (row, values, data, problems): ReadRow => {
       let recurrence: string | null = null;
       if (data) {
         const check = normalizeRecurrence(data.recurrence);
         if (check.ok) recurrence = check.recurrence;
         else problems.push({ row, column: 'recurrence', reason: check.message });
       }
-      rows.push({
+      return {
         row,
         values,
         problems,
@@ -140,25 +110,9 @@ async function readRows(file: ImportFile): Promise<ReadFile> {
         startsAt: null,
         endsAt: null,
         recurrence,
-      });
-    }
-  }
-  for (const error of csv.errors) {
-    const target = error.dataIndex !== undefined ? rows[error.dataIndex] : undefined;
-    const problem = {
-      row: (error.dataIndex ?? 0) + FIRST_DATA_ROW,
-      column: '',
-      reason:
-        error.code === 'TooFewFields'
-          ? 'the row has fewer cells than the header'
-          : error.code === 'TooManyFields'
-            ? 'the row has more cells than the header (a recurrence with ; in a ;-separated file must be in quotes)'
-            : error.message,
-    };
-    if (target) target.problems.push(problem);
-    else fileProblems.push(problem);
-  }
-  return { fileName: file.name, rows, fileProblems, ignoredColumns };
+      };
+    },
+  });
 }
 
 /**
@@ -245,73 +199,31 @@ async function checkAgainstRegister(read: ReadFile, asOf: Date, transaction?: Tr
         r.problems.push({ row: r.row, column: 'title', reason: `${r.title} at this start is already in the register` });
     }
   }
-  const order = (column: string) => SHUTDOWN_WINDOW_IMPORT_COLUMNS.findIndex((c) => c.name === column);
-  for (const r of read.rows) r.problems.sort((a, b) => order(a.column) - order(b.column));
+  sortProblemsByColumn(read.rows, SHUTDOWN_WINDOW_IMPORT_COLUMNS);
   return read;
 }
 
-function allProblems(read: ReadFile): ImportProblem[] {
-  return [...read.fileProblems, ...read.rows.flatMap((r) => r.problems)];
-}
-
-function allQuestions(read: ReadFile): ImportQuestion[] {
-  return read.rows.flatMap((r) => r.questions);
-}
-
-function importRejected(problems: ImportProblem[]): AppError {
-  const rowsWithProblems = new Set(problems.map((p) => p.row)).size;
-  const listed = problems.slice(0, IMPORT_PROBLEMS_LISTED);
-  const more = problems.length > listed.length ? ` The first ${listed.length} are listed; ${problems.length - listed.length} more are not.` : '';
-  return new AppError(
-    'import-rejected',
-    `${problems.length} problem(s) on ${rowsWithProblems} row(s); nothing was imported. Fix the file and upload it again.${more}`,
-    listed.map((p) => ({ path: `row ${p.row}${p.column ? `, column ${p.column}` : ''}`, message: p.reason })),
-  );
-}
-
-function questionsUnconfirmed(questions: ImportQuestion[]): AppError {
-  const rowsAsked = new Set(questions.map((q) => q.row)).size;
-  const listed = questions.slice(0, IMPORT_PROBLEMS_LISTED);
-  const more = questions.length > listed.length ? ` The first ${listed.length} are listed; ${questions.length - listed.length} more are not.` : '';
-  return new AppError(
-    'confirmation-needed',
-    `Are you sure? ${questions.length} unlikely value(s) on ${rowsAsked} row(s); nothing was imported. Correct them in the file, or confirm them to import it as it is.${more}`,
-    listed.map((q) => ({ path: `row ${q.row}, column ${q.column}`, message: q.message })),
-  );
-}
-
 function toPreview(read: ReadFile, committed: boolean, createdCount: number): ShutdownWindowImportPreview {
-  const problems = allProblems(read);
-  const questions = allQuestions(read);
-  const rows: ShutdownWindowImportPreviewRow[] = read.rows.slice(0, IMPORT_ROWS_LISTED).map((r) => ({
-    row: r.row,
-    site: r.site,
-    area: r.area,
-    title: r.title,
-    timeZone: r.timeZone,
-    startsAt: r.startsAt,
-    endsAt: r.endsAt,
-    recurrence: r.recurrence,
-    recurrenceText: recurrenceText(r.recurrence),
-    values: r.values,
-    problems: r.problems,
-    questions: r.questions,
-  }));
-  return {
-    fileName: read.fileName,
-    rowCount: read.rows.length,
+  return importPreviewOf(read, {
     validCount: read.rows.filter((r) => r.problems.length === 0).length,
-    problemCount: problems.length,
-    problems: problems.slice(0, IMPORT_PROBLEMS_LISTED),
-    problemsNotListed: Math.max(0, problems.length - IMPORT_PROBLEMS_LISTED),
-    questionCount: questions.length,
-    questions: questions.slice(0, IMPORT_PROBLEMS_LISTED),
-    questionsNotListed: Math.max(0, questions.length - IMPORT_PROBLEMS_LISTED),
-    rows,
-    ignoredColumns: read.ignoredColumns,
+    toPreviewRow: (r): ShutdownWindowImportPreviewRow => ({
+      row: r.row,
+      site: r.site,
+      area: r.area,
+      title: r.title,
+      timeZone: r.timeZone,
+      startsAt: r.startsAt,
+      endsAt: r.endsAt,
+      recurrence: r.recurrence,
+      recurrenceText: recurrenceText(r.recurrence),
+      values: r.values,
+      problems: r.problems,
+      questions: r.questions,
+    }),
+    extra: {},
     committed,
     createdCount,
-  };
+  });
 }
 
 /**
@@ -334,27 +246,20 @@ export async function importShutdownWindows(uow: UnitOfWork, file: ImportFile, c
   // one import at a time: two uploads of one file cannot both pass the "already in the register" check
   await sequelize.query('LOCK TABLE shutdown_windows IN SHARE ROW EXCLUSIVE MODE', { transaction });
   const read = await checkAgainstRegister(rowsRead, uow.now, transaction);
-  const problems = allProblems(read);
-  if (problems.length > 0) throw importRejected(problems);
-  const questions = allQuestions(read);
-  if (questions.length > 0 && !confirmed) throw questionsUnconfirmed(questions);
-  const created: ShutdownWindow[] = [];
-  for (let start = 0; start < read.rows.length; start += ROWS_PER_STATEMENT) {
-    const slice = read.rows.slice(start, start + ROWS_PER_STATEMENT);
-    created.push(
-      ...(await ShutdownWindow.bulkCreate(
-        slice.map((r) => ({
-          areaId: r.areaId!,
-          title: r.title,
-          startsAt: new Date(r.startsAt!),
-          endsAt: new Date(r.endsAt!),
-          recurrence: r.recurrence,
-          notes: r.notes,
-        })),
-        { transaction, returning: true },
-      )),
-    );
-  }
+  refuseUnlessImportable(read, confirmed);
+  const created = await writeInStatements(read.rows, (slice) =>
+    ShutdownWindow.bulkCreate(
+      slice.map((r) => ({
+        areaId: r.areaId!,
+        title: r.title,
+        startsAt: new Date(r.startsAt!),
+        endsAt: new Date(r.endsAt!),
+        recurrence: r.recurrence,
+        notes: r.notes,
+      })),
+      { transaction, returning: true },
+    ),
+  );
   const audit: AuditRecordInput[] = created.map((window, i) => {
     const asked = read.rows[i]?.questions.map((q) => q.column) ?? [];
     return {
@@ -366,8 +271,6 @@ export async function importShutdownWindows(uow: UnitOfWork, file: ImportFile, c
       after: snapshotOf(window, SHUTDOWN_WINDOW_AUDITED),
     };
   });
-  for (let start = 0; start < audit.length; start += ROWS_PER_STATEMENT) {
-    await recordAuditBatch(uow, audit.slice(start, start + ROWS_PER_STATEMENT));
-  }
+  await recordImportAudit(uow, audit);
   return toPreview(read, true, created.length);
 }
