@@ -90,37 +90,24 @@ export async function listVisits(query: VisitListQuery, viewer: VisitViewer): Pr
   const conditions: string[] = [];
   const replacements: Record<string, unknown> = { viewerId: viewer.id };
   if (!readsAllVisits(viewer)) conditions.push(VISIBLE_TO_TECHNICIAN);
-  if (query.from) {
-    conditions.push('v.planned_end_at > :from');
-    replacements.from = query.from;
-  }
-  if (query.to) {
-    conditions.push('v.planned_start_at < :to');
-    replacements.to = query.to;
-  }
-  if (query.state) {
-    conditions.push('v.state IN (:states)');
-    replacements.states = query.state;
-  }
-  if (query.technicianId) {
-    conditions.push('EXISTS (SELECT 1 FROM visit_technicians t WHERE t.visit_id = v.id AND t.user_id = :technicianId)');
-    replacements.technicianId = query.technicianId;
-  }
-  if (query.mine) {
-    conditions.push('EXISTS (SELECT 1 FROM visit_technicians me WHERE me.visit_id = v.id AND me.user_id = :viewerId)');
-  }
-  if (query.siteId) {
-    conditions.push('a.site_id = :siteId');
-    replacements.siteId = query.siteId;
-  }
-  if (query.areaId) {
-    conditions.push('c.area_id = :areaId');
-    replacements.areaId = query.areaId;
-  }
-  if (query.cabinetId) {
-    conditions.push('v.cabinet_id = :cabinetId');
-    replacements.cabinetId = query.cabinetId;
-  }
+  /** Keeps only the visits matching `condition` when the query names `value` (kept as `:name` where the condition reads it). */
+  const filterBy = (value: unknown, condition: string, name?: string) => {
+    if (!value) return;
+    conditions.push(condition);
+    if (name) replacements[name] = value;
+  };
+  filterBy(query.from, 'v.planned_end_at > :from', 'from');
+  filterBy(query.to, 'v.planned_start_at < :to', 'to');
+  filterBy(query.state, 'v.state IN (:states)', 'states');
+  filterBy(
+    query.technicianId,
+    'EXISTS (SELECT 1 FROM visit_technicians t WHERE t.visit_id = v.id AND t.user_id = :technicianId)',
+    'technicianId',
+  );
+  filterBy(query.mine, 'EXISTS (SELECT 1 FROM visit_technicians me WHERE me.visit_id = v.id AND me.user_id = :viewerId)');
+  filterBy(query.siteId, 'a.site_id = :siteId', 'siteId');
+  filterBy(query.areaId, 'c.area_id = :areaId', 'areaId');
+  filterBy(query.cabinetId, 'v.cabinet_id = :cabinetId', 'cabinetId');
   const where = conditions.length > 0 ? `WHERE ${conditions.join(' AND ')}` : '';
   const from = 'FROM visits v JOIN cabinets c ON c.id = v.cabinet_id JOIN areas a ON a.id = c.area_id';
   const direction = query.sort === '-plannedStartAt' ? 'DESC' : 'ASC';

@@ -104,20 +104,29 @@ describe('the due dates in SQL and the domain rule', () => {
     const intervals = [30, 90, 182, 365, 400, 730];
     const installs = [null, '2025-01-31', '2025-11-30', '2026-02-28'];
     const bankIds: string[] = [];
-    const facts = new Map<
-      string,
-      {
-        timeZone: string;
-        intervalDays: number;
-        installedOn: string | null;
-        baselineAt: Date;
-        loggedAts: string[];
-      }
-    >();
-    /** The local date of the latest visit logged by `asOf`, as the domain takes it. */
-    const lastInspectedOnAt = (f: { loggedAts: string[]; timeZone: string }, asOf: Date) => {
+    interface BankFacts {
+      timeZone: string;
+      intervalDays: number;
+      installedOn: string | null;
+      baselineAt: Date;
+      loggedAts: string[];
+    }
+    const facts = new Map<string, BankFacts>();
+    /** The local date of the latest visit logged by `asOf` (a visit logged after it has not happened yet), and the domain's due status then. */
+    const domainDueAt = (f: BankFacts, asOf: Date) => {
       const past = f.loggedAts.filter((at) => new Date(at) <= asOf).sort();
-      return past.length ? calendarDateInZone(past[past.length - 1]!, f.timeZone) : null;
+      const lastInspectedOn = past.length ? calendarDateInZone(past[past.length - 1]!, f.timeZone) : null;
+      const expected = dueStatusOf(
+        {
+          lastInspectedOn,
+          installedOn: f.installedOn,
+          baselineSetOn: calendarDateInZone(f.baselineAt, f.timeZone),
+          inspectionIntervalDays: f.intervalDays,
+        },
+        asOf,
+        f.timeZone,
+      );
+      return { lastInspectedOn, expected };
     };
     let k = 0;
     for (const zone of zones) {
@@ -166,19 +175,7 @@ describe('the due dates in SQL and the domain rule', () => {
       const dates = await dueDatesOfBanks(bankIds, asOf);
       expect(dates.size).toBe(bankIds.length);
       for (const id of bankIds) {
-        const f = facts.get(id)!;
-        // a visit logged after the instant has not happened yet
-        const lastInspectedOn = lastInspectedOnAt(f, asOf);
-        const expected = dueStatusOf(
-          {
-            lastInspectedOn,
-            installedOn: f.installedOn,
-            baselineSetOn: calendarDateInZone(f.baselineAt, f.timeZone),
-            inspectionIntervalDays: f.intervalDays,
-          },
-          asOf,
-          f.timeZone,
-        );
+        const { expected } = domainDueAt(facts.get(id)!, asOf);
         const got = dates.get(id)!;
         expect({ id, dueOn: got.dueOn, bucket: got.bucket, todayOn: got.todayOn }).toEqual({
           id,
@@ -207,17 +204,7 @@ describe('the due dates in SQL and the domain rule', () => {
     expect(listed).toHaveLength(bankIds.length);
     for (const bank of listed) {
       const f = facts.get(bank.bankId)!;
-      const lastInspectedOn = lastInspectedOnAt(f, asOf);
-      const expected = dueStatusOf(
-        {
-          lastInspectedOn,
-          installedOn: f.installedOn,
-          baselineSetOn: calendarDateInZone(f.baselineAt, f.timeZone),
-          inspectionIntervalDays: f.intervalDays,
-        },
-        asOf,
-        f.timeZone,
-      );
+      const { lastInspectedOn, expected } = domainDueAt(f, asOf);
       expect(bank).toMatchObject({
         dueOn: expected.dueOn,
         startOn: expected.startOn,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { groupMyVisits, groupOfVisit, groupTitle } from '../../../../web/src/features/my-visits/utils/group-visits';
-import { visitJson } from './visit-json';
+import { visitJson } from '../../../support/visit-json';
 
 // Wednesday 9 Dec 2026, 10:00 in Berlin
 const NOW = new Date('2026-12-09T09:00:00Z');

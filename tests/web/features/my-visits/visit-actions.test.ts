@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { VISIT_STATES } from '../../../../shared/domain/visit-states';
 import { isAssigned, nextActionFor, othersVisits } from '../../../../web/src/features/my-visits/utils/visit-actions';
-import { visitJson } from './visit-json';
+import { visitJson } from '../../../support/visit-json';
 
 const me = { id: 'tech-1', roles: ['technician'] as const };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ShutdownWindow } from '../../../../shared/schemas/shutdown-window';
 import { windowOfVisit } from '../../../../web/src/features/my-visits/utils/visit-window';
-import { visitJson } from './visit-json';
+import { visitJson } from '../../../support/visit-json';
 
 const AREA = '30000000-0000-4000-8000-000000000001';
 const OTHER_AREA = '30000000-0000-4000-8000-000000000002';

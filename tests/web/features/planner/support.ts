@@ -1,37 +1,20 @@
 import type { ShutdownWindow, Visit } from '../../../../web/src/features/planner/api/shapes';
+import { visitJson } from '../../../support/visit-json';
 
-/** A visit as the API answers, with what a test names changed. */
+/** A visit as the API answers (at the planner's Bremen site), with what a test names changed. */
 export function visitOf(change: Partial<Visit> = {}): Visit {
-  return {
+  return visitJson({
     id: 'v1',
     cabinetId: 'c1',
-    cabinetTag: 'BRK-M2-VFD-014',
     siteId: 's1',
     siteName: 'Bremen',
-    timeZone: 'Europe/Berlin',
     areaId: 'a1',
-    areaName: 'Hall 2',
-    plannedStartAt: '2026-12-12T05:00:00.000Z',
-    plannedEndAt: '2026-12-12T07:00:00.000Z',
-    state: 'planned',
-    unplanned: false,
-    notes: '',
-    overrides: [],
-    stateReason: '',
-    startedAt: null,
-    loggedAt: null,
-    reviewedAt: null,
-    missedAt: null,
-    cancelledAt: null,
     banks: [{ id: 'b1', position: 'A', bankDesignCode: 'EL-450', baselineTauSeconds: 47 }],
     technicians: [{ id: 't1', name: 'Ana' }],
     cabinetMarkedWaitMinutes: 15,
     estimatedMinutes: 45,
-    version: 1,
-    createdAt: '2026-12-01T00:00:00.000Z',
-    updatedAt: '2026-12-01T00:00:00.000Z',
     ...change,
-  };
+  });
 }
 
 /** A weekly Saturday shutdown with two occurrences in range. */

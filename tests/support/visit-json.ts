@@ -1,4 +1,4 @@
-import type { Visit } from '../../../../shared/schemas/visit';
+import type { Visit } from '../../shared/schemas/visit';
 
 let serial = 0;
 
