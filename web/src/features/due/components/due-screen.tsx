@@ -15,6 +15,7 @@ import { ErrorPanel } from '../../../components/ui/error-panel';
 import { PageHeader } from '../../../components/ui/page-header';
 import { SearchInput } from '../../../components/ui/search-input';
 import { Spinner } from '../../../components/ui/spinner';
+import { FilterSelect } from '../../../components/ui/filter-select';
 import { useDueList } from '../api/get-due-list';
 import { useDueAreas, useDueDesigns, useDueSites } from '../api/get-filter-choices';
 import { DUE_FILTERS, useDueParams, type DueParamsUpdate } from '../hooks/use-due-params';
@@ -167,33 +168,9 @@ function BucketTabs({
   );
 }
 
-function Select({
-  label,
-  value,
-  onChange,
-  options,
-}: {
-  label: string;
-  value: string;
-  onChange: (value: string) => void;
-  options: Array<{ value: string; label: string }>;
-}) {
-  return (
-    <label className="flex items-center gap-2 text-sm text-tide-800">
-      <span className="w-24 shrink-0 sm:w-auto">{label}</span>
-      <select
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        className="min-h-10 w-full rounded-lg border border-tide-200 bg-white px-2 py-1.5 text-base sm:w-auto sm:text-sm"
-      >
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-    </label>
-  );
+/** The Due list's filter select: labels a fixed width on a phone, so the stacked filters line up. */
+function DueSelect(props: Omit<Parameters<typeof FilterSelect>[0], 'labelClassName'>) {
+  return <FilterSelect {...props} labelClassName="w-24 shrink-0 sm:w-auto" />;
 }
 
 /** Site, area, design, criticality, health, planned or not, and a search; all in the address bar. */
@@ -226,7 +203,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
         </button>
       </div>
       <div id="due-filters" className={`${shown ? 'grid' : 'hidden'} gap-2 sm:contents`}>
-        <Select
+        <DueSelect
           label="Site"
           value={siteId}
           onChange={(v) => update({ siteId: v })}
@@ -236,7 +213,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
           ]}
         />
         {siteId ? (
-          <Select
+          <DueSelect
             label="Area"
             value={value('areaId')}
             onChange={(v) => update({ areaId: v })}
@@ -246,7 +223,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
             ]}
           />
         ) : null}
-        <Select
+        <DueSelect
           label="Design"
           value={value('bankDesignId')}
           onChange={(v) => update({ bankDesignId: v })}
@@ -255,7 +232,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
             ...(designs.data?.items ?? []).map((d) => ({ value: d.id, label: d.code })),
           ]}
         />
-        <Select
+        <DueSelect
           label="Criticality"
           value={value('criticality')}
           onChange={(v) => update({ criticality: v })}
@@ -264,7 +241,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
             ...[...CRITICALITIES].reverse().map((c) => ({ value: c, label: c })),
           ]}
         />
-        <Select
+        <DueSelect
           label="Health"
           value={value('health')}
           onChange={(v) => update({ health: v })}
@@ -273,7 +250,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
             ...DUE_HEALTHS.map((h) => ({ value: h, label: DUE_HEALTH_LABELS[h] })),
           ]}
         />
-        <Select
+        <DueSelect
           label="Sort"
           value={String(params.sort)}
           onChange={(v) => update({ sort: v })}
@@ -286,7 +263,7 @@ function DueFilters({ params, update }: { params: Params; update: DueParamsUpdat
                 ]
           }
         />
-        <Select
+        <DueSelect
           label="Visit"
           value={value('planned')}
           onChange={(v) => update({ planned: v })}

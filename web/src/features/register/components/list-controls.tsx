@@ -7,7 +7,8 @@ import { Spinner } from '../../../components/ui/spinner';
 import type { ListParams } from '../api/resource';
 import { sitesApi } from '../api/sites';
 import type { ListUpdate } from '../hooks/use-list-params';
-import { FilterSelect, RetiredToggle } from './record-parts';
+import { FilterSelect } from '../../../components/ui/filter-select';
+import { RetiredToggle } from './record-parts';
 
 /** A list's parameters from the address bar and the way to change them (see useListParams). */
 interface ListBinding {

@@ -124,36 +124,6 @@ export function ListToolbar({ search, children, action }: { search: ReactNode; c
   );
 }
 
-/** A compact select for a list filter. */
-export function FilterSelect({
-  label,
-  value,
-  onChange,
-  options,
-}: {
-  label: string;
-  value: string;
-  onChange: (value: string) => void;
-  options: Array<{ value: string; label: string }>;
-}) {
-  return (
-    <label className="flex items-center gap-2 text-sm text-tide-800">
-      <span className="shrink-0">{label}</span>
-      <select
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        className="min-h-10 w-full rounded-lg border border-tide-200 bg-white px-2 py-1.5 text-base sm:w-auto sm:text-sm"
-      >
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-    </label>
-  );
-}
-
 /** "Show retired" for every list. */
 export function RetiredToggle({ checked, onChange, label = 'Show retired' }: { checked: boolean; onChange: (v: boolean) => void; label?: string }) {
   return (
