@@ -32,12 +32,11 @@ describe('Due list (planner)', () => {
     await page.waitForURL(/criticality=critical/);
     await page.reload();
     await page.getByRole('heading', { name: 'Due', exact: true }).waitFor();
-    expect(
-      await page
-        .getByRole('tab', { name: /Due in the next three months/ })
-        .getAttribute('aria-selected'),
+    // read as the reloaded page settles, not once at the first paint of its heading
+    await eventually(() =>
+      page.getByRole('tab', { name: /Due in the next three months/ }).getAttribute('aria-selected'),
     ).toBe('true');
-    expect(await page.getByLabel('Criticality').inputValue()).toBe('critical');
+    await eventually(() => page.getByLabel('Criticality').inputValue()).toBe('critical');
 
     // back to the overdue banks: the first row's bank link and its "Plan a visit"
     await page.getByLabel('Criticality').selectOption('');
