@@ -2,7 +2,7 @@ import { useEffect, useRef, type ReactNode } from 'react';
 import { Navigate, NavLink, Route, Routes, useLocation, useParams, useSearchParams } from 'react-router';
 import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
-import { DecayCheckPanel } from '../../features/decay-check/components/decay-check-panel';
+import { DecayCheckPanel } from '../../features/decay-runs/components/decay-check-panel';
 import { AreaEditScreen, AreaNewScreen, AreaPage } from '../../features/register/components/area-page';
 import { BankDesignEditScreen, BankDesignList, BankDesignNewScreen, BankDesignPage } from '../../features/register/components/bank-design-page';
 import { BankEditScreen, BankNewScreen, BankPage } from '../../features/register/components/bank-page';

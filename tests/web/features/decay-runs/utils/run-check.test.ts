@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bankEngineInputs } from '../../../../../shared/domain/bank-engine-inputs';
-import { readReadingRows } from '../../../../../web/src/features/decay-check/utils/readings';
-import { runDecayCheck } from '../../../../../web/src/features/decay-check/utils/run-check';
+import { readReadingRows } from '../../../../../web/src/features/decay-runs/utils/readings';
+import { runDecayCheck } from '../../../../../web/src/features/decay-runs/utils/run-check';
 import { bankJson } from '../bank-json';
 
 const facts = bankEngineInputs(bankJson())!;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { readReadingRows } from '../../../../../web/src/features/decay-check/utils/readings';
-import { runDecayCheck } from '../../../../../web/src/features/decay-check/utils/run-check';
+import { readReadingRows } from '../../../../../web/src/features/decay-runs/utils/readings';
+import { runDecayCheck } from '../../../../../web/src/features/decay-runs/utils/run-check';
 
 /** A 2S3P bank of 4700 µF cans (7050 µF) on a 31.2 kΩ bleeder: τ = 220 s on its own, 219.3 s with a 10 MΩ meter. */
 const facts = {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ExcludedReading } from '../../../../../shared/domain';
-import { leftOutRows } from '../../../../../web/src/features/decay-check/utils/left-out-rows';
-import { microfarads, ohms, seconds, todayOn } from '../../../../../web/src/features/decay-check/utils/figures';
+import { leftOutRows } from '../../../../../web/src/features/decay-runs/utils/left-out-rows';
+import { microfarads, ohms, seconds, todayOn } from '../../../../../web/src/features/decay-runs/utils/figures';
 
 const reading = (index: number, code: ExcludedReading['code'], reason: string): ExcludedReading => ({
   index,

@@ -5,7 +5,7 @@ import {
   readPastedReadings,
   readReadingRows,
   readSeconds,
-} from '../../../../../web/src/features/decay-check/utils/readings';
+} from '../../../../../web/src/features/decay-runs/utils/readings';
 
 const rows = (...pairs: [string, string][]) => pairs.map(([time, volts]) => ({ time, volts }));
 
