@@ -38,6 +38,11 @@ export function setCsrfToken(token: string | undefined): void {
   csrfToken = token;
 }
 
+/** The session's CSRF token as last set, for requests sent without apiFetch (uploads with progress). */
+export function currentCsrfToken(): string | null {
+  return csrfToken ?? null;
+}
+
 /**
  * Fetches JSON from the API; throws ApiError on any non-2xx answer (and on a network
  * failure, as status 0) so TanStack Query sees failures as errors.

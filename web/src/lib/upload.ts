@@ -63,3 +63,46 @@ export function uploadImportFile<T>(
     xhr.send(form);
   });
 }
+
+/** How a form upload is sent: the session's CSRF token and a progress callback. */
+export interface FormUploadOptions {
+  /** The session's CSRF token, sent as X-CSRF-Token. */
+  csrfToken: string | null;
+  /** Fraction of the body sent so far, 0 to 1. */
+  onProgress?: (fraction: number) => void;
+}
+
+/**
+ * Posts a multipart form with XMLHttpRequest (fetch cannot report upload progress). Resolves
+ * with the JSON answer; throws ApiError like apiFetch (status 0, code `network`, when the server
+ * cannot be reached).
+ */
+export function uploadForm<T>(path: string, form: FormData, { csrfToken, onProgress }: FormUploadOptions): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', path);
+    xhr.setRequestHeader('Accept', 'application/json');
+    if (csrfToken) xhr.setRequestHeader('X-CSRF-Token', csrfToken);
+    xhr.withCredentials = true;
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress?.(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network', 'Ebbline cannot reach its server. Check the connection and try again.'));
+    xhr.onload = () => {
+      let body: unknown;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        body = undefined;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        onProgress?.(1);
+        resolve(body as T);
+        return;
+      }
+      const error = (body as { error?: { code?: string; message?: string; issues?: Array<{ path: string; message: string }> } })?.error;
+      reject(new ApiError(xhr.status, error?.code ?? `http-${xhr.status}`, error?.message ?? `The server answered ${xhr.status}.`, error?.issues));
+    };
+    xhr.send(form);
+  });
+}
