@@ -84,6 +84,16 @@ export type {
   VerdictFinding,
   VerdictFindingCode,
 } from './verdict';
+export { judgeRecordedRun, runConditionsOf, visualFindingSentence } from './recorded-run';
+export type {
+  RecordedRunFacts,
+  RecordedRunObservations,
+  RecordedRunVerdict,
+  RecordedRunOkVerdict,
+  RecordedRunUnusableVerdict,
+  ReadingsPrepared,
+  ReadingSetAside,
+} from './recorded-run';
 export { bankEngineInputs } from './bank-engine-inputs';
 export type { BankEngineInputs, BankRecordForEngine, DesignRevisionFigures } from './bank-engine-inputs';
 export { timeToVoltsSeconds, estimateDischargeSafety, iec60204Sentence } from './discharge-safety';

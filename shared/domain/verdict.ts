@@ -116,7 +116,8 @@ export type VerdictFindingCode =
   | 'implausible-ratio'
   | 'control-supply-phase'
   | 'readings-left-out'
-  | 'meter-input-assumed';
+  | 'meter-input-assumed'
+  | 'visual-finding';
 
 /** One finding in plain words. `safety` findings must be shown prominently. */
 export interface VerdictFinding {
