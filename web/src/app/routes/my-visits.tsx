@@ -1,6 +1,7 @@
 import { Route, Routes, useParams } from 'react-router';
 import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
+import { UnsentRunsWarning, VisitCapture } from '../../features/decay-runs/components/capture/visit-capture';
 import { MyVisitPage } from '../../features/my-visits/components/my-visit-page';
 import { MyVisitsList } from '../../features/my-visits/components/my-visits-list';
 
@@ -22,9 +23,15 @@ function VisitScreen() {
   const { visitId = '' } = useParams();
   const me = useMe();
   if (!me.data) return null;
+  const viewer = { id: me.data.id, roles: me.data.roles };
   return (
     <div className="mx-auto max-w-3xl">
-      <MyVisitPage visitId={visitId} viewer={{ id: me.data.id, roles: me.data.roles }} />
+      <MyVisitPage
+        visitId={visitId}
+        viewer={viewer}
+        atCabinet={(visit) => <VisitCapture visit={visit} viewer={viewer} />}
+        beforeLogging={(visit) => <UnsentRunsWarning visit={visit} />}
+      />
     </div>
   );
 }

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router';
 import { PLANNING_WARNING_LABELS } from '../../../../../shared/constants/planning';
 import type { Visit } from '../../../../../shared/schemas/visit';
@@ -21,8 +21,16 @@ import { VisitStateBadge } from './visit-state-badge';
 
 const DAY_MS = 86_400_000;
 
+/** What the app puts into a visit's page from other features (features never import each other). */
+export interface MyVisitSlots {
+  /** The work at the cabinet (the decay runs of the visit's banks), shown to an assigned technician while the visit is under way. */
+  atCabinet?: (visit: Visit) => ReactNode;
+  /** Shown in the "Mark as logged" confirmation, e.g. the banks with no run sent yet. */
+  beforeLogging?: (visit: Visit) => ReactNode;
+}
+
 /** One visit, as a technician opens it at the cabinet: what, where, when, the cautions, and Start / Mark as logged. */
-export function MyVisitPage({ visitId, viewer }: { visitId: string; viewer: Viewer }) {
+export function MyVisitPage({ visitId, viewer, ...slots }: { visitId: string; viewer: Viewer } & MyVisitSlots) {
   const visit = useVisit(visitId);
   if (visit.isPending) return <Spinner label="Loading the visit…" />;
   if (visit.isError) {
@@ -38,7 +46,7 @@ export function MyVisitPage({ visitId, viewer }: { visitId: string; viewer: View
       </div>
     );
   }
-  return <VisitDetail visit={visit.data} viewer={viewer} />;
+  return <VisitDetail visit={visit.data} viewer={viewer} slots={slots} />;
 }
 
 function BackLink() {
@@ -49,7 +57,7 @@ function BackLink() {
   );
 }
 
-function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
+function VisitDetail({ visit, viewer, slots }: { visit: Visit; viewer: Viewer; slots: MyVisitSlots }) {
   const range = {
     from: new Date(Date.parse(visit.plannedStartAt) - DAY_MS).toISOString(),
     to: new Date(Date.parse(visit.plannedEndAt) + DAY_MS).toISOString(),
@@ -81,9 +89,11 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
         ) : null}
       </header>
 
-      <VisitActions visit={visit} viewer={viewer} />
+      <VisitActions visit={visit} viewer={viewer} slots={slots} />
 
       <DischargeCaution />
+
+      {slots.atCabinet && visit.state === 'under-way' && isAssigned(visit, viewer) ? slots.atCabinet(visit) : null}
 
       <Card title="Cabinet">
         <DetailList
@@ -149,7 +159,7 @@ function VisitDetail({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
 }
 
 /** Start visit / Mark as logged, for an assigned technician; otherwise why not, in words. */
-function VisitActions({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
+function VisitActions({ visit, viewer, slots }: { visit: Visit; viewer: Viewer; slots: MyVisitSlots }) {
   const action = nextActionFor(visit, viewer);
   const take = useTakeVisitAction();
   const [confirmingLog, setConfirmingLog] = useState(false);
@@ -160,7 +170,13 @@ function VisitActions({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
 
   return (
     <section aria-label="What to do" className="space-y-3 rounded-xl border border-tide-100 bg-white p-4 shadow-sm">
-      {action !== null ? (
+      {action !== null && slots.atCabinet ? (
+        <p className="text-sm text-tide-800" data-testid="visit-steps">
+          {action === 'start'
+            ? 'Start the visit when you begin at the cabinet: Ebbline then leads you through each bank’s safety checks and readings.'
+            : 'Record each bank’s decay run below. Mark the visit as logged when every bank is done and the cabinet is closed again.'}
+        </p>
+      ) : action !== null ? (
         <p className="text-sm text-tide-800" data-testid="capture-later">
           Recording the decay readings in Ebbline is not built yet: it comes in a later release. For now, take
           the readings with your meter or logger as you do today and keep the file. Start the visit when you
@@ -180,6 +196,7 @@ function VisitActions({ visit, viewer }: { visit: Visit; viewer: Viewer }) {
         </Button>
       ) : confirmingLog ? (
         <div className="space-y-2 rounded-lg bg-tide-50 p-3">
+          {slots.beforeLogging ? slots.beforeLogging(visit) : null}
           <p className="text-sm text-tide-900">
             Mark as logged: the readings of {visit.banks.length === 1 ? 'the bank' : `all ${visit.banks.length} banks`} are
             taken and the cabinet is closed again. A reliability engineer then reviews the visit.
