@@ -107,6 +107,38 @@ export interface DecaySamplesCsv {
 
 const SEPARATORS: CsvSeparator[] = ['\t', ';', ','];
 
+/** Rows under the header that a {@link LoggerColumnsQuestion} carries. */
+const QUESTION_ROWS = 5;
+
+/**
+ * The refusal of a file whose header row names its columns but leaves a question that only the
+ * person can settle: two columns that could each be the voltage (or the time), a voltage or time
+ * column not found by its name, or a chosen column that is not there. Beside the message it
+ * carries the header's cells and the first rows under it, so a screen can offer the columns to
+ * choose from (then read again with `timeColumn` / `voltsColumn`).
+ *
+ * @example
+ * try { parseDecaySamplesCsv('Time (s);CH1 (V);CH2 (V)\n0;560;12\n') }
+ * catch (error) { if (error instanceof LoggerColumnsQuestion) console.log(error.path, error.columns) }
+ * // 'voltsColumn' ['Time (s)', 'CH1 (V)', 'CH2 (V)']
+ */
+export class LoggerColumnsQuestion extends EngineInputError {
+  override name = 'LoggerColumnsQuestion';
+  constructor(
+    message: string,
+    /** Which choice would settle it. */
+    readonly path: 'timeColumn' | 'voltsColumn',
+    /** The file's line number of the header row. */
+    readonly headerRow: number,
+    /** The header's cells as written (trimmed), column 1 first. */
+    readonly columns: string[],
+    /** Up to 5 non-blank rows under the header, cells as written (trimmed). */
+    readonly rows: string[][],
+  ) {
+    super('invalid-csv', message, [{ path, message }]);
+  }
+}
+
 interface HeaderFound {
   /** 0-based line index of the header. */
   line: number;
@@ -454,10 +486,22 @@ function refuseWithoutHeader(
 ): never {
   if (problem !== null) {
     const row = problem.line + 1;
-    throw new EngineInputError(
-      'invalid-csv',
+    const tokenized = cellsBy.get(problem.separator) ?? [];
+    const trimmed = (cells: readonly string[] | undefined): string[] =>
+      (cells ?? []).map((cell) => cell.trim());
+    const below: string[][] = [];
+    for (
+      let line = nextFilled(lines, problem.line);
+      line >= 0 && below.length < QUESTION_ROWS;
+      line = nextFilled(lines, line)
+    )
+      below.push(trimmed(tokenized[line]));
+    throw new LoggerColumnsQuestion(
       `Row ${row} (the header, ${separatorName(problem.separator)} separated): ${problem.problem.message}`,
-      [{ path: problem.problem.path, message: problem.problem.message }],
+      problem.problem.path,
+      row,
+      trimmed(tokenized[problem.line]),
+      below,
     );
   }
   const first = lines.findIndex((line) => line.trim() !== '');

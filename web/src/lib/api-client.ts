@@ -16,6 +16,8 @@ export class ApiError extends Error {
     readonly issues: ApiFieldIssue[] = [],
     /** From a 503's Retry-After: when asking again may succeed. */
     readonly retryAfterSeconds?: number,
+    /** The error's other fields, when a refusal carries more than its message (e.g. `candidates`). */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
   }

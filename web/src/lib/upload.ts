@@ -101,8 +101,24 @@ export function uploadForm<T>(path: string, form: FormData, { csrfToken, onProgr
         return;
       }
       const error = (body as { error?: { code?: string; message?: string; issues?: Array<{ path: string; message: string }> } })?.error;
-      reject(new ApiError(xhr.status, error?.code ?? `http-${xhr.status}`, error?.message ?? `The server answered ${xhr.status}.`, error?.issues));
+      reject(
+        new ApiError(
+          xhr.status,
+          error?.code ?? `http-${xhr.status}`,
+          error?.message ?? `The server answered ${xhr.status}.`,
+          error?.issues,
+          undefined,
+          errorDetails(error),
+        ),
+      );
     };
     xhr.send(form);
   });
+}
+
+/** The fields of an API error other than its code, message and issues (e.g. `candidates`). */
+function errorDetails(error: object | undefined): Record<string, unknown> {
+  if (!error) return {};
+  const { code: _code, message: _message, issues: _issues, ...rest } = error as Record<string, unknown>;
+  return rest;
 }

@@ -1,0 +1,19 @@
+/**
+ * Limits of a logger or oscilloscope file read for a decay run. The API refuses a file over a
+ * limit (413 naming it) and the web checks the size before sending, so a person hears it at once.
+ */
+
+/** Largest logger file accepted, in bytes (5 MiB: a long scope export of a few channels). */
+export const LOGGER_FILE_MAX_BYTES = 5 * 1024 * 1024;
+
+/** The size limit in whole MiB, for messages ("5 MB"). */
+export const LOGGER_FILE_MAX_MEBIBYTES = LOGGER_FILE_MAX_BYTES / 1024 / 1024;
+
+/**
+ * Most lines of a logger file that are read (preamble, header and readings): reading stops past
+ * it. A decay run needs a few hundred readings; 100,000 lines is a 0.1 ms logger over 10 s.
+ */
+export const LOGGER_FILE_MAX_LINES = 100_000;
+
+/** Rows under the header shown beside the column picker when the columns must be chosen. */
+export const LOGGER_FILE_CANDIDATE_ROWS = 5;
