@@ -153,7 +153,7 @@ export async function getVisit(id: string, viewer: VisitViewer | null, transacti
 }
 
 /** What the audit trail keeps of a visit. */
-function visitSnapshot(visit: Visit, technicianIds: readonly string[], bankIds: readonly string[]): Record<string, unknown> {
+export function visitSnapshot(visit: Visit, technicianIds: readonly string[], bankIds: readonly string[]): Record<string, unknown> {
   const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
   return {
     cabinetId: visit.cabinetId,

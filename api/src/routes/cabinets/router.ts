@@ -6,6 +6,9 @@ import { listAuditEntries } from '../../services/audit';
 import { createBank, getBankLineage, listBanks } from '../../services/banks';
 import { cabinetImportTemplate, importCabinets, previewCabinetImport } from '../../services/cabinet-import';
 import { createCabinet, getCabinet, getCabinetLabel, listCabinets, retireCabinet, updateCabinet } from '../../services/cabinets';
+import { startUnplannedVisit } from '../../services/unplanned-visits';
+import { unplannedVisitInputSchema } from '../../../../shared/schemas/unplanned-visit';
+import { presentVisit } from '../visits/presenter';
 import { dateOn } from '../../services/register-checks';
 import { withUnitOfWork } from '../../services/unit-of-work';
 import { presentAuditEntry } from '../audit/presenter';
@@ -85,6 +88,14 @@ cabinetsRouter.get('/:cabinetId/label', requireRole(...cabinetPolicy.read), asyn
   const { cabinet, url, qrSvg } = await getCabinetLabel(idParam(req, 'cabinetId', 'Cabinet'));
   const label: CabinetLabel = { cabinetId: cabinet.id, tag: cabinet.tag, url, qrSvg };
   res.json(label);
+});
+
+// a technician at the cabinet (its label opened this page) starts a visit there and then
+cabinetsRouter.post('/:cabinetId/unplanned-visits', requireRole('technician', 'admin'), async (req, res) => {
+  const id = idParam(req, 'cabinetId', 'Cabinet');
+  const input = unplannedVisitInputSchema.parse(req.body ?? {});
+  const visit = await withUnitOfWork(actingUser(req), (uow) => startUnplannedVisit(uow, id, input));
+  res.status(201).json(presentVisit(visit));
 });
 
 cabinetsRouter.get('/:cabinetId/audit', requireRole(...cabinetPolicy.read), async (req, res) => {
