@@ -9,6 +9,8 @@ import { AccountMenu } from '../../features/auth/components/account-menu';
 import { NotAllowed } from '../../features/auth/components/not-allowed';
 import { WaitingForAccess } from '../../features/auth/components/waiting-for-access';
 import { ServerStatus } from '../../features/health/components/server-status';
+import { ConnectionNote, DraftSync } from '../../features/decay-runs/drafts/draft-sync';
+import { OfflineDrafts } from '../../features/decay-runs/drafts/offline-drafts';
 import { ApiError } from '../../lib/api-client';
 import { goToSignIn } from '../../lib/sign-in';
 import { mayOpen, navFor, screenFor, startScreenFor } from '../access';
@@ -26,6 +28,18 @@ export function RootLayout() {
     if (signedOut) goToSignIn(location.pathname + location.search);
   }, [signedOut, location.pathname, location.search]);
 
+  // opened without a connection (the service worker served the app): nobody can be signed in,
+  // but the decay runs kept on this phone are shown, and they go once the connection returns
+  if (me.isPending && me.fetchStatus === 'paused') {
+    return (
+      <CenteredPage>
+        <div className="space-y-4">
+          <ConnectionNote />
+          <OfflineDrafts />
+        </div>
+      </CenteredPage>
+    );
+  }
   if (me.isPending || signedOut) {
     return (
       <CenteredPage>
@@ -52,6 +66,12 @@ export function RootLayout() {
       nav={navFor(roles)}
       status={<ServerStatus compact />}
       account={(closeMenu) => <AccountMenu me={me.data} onNavigate={closeMenu} />}
+      notice={
+        <>
+          <DraftSync userId={me.data.id} />
+          <ConnectionNote />
+        </>
+      }
     >
       {screen && !mayOpen(location.pathname, roles) ? (
         <NotAllowed

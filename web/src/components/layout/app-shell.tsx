@@ -11,12 +11,15 @@ export function AppShell({
   nav,
   status,
   account,
+  notice,
   children,
 }: {
   nav: NavItem[];
   status: ReactNode;
   /** The signed-in person's menu; given the close action of the phone menu. */
   account?: (closeMenu: () => void) => ReactNode;
+  /** Shown above every screen (e.g. the offline note). */
+  notice?: ReactNode;
   /** Shown instead of the matched route (e.g. "not allowed"). */
   children?: ReactNode;
 }) {
@@ -72,6 +75,7 @@ export function AppShell({
         </div>
       ) : null}
       <main className="min-w-0 flex-1 px-4 py-6 sm:px-8 sm:py-8">
+        {notice}
         {children ?? <Outlet />}
       </main>
     </div>
