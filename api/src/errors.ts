@@ -40,6 +40,8 @@ export const ERROR_CODES = [
   'confirmation-needed',
   'override-needed',
   'visit-state',
+  'superseded',
+  'baseline-refused',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -38,6 +38,10 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'override-needed': 422,
   // the visit's state does not allow the action ("A logged visit can't be started.")
   'visit-state': 409,
+  // a decay run corrected since: a review applies to its newest version
+  'superseded': 409,
+  // the run cannot be a bank's baseline (no trustworthy τ, or something seen wrong at the cabinet)
+  'baseline-refused': 422,
 };
 
 /** The status an AppError answers with: its code's. */

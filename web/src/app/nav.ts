@@ -14,6 +14,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/register', label: 'Register', roles: ['admin', 'planner', 'technician', 'reliability'], hint: 'Sites, cabinets, banks' },
   { to: '/planner', label: 'Planner', roles: ['admin', 'planner', 'reliability'], hint: 'Visits and shutdown windows' },
   { to: '/my-visits', label: 'My visits', roles: ['technician'], hint: 'Your assigned visits' },
+  { to: '/review', label: 'Review', roles: ['admin', 'reliability'], hint: 'Decay runs to accept or query' },
   { to: '/alerts', label: 'Alerts', roles: ['admin', 'planner', 'reliability'], hint: 'Action due' },
   { to: '/people', label: 'People', roles: ['admin'], hint: 'Users and roles' },
 ];

@@ -19,6 +19,7 @@ const router = createBrowserRouter([
       { path: 'planner/due', lazy: () => import('./routes/planner-due') },
       { path: 'planner/windows/import', lazy: () => import('./routes/planner-window-import') },
       { path: 'my-visits/*', lazy: () => import('./routes/my-visits') },
+      { path: 'review', lazy: () => import('./routes/review') },
       { path: 'alerts', lazy: () => import('./routes/alerts') },
       { path: 'people', lazy: () => import('./routes/people') },
       { path: 'profile', lazy: () => import('./routes/profile') },

@@ -1,0 +1,59 @@
+import { useState } from 'react';
+import { ErrorPanel } from '../../../../components/ui/error-panel';
+import { Spinner } from '../../../../components/ui/spinner';
+import { REVIEW_QUEUE_SIZE, useLoggedVisits } from '../../api/review-decay-run';
+import { ReviewVisit } from './review-visit';
+
+/**
+ * The review queue of reliability engineers: the logged visits, the one waiting longest first,
+ * each with its runs to accept or query. A visit whose last run is reviewed leaves the queue
+ * and stays below, under "Reviewed just now", for as long as the screen is open.
+ */
+export function ReviewQueue() {
+  const logged = useLoggedVisits();
+  const [reviewedHere, setReviewedHere] = useState<string[]>([]);
+  const noteReviewed = (visitId: string) =>
+    setReviewedHere((ids) => (ids.includes(visitId) ? ids : [...ids, visitId]));
+
+  if (logged.isPending) return <Spinner label="Loading the logged visits…" />;
+  if (logged.isError) {
+    return (
+      <ErrorPanel title="The logged visits could not be loaded">
+        {logged.error.message}
+      </ErrorPanel>
+    );
+  }
+  const waiting = logged.data.items;
+  const waitingIds = new Set(waiting.map((visit) => visit.id));
+  const done = reviewedHere.filter((id) => !waitingIds.has(id));
+
+  return (
+    <div className="space-y-6" data-testid="review-queue">
+      {waiting.length === 0 ? (
+        <p role="status" className="rounded-xl border border-tide-100 bg-white p-5 text-tide-800 shadow-sm">
+          Nothing is waiting for review: every logged visit has been reviewed.
+        </p>
+      ) : (
+        <>
+          <p className="text-sm text-tide-800">
+            {logged.data.total === 1 ? 'One logged visit is' : `${logged.data.total} logged visits are`} waiting for review
+            {logged.data.total > waiting.length ? ` (the ${REVIEW_QUEUE_SIZE} waiting longest are shown)` : ''}.
+          </p>
+          {waiting.map((visit) => (
+            <ReviewVisit key={visit.id} visitId={visit.id} initial={visit} onReviewed={noteReviewed} />
+          ))}
+        </>
+      )}
+      {done.length > 0 ? (
+        <section className="space-y-4" aria-labelledby="reviewed-just-now">
+          <h2 id="reviewed-just-now" className="text-lg font-bold text-tide-900">
+            Reviewed just now
+          </h2>
+          {done.map((visitId) => (
+            <ReviewVisit key={visitId} visitId={visitId} onReviewed={noteReviewed} />
+          ))}
+        </section>
+      ) : null}
+    </div>
+  );
+}
