@@ -182,7 +182,7 @@ function tauSentence(verdict: DecayVerdict): string {
   const { tauSeconds, fit } = verdict;
   const interval = formatInterval(fit.tauCi95[0], fit.tauCi95[1], { like: tauSeconds, unit: 's' });
   const spread = interval.includes(' (narrower than ')
-    ? `known to ${interval.slice(interval.indexOf('(') + 1, -1)}`
+    ? `to better than ${interval.slice(interval.indexOf(' (narrower than ') + 16, -1)}`
     : `between ${interval.replace(' to ', ' and ')}`;
   // after one τ, e^−1 = 36.8 % remains (DOMAIN.md): "about a third"
   return `The voltage fell to about a third every ${plainDuration(tauSeconds)} (τ = ${formatFigure(tauSeconds)} s, ${spread}).`;
@@ -286,7 +286,7 @@ function safeAfterSentence(
   const meter = 'and only once the meter shows no voltage';
   if (safe.estimateSeconds === null) {
     return safe.markedWaitSeconds !== null
-      ? `This run gives no discharge estimate: wait at least the marked ${plainDuration(safe.markedWaitSeconds, { roundUp: true })} after isolation, ${meter}.`
+      ? `This run gives no discharge estimate: wait at least the cabinet's marked wait of ${plainDuration(safe.markedWaitSeconds, { roundUp: true })} after isolation, ${meter}.`
       : `This run gives no discharge estimate and the register has no marked wait: wait at least the time the drive maker marks on the cabinet, ${meter}.`;
   }
   const estimate = plainDuration(safe.estimateSeconds, { roundUp: true });

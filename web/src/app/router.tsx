@@ -20,6 +20,7 @@ const router = createBrowserRouter([
       { path: 'planner/windows/import', lazy: () => import('./routes/planner-window-import') },
       { path: 'my-visits/*', lazy: () => import('./routes/my-visits') },
       { path: 'review', lazy: () => import('./routes/review') },
+      { path: 'runs/:runId', lazy: () => import('./routes/run') },
       { path: 'alerts', lazy: () => import('./routes/alerts') },
       { path: 'people', lazy: () => import('./routes/people') },
       { path: 'profile', lazy: () => import('./routes/profile') },

@@ -9,6 +9,7 @@ import {
   type VerdictFinding,
 } from '../../../../../shared/domain';
 import type { HealthName } from '../../../../../shared/constants/health';
+import { explainVerdict } from '../../../../../shared/domain/verdict-explanation';
 import { Badge } from '../../../components/ui/badge';
 import { DetailList } from '../../../components/ui/detail-list';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
@@ -40,6 +41,22 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
       <h3 className="text-sm font-bold text-tide-900">{title}</h3>
       {children}
     </section>
+  );
+}
+
+/** The engine's findings, safety first, each with its severity in words (not colour alone). */
+export function FindingList({ findings, testId = 'decay-findings' }: { findings: readonly VerdictFinding[]; testId?: string }) {
+  return (
+    <ul className="space-y-2" data-testid={testId}>
+      {findings.map((finding, i) => {
+        const s = SEVERITY[finding.severity];
+        return (
+          <li key={`${finding.code}-${i}`} className={`rounded-r-lg px-3 py-2 text-sm text-tide-950 ${s.box}`} data-severity={finding.severity}>
+            <Badge tone={s.tone}>{s.label}</Badge> <span className={finding.severity === 'safety' ? 'font-bold' : ''}>{finding.message}</span>
+          </li>
+        );
+      })}
+    </ul>
   );
 }
 
@@ -188,16 +205,7 @@ export function DecayVerdictView({
       <DecayPlot samples={samples} verdict={verdict} />
 
       <Section title="Findings">
-        <ul className="space-y-2" data-testid="decay-findings">
-          {findings.map((finding, i) => {
-            const s = SEVERITY[finding.severity];
-            return (
-              <li key={`${finding.code}-${i}`} className={`rounded-r-lg px-3 py-2 text-sm text-tide-950 ${s.box}`} data-severity={finding.severity}>
-                <Badge tone={s.tone}>{s.label}</Badge> <span className={finding.severity === 'safety' ? 'font-bold' : ''}>{finding.message}</span>
-              </li>
-            );
-          })}
-        </ul>
+        <FindingList findings={findings} />
         {warnings.length > 0 ? (
           <ul className="list-disc space-y-1 pl-5 text-sm text-tide-800" data-testid="decay-warnings">
             {warnings.map((w) => (
@@ -221,10 +229,8 @@ export function DecayVerdictView({
             </div>
           ))}
         </dl>
-        <p className="text-sm text-tide-800">
-          {discharge.markedWaitSeconds !== null
-            ? `Marked wait time of the cabinet: ${seconds(discharge.markedWaitSeconds)}${discharge.exceedsMarkedWait ? ' — the estimate is longer: see the safety finding.' : '.'}`
-            : 'The cabinet has no marked wait time in the register.'}
+        <p className="text-sm font-medium text-tide-950" data-testid="decay-safe-after">
+          {explainVerdict({ ...verdict, visualFindings: [], prepared: { sorted: false, setAside: [] } }, { asOfOn: todayOn() }).safeAfter}
         </p>
         <DischargeCaution />
       </Section>
