@@ -32,6 +32,7 @@ import { withoutFeedSecret } from './routes/calendar-feed/hide-secret';
 import { windowProposalRouter } from './routes/shutdown-windows/proposal';
 import { technicianLoadRouter } from './routes/technician-load/router';
 import { visitsRouter } from './routes/visits/router';
+import { photosRouter, visitPhotosRouter } from './routes/photos/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -98,6 +99,8 @@ export function createApp(): express.Express {
   api.use('/banks', banksRouter);
   api.use('/bank-designs', bankDesignsRouter);
   api.use('/spares', sparesRouter);
+  api.use('/visits/:visitId/photos', visitPhotosRouter);
+  api.use('/photos', photosRouter);
   api.use('/visits', visitsRouter);
   api.use('/shutdown-windows', shutdownWindowsRouter);
   api.use('/due', dueRouter);

@@ -35,6 +35,8 @@ export const ERROR_CODES = [
   'file-too-large',
   'unsupported-file',
   'unsupported-media-type',
+  'not-an-image',
+  'image-too-large',
   'identity-provider-unreachable',
   'database-unavailable',
   'confirmation-needed',

@@ -70,7 +70,7 @@ export type SpareStatus = (typeof SPARE_STATUSES)[number];
 export const DEFAULT_REFORMING_INTERVAL_DAYS = 365;
 
 /** Kinds of register record the audit trail knows. */
-export const REGISTER_ENTITY_TYPES = ['site', 'area', 'cabinet', 'bank', 'bank-design', 'spare', 'person', 'visit', 'shutdown-window'] as const;
+export const REGISTER_ENTITY_TYPES = ['site', 'area', 'cabinet', 'bank', 'bank-design', 'spare', 'person', 'visit', 'shutdown-window', 'photo'] as const;
 export type RegisterEntityType = (typeof REGISTER_ENTITY_TYPES)[number];
 
 /** What happened to a record. */

@@ -54,6 +54,8 @@ const envSchema = z.object({
   TRUST_PROXY: flag.default(false),
   /** Hours after its planned end at which a visit still planned is marked missed (the job every 15 min). */
   MISSED_VISIT_AFTER_HOURS: z.coerce.number().min(0).max(720).default(12),
+  /** Folder where the photos of visits are kept (generated names; never inside the web root). */
+  PHOTO_DIR: z.string().min(1).default('.data/photos'),
 });
 
 export type Config = Omit<

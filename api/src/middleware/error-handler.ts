@@ -30,6 +30,10 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'file-too-large': 413,
   'unsupported-file': 415,
   'unsupported-media-type': 415,
+  // a photo upload whose content is no image of the accepted types (whatever its name says)
+  'not-an-image': 415,
+  // a photo of more pixels than PHOTO_MAX_MEGAPIXELS
+  'image-too-large': 413,
   'identity-provider-unreachable': 503,
   'database-unavailable': 503,
   // the value may be right: the client asks the person and sends it again with `confirmed: true`

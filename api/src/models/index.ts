@@ -17,3 +17,4 @@ export { VisitBank } from './visit-bank';
 export { VisitTechnician } from './visit-technician';
 export { PersonSite } from './person-site';
 export { CalendarFeed } from './calendar-feed';
+export { Photo } from './photo';
