@@ -18,12 +18,14 @@ import { DecayRun } from '../models/decay-run';
 import { Visit } from '../models/visit';
 import { recordAudit } from './audit';
 import { setBankBaseline } from './banks';
+import { loadDecayRun } from './decay-runs';
 import { enqueueOutboxMessage } from './outbox';
 import type { UnitOfWork } from './unit-of-work';
 import { transitionVisit } from './visits';
 
 /** What a review did beside the run itself, for the caller and the outbox. */
 export interface DecayRunReviewResult {
+  /** The run as reviewed, loaded for its answer (bank, cabinet, people, versions). */
   run: DecayRun;
   /** True when the run became its bank's baseline. */
   baselineSet: boolean;
@@ -137,7 +139,7 @@ export async function reviewDecayRun(uow: UnitOfWork, runId: string, input: Deca
     baselineSet,
     visitReviewed,
   });
-  return { run, baselineSet, visitReviewed };
+  return { run: await loadDecayRun(run.id, transaction), baselineSet, visitReviewed };
 }
 
 /** What the audit trail keeps of a run's review. */

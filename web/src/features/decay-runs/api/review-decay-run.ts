@@ -58,15 +58,17 @@ export async function reviewDecayRun(runId: string, review: DecayRunReview): Pro
 }
 
 /**
- * The review as a mutation. On success the run, the visit's runs and lists, the visit (it may
+ * The review as a mutation. On success `onReviewed` is told first (before the queue is read
+ * again and the visit may leave it), then the run, the visit's runs and lists, the visit (it may
  * have become reviewed) and the bank (its baseline may have moved) are read again.
  */
-export function useReviewDecayRun() {
+export function useReviewDecayRun(options: { onReviewed?: (run: DecayRun) => void } = {}) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: ({ run, review }: { run: Pick<DecayRun, 'id' | 'visitId' | 'bankId'>; review: DecayRunReview }) =>
       reviewDecayRun(run.id, review),
     onSuccess: async (answer, { run }) => {
+      options.onReviewed?.(answer);
       client.setQueryData(decayRunKeys.detail(answer.id), answer);
       await Promise.all([
         client.invalidateQueries({ queryKey: decayRunKeys.lists() }),
@@ -90,11 +92,12 @@ export async function markVisitReviewed(visit: Pick<Visit, 'id' | 'version'>): P
   });
 }
 
-export function useMarkVisitReviewed() {
+export function useMarkVisitReviewed(options: { onReviewed?: (visit: Visit) => void } = {}) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (visit: Pick<Visit, 'id' | 'version'>) => markVisitReviewed(visit),
     onSuccess: async (visit) => {
+      options.onReviewed?.(visit);
       client.setQueryData(reviewKeys.visit(visit.id), visit);
       await client.invalidateQueries({ queryKey: reviewKeys.loggedVisits() });
     },

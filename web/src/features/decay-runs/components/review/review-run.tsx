@@ -48,7 +48,7 @@ export function ReviewRun({
   markedWaitSeconds: number | null;
   onReviewed?: (run: DecayRun) => void;
 }) {
-  const review = useReviewDecayRun();
+  const review = useReviewDecayRun({ onReviewed });
   const [comment, setComment] = useState(run.review.comment);
   const [useAsBaseline, setUseAsBaseline] = useState(false);
   const [commentProblem, setCommentProblem] = useState<string | null>(null);
@@ -67,12 +67,7 @@ export function ReviewRun({
     setCommentProblem(null);
     review.mutate(
       { run, review: { outcome, comment: text, ...(outcome === 'accepted' && baseline.offered && useAsBaseline ? { useAsBaseline: true } : {}) } },
-      {
-        onSuccess: (answer) => {
-          setEditing(false);
-          onReviewed?.(answer);
-        },
-      },
+      { onSuccess: () => setEditing(false) },
     );
   }
 

@@ -52,7 +52,7 @@ export function ReviewVisit({ visitId, initial, onReviewed }: { visitId: string;
   const runsQuery = useQuery(visitDecayRunsQueryOptions(visitId));
   const visit = visitQuery.data;
   const banks = useQueries({ queries: (visit?.banks ?? []).map((bank) => reviewBankQueryOptions(bank.id)) });
-  const markReviewed = useMarkVisitReviewed();
+  const markReviewed = useMarkVisitReviewed({ onReviewed: (reviewed) => onReviewed?.(reviewed.id) });
 
   if (!visit) {
     return visitQuery.isError ? (
@@ -108,7 +108,7 @@ export function ReviewVisit({ visitId, initial, onReviewed }: { visitId: string;
               variant="primary"
               className="min-h-12"
               disabled={markReviewed.isPending}
-              onClick={() => markReviewed.mutate(visit, { onSuccess: () => onReviewed?.(visit.id) })}
+              onClick={() => markReviewed.mutate(visit)}
             >
               Mark the visit reviewed
             </Button>
