@@ -32,6 +32,7 @@ import { withoutFeedSecret } from './routes/calendar-feed/hide-secret';
 import { windowProposalRouter } from './routes/shutdown-windows/proposal';
 import { technicianLoadRouter } from './routes/technician-load/router';
 import { visitsRouter } from './routes/visits/router';
+import { loggerFilesRouter } from './routes/logger-files/router';
 import { photosRouter, visitPhotosRouter } from './routes/photos/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
@@ -106,6 +107,7 @@ export function createApp(): express.Express {
   api.use('/due', dueRouter);
   api.use('/shutdown-windows', windowProposalRouter);
   api.use('/technician-load', technicianLoadRouter);
+  api.use('/logger-files', loggerFilesRouter);
   api.use(apiNotFound);
   // deny by default: a route that declares no roles stops the app from starting
   app.locals.apiRoutes = assertEveryRouteDeclaresAccess(api, '/api');

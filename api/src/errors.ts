@@ -35,6 +35,9 @@ export const ERROR_CODES = [
   'file-too-large',
   'unsupported-file',
   'unsupported-media-type',
+  'not-a-text-file',
+  'columns-ambiguous',
+  'unreadable-file',
   'not-an-image',
   'image-too-large',
   'identity-provider-unreachable',
@@ -60,6 +63,8 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly issues?: FieldIssue[],
+    /** More for the client beside the message, answered as fields of the error (e.g. `candidates`). */
+    readonly details?: Record<string, unknown>,
   ) {
     super(message);
   }

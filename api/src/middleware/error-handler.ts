@@ -30,6 +30,12 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'file-too-large': 413,
   'unsupported-file': 415,
   'unsupported-media-type': 415,
+  // a logger file whose content is not text (an image, a workbook, a zero byte), whatever its name
+  'not-a-text-file': 415,
+  // a logger file whose column names leave the time or the voltage open: the person chooses
+  'columns-ambiguous': 422,
+  // a text file that cannot be read as a decay run (the reader's reason names row and column)
+  'unreadable-file': 422,
   // a photo upload whose content is no image of the accepted types (whatever its name says)
   'not-an-image': 415,
   // a photo of more pixels than PHOTO_MAX_MEGAPIXELS
@@ -111,6 +117,6 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   // 503s are passing: tell clients when to ask again (RFC 9110, 10.2.3)
   if (status === 503) res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
   res.status(status).json({
-    error: { code: known.code, message: known.message, ...(known.issues ? { issues: known.issues } : {}) },
+    error: { ...known.details, code: known.code, message: known.message, ...(known.issues ? { issues: known.issues } : {}) },
   });
 };
