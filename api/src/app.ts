@@ -34,6 +34,7 @@ import { technicianLoadRouter } from './routes/technician-load/router';
 import { visitsRouter } from './routes/visits/router';
 import { loggerFilesRouter } from './routes/logger-files/router';
 import { photosRouter, visitPhotosRouter } from './routes/photos/router';
+import { bankDecayRunsRouter, decayRunsRouter, visitDecayRunsRouter } from './routes/decay-runs/router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -83,6 +84,8 @@ export function createApp(): express.Express {
   app.use('/auth', session, authRouter);
 
   const api = express.Router();
+  // a decay run from a logger file may carry up to 20 000 readings (a few MB of JSON)
+  api.use(['/visits/:visitId/decay-runs', '/decay-runs/:runId/corrections'], express.json({ limit: '4mb' }));
   api.use(express.json({ limit: '1mb' }));
   api.use('/health', healthRouter);
   api.use(session);
@@ -97,10 +100,13 @@ export function createApp(): express.Express {
   api.use('/sites', sitesRouter);
   api.use('/areas', areasRouter);
   api.use('/cabinets', cabinetsRouter);
+  api.use('/banks/:bankId/decay-runs', bankDecayRunsRouter);
   api.use('/banks', banksRouter);
   api.use('/bank-designs', bankDesignsRouter);
   api.use('/spares', sparesRouter);
   api.use('/visits/:visitId/photos', visitPhotosRouter);
+  api.use('/visits/:visitId/decay-runs', visitDecayRunsRouter);
+  api.use('/decay-runs', decayRunsRouter);
   api.use('/photos', photosRouter);
   api.use('/visits', visitsRouter);
   api.use('/shutdown-windows', shutdownWindowsRouter);

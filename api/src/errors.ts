@@ -47,6 +47,10 @@ export const ERROR_CODES = [
   'visit-state',
   'superseded',
   'baseline-refused',
+  'client-id-reused',
+  'visit-not-open',
+  'already-corrected',
+  'bank-not-on-visit',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

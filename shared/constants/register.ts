@@ -70,11 +70,11 @@ export type SpareStatus = (typeof SPARE_STATUSES)[number];
 export const DEFAULT_REFORMING_INTERVAL_DAYS = 365;
 
 /** Kinds of register record the audit trail knows. */
-export const REGISTER_ENTITY_TYPES = ['site', 'area', 'cabinet', 'bank', 'bank-design', 'spare', 'person', 'visit', 'shutdown-window', 'photo'] as const;
+export const REGISTER_ENTITY_TYPES = ['site', 'area', 'cabinet', 'bank', 'bank-design', 'spare', 'person', 'visit', 'shutdown-window', 'decay-run', 'photo'] as const;
 export type RegisterEntityType = (typeof REGISTER_ENTITY_TYPES)[number];
 
 /** What happened to a record. */
-export const AUDIT_ACTIONS = ['create', 'update', 'retire', 'restore', 'replace', 'baseline', 'import', 'start', 'log', 'review', 'cancel', 'replan', 'miss'] as const;
+export const AUDIT_ACTIONS = ['create', 'update', 'retire', 'restore', 'replace', 'baseline', 'import', 'start', 'log', 'review', 'cancel', 'replan', 'miss', 'record', 'correct'] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
 /** Largest CSV accepted by the cabinet import, in bytes (2 MiB: tens of thousands of rows). */

@@ -188,6 +188,10 @@ export interface VisitBankRef {
   position: string;
   bankDesignCode: string;
   baselineTauSeconds: number;
+  /** τ of the bank's newest current accepted decay run (any visit), seconds; null when none. */
+  lastTauSeconds: number | null;
+  /** The bank's current decay runs on this visit (corrected versions counted once). */
+  runCount: number;
 }
 
 /** A visit as the API returns it. Instants are UTC ISO; show them in `timeZone` (the site's). */

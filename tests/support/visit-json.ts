@@ -26,7 +26,7 @@ export function visitJson(overrides: Partial<Visit> = {}): Visit {
     reviewedAt: null,
     missedAt: null,
     cancelledAt: null,
-    banks: [{ id: '40000000-0000-4000-8000-000000000001', position: 'DC1', bankDesignCode: 'EL-4700', baselineTauSeconds: 42 }],
+    banks: [{ id: '40000000-0000-4000-8000-000000000001', position: 'DC1', bankDesignCode: 'EL-4700', baselineTauSeconds: 42, lastTauSeconds: null, runCount: 0 }],
     technicians: [{ id: 'tech-1', name: 'Ines Falk' }],
     cabinetMarkedWaitMinutes: 5,
     estimatedMinutes: 35,

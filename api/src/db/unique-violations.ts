@@ -16,6 +16,8 @@ const FIELD_OF_CONSTRAINT: Record<string, { path: string; what: string }> = {
   banks_position_in_service: { path: 'position', what: 'position' },
   spares_code_in_use: { path: 'code', what: 'spare code' },
   users_email_key: { path: 'email', what: 'email address' },
+  decay_runs_client_id_unique: { path: 'clientId', what: 'clientId' },
+  decay_runs_supersedes_unique: { path: 'runId', what: 'correction of this version' },
 };
 
 /** The parts of a driver or Sequelize error that tell a unique clash and its constraint. */

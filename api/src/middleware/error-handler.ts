@@ -52,6 +52,14 @@ export const HTTP_STATUS_OF_CODE: Record<ErrorCode, number> = {
   'superseded': 409,
   // the run cannot be a bank's baseline (no trustworthy τ, or something seen wrong at the cabinet)
   'baseline-refused': 422,
+  // a decay run's clientId sent again with a different body (a retry sends the same body)
+  'client-id-reused': 422,
+  // a decay run recorded on a visit that is not planned or under way
+  'visit-not-open': 409,
+  // a decay run's version corrected already: correct the newest version
+  'already-corrected': 409,
+  // a decay run on a bank the visit does not cover
+  'bank-not-on-visit': 422,
 };
 
 /** The status an AppError answers with: its code's. */

@@ -17,4 +17,5 @@ export { VisitBank } from './visit-bank';
 export { VisitTechnician } from './visit-technician';
 export { PersonSite } from './person-site';
 export { CalendarFeed } from './calendar-feed';
+export { DecayRun } from './decay-run';
 export { Photo } from './photo';

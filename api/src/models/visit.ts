@@ -40,6 +40,8 @@ export class Visit extends Model<InferAttributes<Visit>, InferCreationAttributes
   declare cabinet?: NonAttribute<Cabinet>;
   declare banks?: NonAttribute<Bank[]>;
   declare technicians?: NonAttribute<User[]>;
+  /** Per bank id: its current runs on this visit and τ of its newest accepted run (set by the visits service). */
+  declare decayRunFigures?: NonAttribute<ReadonlyMap<string, { lastTauSeconds: number | null; runCount: number }>>;
 }
 
 Visit.init(

@@ -39,6 +39,7 @@ import type { AuthUser } from '../types/express';
 import { recordAudit, recordAuditBatch, type AuditRecordInput } from './audit';
 import { staleVersion } from './register-records';
 import type { Actor, UnitOfWork } from './unit-of-work';
+import { visitBankRunFigures } from './visit-run-figures';
 import { overrideIssues, overrideNeeded, planningWarningsOf, type PlannedVisit } from './visit-planning';
 
 /** Who is reading visits: their id and roles. */
@@ -78,6 +79,9 @@ const VISIBLE_TO_TECHNICIAN = `(
 async function loadVisits(ids: readonly string[], transaction?: Transaction): Promise<Visit[]> {
   if (ids.length === 0) return [];
   const rows = await Visit.findAll({ where: { id: [...ids] }, include: VISIT_INCLUDE, transaction });
+  // the banks' decay-run figures of every visit of the list in one query
+  const figures = await visitBankRunFigures(ids, transaction);
+  for (const row of rows) row.decayRunFigures = figures.get(row.id) ?? new Map();
   const byId = new Map(rows.map((row) => [row.id, row]));
   return ids.map((id) => byId.get(id)).filter((row): row is Visit => row !== undefined);
 }

@@ -39,6 +39,8 @@ export function presentVisit(visit: Visit): VisitJson {
       position: bank.position,
       bankDesignCode: bank.bankDesign?.code ?? '',
       baselineTauSeconds: bank.baselineTauSeconds,
+      lastTauSeconds: visit.decayRunFigures?.get(bank.id)?.lastTauSeconds ?? null,
+      runCount: visit.decayRunFigures?.get(bank.id)?.runCount ?? 0,
     })),
     technicians: technicians.map((t) => ({ id: t.id, name: t.name })),
     cabinetMarkedWaitMinutes: markedWaitMinutes,

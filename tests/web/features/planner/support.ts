@@ -9,7 +9,7 @@ export function visitOf(change: Partial<Visit> = {}): Visit {
     siteId: 's1',
     siteName: 'Bremen',
     areaId: 'a1',
-    banks: [{ id: 'b1', position: 'A', bankDesignCode: 'EL-450', baselineTauSeconds: 47 }],
+    banks: [{ id: 'b1', position: 'A', bankDesignCode: 'EL-450', baselineTauSeconds: 47, lastTauSeconds: null, runCount: 0 }],
     technicians: [{ id: 't1', name: 'Ana' }],
     cabinetMarkedWaitMinutes: 15,
     estimatedMinutes: 45,

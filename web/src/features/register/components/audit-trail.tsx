@@ -18,6 +18,8 @@ const ACTION_LABELS: Record<AuditEntry['action'], string> = {
   cancel: 'Cancelled',
   replan: 'Replanned',
   miss: 'Marked missed',
+  record: 'Recorded',
+  correct: 'Corrected',
 };
 
 // words a reader knows, where the field's own name would not do
