@@ -135,7 +135,18 @@ function serveWebApp(app: express.Express, distDir: string): void {
     logger.warn({ root }, 'web app not built: run `npm run build`');
     return;
   }
-  app.use(express.static(root, { index: false, maxAge: '1h' }));
+  app.use(
+    express.static(root, {
+      index: false,
+      maxAge: '1h',
+      // the service worker, the web manifest, index.html and the icons keep their names from
+      // one version to the next: a browser asks each time, so an update is picked up at once
+      // (the hashed files under assets/ never change under their name)
+      setHeaders(res, filePath) {
+        if (!path.relative(root, filePath).startsWith('assets' + path.sep)) res.setHeader('Cache-Control', 'no-cache');
+      },
+    }),
+  );
   // a file that is not there (an old hashed asset, a typo) is a 404, never the HTML page,
   // which a browser would run as a broken script
   app.get(/^\/assets\/|\/[^/]*\.[A-Za-z0-9]+$/, (_req, res) => {
