@@ -2,15 +2,17 @@ import { useMemo, useState } from 'react';
 import type { Bank } from '../../../../../shared/schemas/bank';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
-import { Field, inputClass, TextArea, UnitInput } from '../../../components/ui/field';
+import { Field, TextArea, UnitInput } from '../../../components/ui/field';
 import { formatPercentFigure, type BankEngineInputs } from '../../../../../shared/domain';
 import { formatMicrofarads, formatOhms, formatSeconds, formatVolts } from '../../../lib/units';
 import { useDecayCheck } from '../hooks/use-decay-check';
 import { seconds } from '../utils/figures';
 import { leftOutRows, type LeftOutMark } from '../utils/left-out-rows';
-import { readPastedReadings, type ReadingIssue, type ReadingRow } from '../utils/readings';
+import { readPastedReadings, type ReadingRow } from '../utils/readings';
 import type { DecayCheckOutcome } from '../utils/run-check';
 import { DecayVerdictView } from './decay-verdict';
+import { LoggerUpload } from './logger/logger-upload';
+import { ReadingsTable } from './readings-table';
 
 /** What the check is judged with, in one paragraph, so an engineer can see where each figure comes from. */
 function JudgedWith({ bank, facts }: { bank: Bank; facts: BankEngineInputs }) {
@@ -26,84 +28,6 @@ function JudgedWith({ bank, facts }: { bank: Bank; facts: BankEngineInputs }) {
       {cabinet.nominalBusVolts !== undefined ? `${formatVolts(cabinet.nominalBusVolts)} DC bus` : 'DC-bus voltage not recorded'},{' '}
       {cabinet.markedWaitSeconds !== undefined ? `marked wait ${formatSeconds(cabinet.markedWaitSeconds)}` : 'no marked wait time'}.
     </p>
-  );
-}
-
-function ReadingsTable({
-  rows,
-  issues,
-  leftOut,
-  onCell,
-  onRemove,
-}: {
-  rows: readonly ReadingRow[];
-  issues: readonly ReadingIssue[];
-  /** Rows whose reading the engine left out, with their mark and explanation. */
-  leftOut: ReadonlyMap<number, LeftOutMark>;
-  onCell: (index: number, field: keyof ReadingRow, value: string) => void;
-  onRemove: (index: number) => void;
-}) {
-  return (
-    <fieldset>
-      <legend className="mb-1 text-sm font-medium text-tide-900">Readings</legend>
-      <div className="grid grid-cols-[2rem_1fr_1fr_2.5rem] items-end gap-x-2 text-xs font-bold uppercase tracking-wide text-tide-600" aria-hidden="true">
-        <span>Row</span>
-        <span>Time since isolation (s)</span>
-        <span>DC bus (V)</span>
-        <span />
-      </div>
-      <ol className="mt-1 space-y-1.5">
-        {rows.map((row, i) => {
-          const n = i + 1;
-          const rowIssues = issues.filter((issue) => issue.row === n);
-          const bad = (field: ReadingIssue['field']) => rowIssues.some((issue) => issue.field === field);
-          const errorId = `reading-${n}-error`;
-          const mark = leftOut.get(n);
-          const markId = `reading-${n}-left-out`;
-          const describedBy = [rowIssues.length ? errorId : '', mark ? markId : ''].filter(Boolean).join(' ') || undefined;
-          return (
-            <li key={i} data-testid={`reading-row-${n}`} data-left-out={mark ? 'true' : undefined}>
-              <div className={`grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2 ${mark ? '-mx-1 rounded-md bg-watch-600/10 px-1 py-0.5' : ''}`}>
-                <span className={`text-right font-mono text-sm ${mark ? 'font-bold text-watch-600' : 'text-tide-600'}`}>{n}</span>
-                <ReadingCell
-                  id={`reading-${n}-time`}
-                  label={`Row ${n}: time since isolation, seconds`}
-                  value={row.time}
-                  invalid={bad('time')}
-                  describedBy={describedBy}
-                  onChange={(value) => onCell(i, 'time', value)}
-                />
-                <ReadingCell
-                  id={`reading-${n}-volts`}
-                  label={`Row ${n}: DC-bus voltage, volts`}
-                  value={row.volts}
-                  invalid={bad('volts')}
-                  describedBy={describedBy}
-                  onChange={(value) => onCell(i, 'volts', value)}
-                />
-                <Button variant="ghost" size="sm" className="px-0" aria-label={`Remove row ${n}`} onClick={() => onRemove(i)}>
-                  ✕
-                </Button>
-              </div>
-              {rowIssues.length ? (
-                <div id={errorId} data-testid={`error-reading-${n}`} className="ml-10 mt-0.5 space-y-0.5 text-sm font-medium text-eol-600">
-                  {rowIssues.map((issue) => (
-                    <p key={issue.field + issue.message}>{issue.message}</p>
-                  ))}
-                </div>
-              ) : null}
-              {mark ? (
-                <div id={markId} data-testid={`left-out-reading-${n}`} className="ml-10 mt-0.5 text-sm text-tide-900">
-                  <span className="mr-1 inline-flex rounded-full bg-watch-600/15 px-2 py-0.5 text-xs font-bold text-watch-600">{mark.label}</span>
-                  {mark.explanation}
-                </div>
-              ) : null}
-            </li>
-          );
-        })}
-      </ol>
-      <p className="mt-1 text-xs text-tide-600">Seconds (or m:ss) from the moment of isolation; a new row opens as you type in the last one.</p>
-    </fieldset>
   );
 }
 
@@ -180,7 +104,8 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
     <Card title="Decay check">
       <div data-testid="decay-check" className="space-y-4">
         <p className="rounded-lg bg-tide-50 px-3 py-2 text-sm text-tide-900" data-testid="decay-not-stored">
-          <b>This check is not stored.</b> It runs in your browser and is gone when you leave the page; recording decay runs comes with visits.
+          <b>This check is not stored.</b> It runs in your browser and is gone when you leave the page. To record a decay run, open this bank's visit
+          in My visits (or start one at the cabinet): runs recorded on a visit are kept, reviewed, and listed under Decay runs above.
         </p>
         {!facts ? (
           <p className="text-sm text-tide-800">This bank's design has no revision to judge with.</p>
@@ -198,6 +123,15 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
                 </Button>
               </div>
               <PasteBox onRows={check.replaceRows} />
+              <details className="rounded-lg border border-tide-100 px-3 py-2" data-testid="decay-logger-file">
+                <summary className="cursor-pointer py-2 text-sm font-medium text-tide-800">Or read a logger file</summary>
+                <div className="mt-2">
+                  <LoggerUpload
+                    engine={facts}
+                    onUse={(samples) => check.replaceRows(samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })))}
+                  />
+                </div>
+              </details>
               <fieldset className="space-y-3">
                 <legend className="mb-1 text-sm font-medium text-tide-900">Conditions (optional)</legend>
                 <Field id="decay-bank-temp" label="Bank temperature" hint="Normalises the capacitance to 20 °C" error={conditionError('bankTempC')}>
@@ -256,33 +190,5 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
         )}
       </div>
     </Card>
-  );
-}
-
-/** One cell of a reading: a decimal input with its own (screen-reader) label. */
-function ReadingCell(props: {
-  id: string;
-  label: string;
-  value: string;
-  invalid: boolean;
-  describedBy: string | undefined;
-  onChange: (value: string) => void;
-}) {
-  return (
-    <div>
-      <label htmlFor={props.id} className="sr-only">
-        {props.label}
-      </label>
-      <input
-        id={props.id}
-        className={inputClass}
-        inputMode="decimal"
-        autoComplete="off"
-        value={props.value}
-        aria-invalid={props.invalid || undefined}
-        aria-describedby={props.describedBy}
-        onChange={(e) => props.onChange(e.target.value)}
-      />
-    </div>
   );
 }

@@ -1,5 +1,5 @@
 import { useLayoutEffect, useRef, useState } from 'react';
-import type { DecaySample, DecayVerdict } from '../../../../../shared/domain';
+import type { DecayFit, DecaySample } from '../../../../../shared/domain';
 
 /** Text of the chart in CSS pixels: the chart is drawn at its own size, so this is what people read. */
 const FONT = 13;
@@ -41,24 +41,26 @@ function ticks(max: number, count: number): number[] {
 /**
  * The readings against the fitted decay V0 · e^(−t/τ): used readings filled, readings left out
  * hollow and crossed, the 60 V line dashed. Drawn at the width of its box (text stays 13 px on a
- * 390 px phone as on a desktop); a plain SVG, no chart library.
+ * 390 px phone as on a desktop); a plain SVG, no chart library. Without a fit (`verdict` null,
+ * e.g. the first readings of a capture) it draws the readings alone.
  */
-export function DecayPlot({ samples, verdict }: { samples: readonly DecaySample[]; verdict: DecayVerdict }) {
+export function DecayPlot({ samples, verdict }: { samples: readonly DecaySample[]; verdict: { fit: DecayFit } | null }) {
   const [box, boxWidth] = useWidth<HTMLElement>(FIRST_WIDTH);
   const width = Math.max(MIN_WIDTH, Math.min(MAX_WIDTH, boxWidth));
   const height = Math.round(Math.max(200, Math.min(280, width * 0.62)));
-  const { fit } = verdict;
-  const excluded = new Map(fit.excluded.map((e) => [e.index, e]));
-  const curve = (t: number) => fit.v0Volts * Math.exp(-t / fit.tauSeconds);
+  const fit = verdict?.fit ?? null;
+  const excluded = new Map((fit?.excluded ?? []).map((e) => [e.index, e]));
   const used = samples.map((s, index) => ({ index, t: s.tSeconds, volts: s.volts })).filter((p) => !excluded.has(p.index));
-  const left = fit.excluded.map((e) => ({ index: e.index, t: e.tSeconds, volts: e.volts, code: e.code }));
+  const left = (fit?.excluded ?? []).map((e) => ({ index: e.index, t: e.tSeconds, volts: e.volts, code: e.code }));
   const tMax = Math.max(...samples.map((s) => s.tSeconds), 1);
-  const vMax = Math.max(fit.v0Volts, ...used.map((p) => p.volts), ...left.map((p) => p.volts), 1) * 1.05;
+  const vMax = Math.max(fit?.v0Volts ?? 0, ...used.map((p) => p.volts), ...left.map((p) => p.volts), 1) * 1.05;
   const x = (t: number) => PAD.left + (t / tMax) * (width - PAD.left - PAD.right);
   const y = (v: number) => height - PAD.bottom - (Math.max(0, Math.min(v, vMax)) / vMax) * (height - PAD.top - PAD.bottom);
-  const path = Array.from({ length: 61 }, (_, i) => (tMax * i) / 60)
-    .map((t, i) => `${i === 0 ? 'M' : 'L'}${x(t).toFixed(1)},${y(curve(t)).toFixed(1)}`)
-    .join(' ');
+  const path = fit
+    ? Array.from({ length: 61 }, (_, i) => (tMax * i) / 60)
+        .map((t, i) => `${i === 0 ? 'M' : 'L'}${x(t).toFixed(1)},${y(fit.v0Volts * Math.exp(-t / fit.tauSeconds)).toFixed(1)}`)
+        .join(' ')
+    : null;
   // fewer time ticks on a narrow chart, so the labels never run into each other
   const tTicks = ticks(tMax, width < 360 ? 3 : 5).filter((t) => t <= tMax);
   const vTicks = ticks(vMax, 4).filter((v) => v <= vMax);
@@ -70,7 +72,7 @@ export function DecayPlot({ samples, verdict }: { samples: readonly DecaySample[
         viewBox={`0 0 ${width} ${height}`}
         className="block max-w-full"
         role="img"
-        aria-label={`Readings against the fitted decay: ${used.length} used, ${left.length} left out`}
+        aria-label={fit ? `Readings against the fitted decay: ${used.length} used, ${left.length} left out` : `Readings: ${used.length}, no fitted decay yet`}
         data-testid="decay-plot"
       >
         {vTicks.map((v) => (
@@ -100,7 +102,7 @@ export function DecayPlot({ samples, verdict }: { samples: readonly DecaySample[
             </text>
           </g>
         ) : null}
-        <path d={path} fill="none" className="stroke-tide-600" strokeWidth={1.5} />
+        {path ? <path d={path} fill="none" className="stroke-tide-600" strokeWidth={1.5} /> : null}
         {used.map((p) => (
           <circle key={p.index} cx={x(p.t)} cy={y(p.volts)} r={3.5} className="fill-tide-900" />
         ))}
@@ -114,7 +116,7 @@ export function DecayPlot({ samples, verdict }: { samples: readonly DecaySample[
       <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-sm text-tide-800">
         <span>● reading used</span>
         <span className="text-eol-600">⊗ left out</span>
-        <span>— fitted decay</span>
+        {fit ? <span>— fitted decay</span> : null}
         <span className="text-eol-600">- - 60 V</span>
       </figcaption>
     </figure>

@@ -1,5 +1,29 @@
+import { useQueries } from '@tanstack/react-query';
+import { useId, useMemo, useState } from 'react';
+import { HEALTH_LABELS } from '../../../../../../shared/constants/health';
+import { REVIEW_STATE_LABELS } from '../../../../../../shared/constants/decay-runs';
 import type { Role } from '../../../../../../shared/constants/roles';
-import type { Visit } from '../../../../../../shared/schemas/visit';
+import type { DecaySample } from '../../../../../../shared/domain';
+import { judgeRecordedRun } from '../../../../../../shared/domain/recorded-run';
+import { decayRunInputSchema, type DecayRun, type DecayRunInput } from '../../../../../../shared/schemas/decay-run';
+import type { Visit, VisitBankRef } from '../../../../../../shared/schemas/visit';
+import { Badge } from '../../../../components/ui/badge';
+import { Button } from '../../../../components/ui/button';
+import { Card } from '../../../../components/ui/card';
+import { captureBankQueryOptions, useCaptureEngine } from '../../api/get-capture-bank';
+import { useVisitDecayRuns } from '../../api/get-decay-runs';
+import { createDraft, discardDraft, markReady, updateDraft, useVisitDrafts, type RunDraft } from '../../drafts/draft-store';
+import { DecayPlot } from '../decay-plot';
+import { LoggerUpload } from '../logger/logger-upload';
+import { VisitPhotos } from '../photos/visit-photos';
+import { RunVerdict } from '../verdict/run-verdict';
+import { VisitRuns } from '../verdict/visit-runs';
+import { expectedTauOf } from './capture-facts';
+import { ABSENCE_CHECK, GuidedCapture } from './guided-capture';
+import { liveFit } from './live-fit';
+import { ObservationsForm, type RunObservations } from './observations-form';
+import { PaperSheet } from './paper-sheet';
+import { BigCheck, SafetyGate, type GateConfirmation } from './safety-gate';
 
 /** Who is looking at the visit. */
 export interface CaptureViewer {
@@ -7,21 +31,571 @@ export interface CaptureViewer {
   roles: readonly Role[];
 }
 
+/** Where a run in progress is, kept on this phone beside its draft so a reload resumes there. */
+type Step = 'method' | 'guided' | 'typed' | 'logger' | 'finish';
+
+interface StepState {
+  step: Step;
+  /** The guided capture has ended (a reading below 50 V, or Stop). */
+  ended: boolean;
+}
+
+const STEP_KEY = (clientId: string) => `ebbline-capture-step:${clientId}`;
+
+function loadStep(draft: RunDraft): StepState {
+  try {
+    const stored = JSON.parse(localStorage.getItem(STEP_KEY(draft.clientId)) ?? 'null') as StepState | null;
+    if (stored && typeof stored.step === 'string') return stored;
+  } catch {
+    // nothing kept: work it out from the draft
+  }
+  const source = draft.body.source;
+  if (draft.body.samples?.length || (source === 'guided' && draft.body.isolatedAt)) return { step: source ?? 'guided', ended: false };
+  return { step: 'method', ended: false };
+}
+
+function saveStep(clientId: string, state: StepState): void {
+  try {
+    localStorage.setItem(STEP_KEY(clientId), JSON.stringify(state));
+  } catch {
+    // private mode: the step is worked out from the draft after a reload
+  }
+}
+
+/** The run a bank has on this visit: its newest current stored run, and this phone's drafts. */
+interface BankState {
+  bank: VisitBankRef;
+  run: DecayRun | undefined;
+  /** The newest draft not yet sent (capturing, ready, sending or refused). */
+  draft: RunDraft | undefined;
+}
+
+function bankStates(visit: Visit, drafts: readonly RunDraft[], runs: readonly DecayRun[] | undefined): BankState[] {
+  return visit.banks.map((bank) => {
+    const current = (runs ?? []).filter((r) => r.bankId === bank.id && r.supersededById === null);
+    const sentIds = new Set((runs ?? []).map((r) => r.clientId));
+    const unsent = drafts.filter((d) => d.bankId === bank.id && d.status !== 'sent' && !sentIds.has(d.clientId));
+    return { bank, run: current.sort((a, b) => b.recordedAt.localeCompare(a.recordedAt))[0], draft: unsent.at(-1) };
+  });
+}
+
 /**
- * The work at the cabinet for one visit: each bank with its state, and per bank the safety
- * gate, the readings (guided, from a paper sheet, or a logger file), the observations, the
- * save and the verdict.
+ * The work at the cabinet for one visit: each bank with its state (not measured, in progress
+ * on this phone, saved and waiting to be sent, sent with its health, queried with the
+ * reviewer's comment), and per bank the safety gate, the readings (guided capture, a paper
+ * sheet or a logger file), the observations, the save and the verdict. A run in progress is a
+ * draft on this phone from the safety confirmation on: after a reload it opens where it was.
  */
-export function VisitCapture({ visit }: { visit: Visit; viewer: CaptureViewer }) {
+export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureViewer }) {
+  const drafts = useVisitDrafts(visit.id);
+  const runs = useVisitDecayRuns(visit.id);
+  const states = bankStates(visit, drafts, runs.data);
+  // undefined until the technician opens or closes a bank: a run in progress on this phone
+  // then opens where it was (after a reload or a closed tab)
+  const [chosen, setChosen] = useState<{ bankId: string; clientId?: string } | null | undefined>(undefined);
+  const headingId = useId();
+  // the bank's figures for the live verdict, loaded while the connection is there
+  useQueries({ queries: visit.banks.map((bank) => captureBankQueryOptions(bank.id)) });
+  const capturing = drafts.filter((d) => d.status === 'capturing' && visit.banks.some((b) => b.id === d.bankId)).at(-1);
+  const open = chosen === undefined ? (capturing ? { bankId: capturing.bankId, clientId: capturing.clientId } : null) : chosen;
+  const setOpen = setChosen;
+
+  const openState = open ? states.find((s) => s.bank.id === open.bankId) : undefined;
+  const openDraft = open?.clientId ? drafts.find((d) => d.clientId === open.clientId) : undefined;
+
   return (
-    <section aria-label="Decay runs" data-testid="visit-capture">
-      {visit.banks.length} banks
+    <section aria-labelledby={headingId} className="space-y-4" data-testid="visit-capture">
+      <h2 id={headingId} className="text-xl font-bold text-tide-900">
+        At the cabinet
+      </h2>
+      {openState ? (
+        <Card>
+          {open?.clientId && !openDraft ? (
+            <p className="text-sm text-tide-800">Opening the run kept on this phone…</p>
+          ) : (
+            <BankCapture
+              key={open!.bankId}
+              visit={visit}
+              viewer={viewer}
+              bank={openState.bank}
+              initialDraft={openDraft}
+              drafts={drafts}
+              onClose={() => setOpen(null)}
+            />
+          )}
+        </Card>
+      ) : (
+        <Card title={visit.banks.length === 1 ? 'The bank to measure' : `The ${visit.banks.length} banks to measure`}>
+          <ul className="divide-y divide-tide-100" data-testid="capture-banks">
+            {states.map((state) => (
+              <BankRow
+                key={state.bank.id}
+                state={state}
+                onMeasure={() => setOpen({ bankId: state.bank.id, clientId: state.draft?.status === 'capturing' ? state.draft.clientId : undefined })}
+                onOpenDraft={() => state.draft && setOpen({ bankId: state.bank.id, clientId: state.draft.clientId })}
+              />
+            ))}
+          </ul>
+        </Card>
+      )}
+      {!openState ? <VisitRuns visitId={visit.id} /> : null}
     </section>
   );
 }
 
-/** In the "Mark as logged" confirmation: the banks of the visit with no run sent yet. */
+function BankRow({ state, onMeasure, onOpenDraft }: { state: BankState; onMeasure: () => void; onOpenDraft: () => void }) {
+  const { bank, run, draft } = state;
+  const position = bank.position;
+  return (
+    <li className="space-y-2 py-3" data-testid={`capture-bank-${position}`}>
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <span className="min-w-0">
+          <span className="block text-lg font-bold text-tide-900">Bank {position}</span>
+          <span className="block text-sm text-tide-600">{bank.bankDesignCode}</span>
+        </span>
+        <BankStateBadge state={state} />
+      </div>
+      {draft?.status === 'refused' ? (
+        <p className="rounded-lg border border-eol-600/40 bg-eol-600/5 px-3 py-2 text-sm text-tide-950">
+          The server refused the run saved on this phone: {draft.refusal ?? 'no reason given'}. The readings are kept here.
+        </p>
+      ) : null}
+      {run?.review.state === 'queried' ? (
+        <p className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950" data-testid={`queried-${position}`}>
+          <b>Queried{run.review.reviewedBy ? ` by ${run.review.reviewedBy.name}` : ''}:</b> “{run.review.comment}”
+        </p>
+      ) : null}
+      {draft?.status === 'capturing' ? (
+        <Button variant="primary" className="min-h-12 w-full text-base" onClick={onMeasure}>
+          Go on with bank {position}
+        </Button>
+      ) : draft && (draft.status === 'ready' || draft.status === 'sending' || draft.status === 'refused') ? (
+        <Button className="min-h-12 w-full text-base" onClick={onOpenDraft}>
+          Open the run of bank {position}
+        </Button>
+      ) : (
+        <Button variant={run ? 'secondary' : 'primary'} className="min-h-12 w-full text-base" onClick={onMeasure}>
+          {run ? `Measure bank ${position} again` : `Measure bank ${position}`}
+        </Button>
+      )}
+    </li>
+  );
+}
+
+function BankStateBadge({ state }: { state: BankState }) {
+  const { run, draft } = state;
+  if (draft?.status === 'capturing') return <Badge tone="spark">in progress on this phone</Badge>;
+  if (draft?.status === 'ready' || draft?.status === 'sending') return <Badge tone="warn">saved on this phone, not sent yet</Badge>;
+  if (draft?.status === 'refused') return <Badge tone="danger">refused: kept on this phone</Badge>;
+  if (!run) return <Badge tone="muted">not measured</Badge>;
+  const health = run.health ? HEALTH_LABELS[run.health] : 'not judged';
+  const tone = run.safetyFinding || run.health === 'end-of-life' ? 'danger' : run.health === 'watch' ? 'warn' : run.health === 'healthy' ? 'ok' : 'muted';
+  return (
+    <span className="flex flex-wrap gap-1">
+      <Badge tone={tone}>sent: {health}</Badge>
+      <Badge tone={run.review.state === 'queried' ? 'warn' : 'muted'}>{REVIEW_STATE_LABELS[run.review.state]}</Badge>
+    </span>
+  );
+}
+
+type Body = RunDraft['body'];
+
+/** One bank's run: gate, method, readings, observations, save, verdict. */
+function BankCapture({
+  visit,
+  viewer,
+  bank,
+  initialDraft,
+  drafts,
+  onClose,
+}: {
+  visit: Visit;
+  viewer: CaptureViewer;
+  bank: VisitBankRef;
+  /** The run in progress to resume; none for a new run (the safety gate first). */
+  initialDraft: RunDraft | undefined;
+  /** The visit's drafts on this phone, live (the run's status follows them). */
+  drafts: readonly RunDraft[];
+  onClose: () => void;
+}) {
+  const { engine, bank: bankRecord } = useCaptureEngine(bank.id);
+  const busVolts = bankRecord?.cabinetDcBusVolts ?? undefined;
+  const [body, setBody] = useState<Body | undefined>(initialDraft?.body);
+  const [stepState, setStepState] = useState<StepState | undefined>(() => (initialDraft ? loadStep(initialDraft) : undefined));
+  const [problem, setProblem] = useState<string | null>(null);
+  const [creating, setCreating] = useState(false);
+  const [openedAt] = useState(() => new Date().toISOString());
+  const draft = body ? (drafts.find((d) => d.clientId === body.clientId) ?? initialDraft) : undefined;
+  const samples = useMemo(() => (body?.samples ?? []) as DecaySample[], [body?.samples]);
+
+  const clientId = body?.clientId;
+  function patch(change: Partial<Body>) {
+    if (!clientId) return;
+    setBody((current) => (current ? { ...current, ...change } : current));
+    updateDraft(clientId, change).catch((error: unknown) => setProblem(error instanceof Error ? error.message : String(error)));
+  }
+  function go(next: Partial<StepState>) {
+    if (!clientId) return;
+    setStepState((current) => {
+      const state = { step: 'method' as Step, ended: false, ...current, ...next };
+      saveStep(clientId, state);
+      return state;
+    });
+  }
+
+  async function confirmGate(confirmation: GateConfirmation) {
+    setCreating(true);
+    try {
+      const created = await createDraft({ visitId: visit.id, bankId: bank.id, source: 'guided' });
+      // absence of voltage is confirmed at the end; until then the draft keeps the gate's four
+      const safety = confirmation as unknown as DecayRunInput['safety'];
+      const updated = await updateDraft(created.clientId, { safety });
+      setBody(updated.body);
+      const state: StepState = { step: 'method', ended: false };
+      saveStep(created.clientId, state);
+      setStepState(state);
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : String(error));
+    } finally {
+      setCreating(false);
+    }
+  }
+
+  const header = (
+    <div className="mb-3 flex items-center justify-between gap-2">
+      <p className="text-sm font-medium text-tide-600">
+        {visit.cabinetTag} · bank {bank.position}
+      </p>
+      <Button variant="ghost" size="sm" className="min-h-10" onClick={onClose}>
+        ← All banks
+      </Button>
+    </div>
+  );
+  const problemLine = problem ? (
+    <p role="alert" className="mt-3 text-sm font-medium text-eol-600">
+      {problem}
+    </p>
+  ) : null;
+
+  if (!body) {
+    return (
+      <div data-testid="bank-capture">
+        {header}
+        <SafetyGate visit={visit} bank={bank} busVolts={busVolts} onConfirm={(c) => void confirmGate(c)} onCancel={onClose} />
+        {creating ? <p className="mt-2 text-sm text-tide-800">Keeping the run on this phone…</p> : null}
+        {problemLine}
+      </div>
+    );
+  }
+  if (!stepState) return null;
+
+  const status = draft?.status ?? 'capturing';
+  const gateAt = (body.safety as { confirmedAt?: string } | undefined)?.confirmedAt ?? openedAt;
+  const absence = (body.safety as { absenceOfVoltageVerified?: boolean } | undefined)?.absenceOfVoltageVerified === true;
+  const setAbsence = (on: boolean) => {
+    const safety = { ...(body.safety ?? {}), absenceOfVoltageVerified: on ? true : undefined } as unknown as DecayRunInput['safety'];
+    patch({ safety });
+  };
+  const expected = expectedTauOf(bank);
+
+  let content;
+  if (status !== 'capturing') {
+    content = <SavedRun visit={visit} viewer={viewer} bank={bank} draft={draft!} body={body} engine={engine} onClose={onClose} />;
+  } else if (stepState.step === 'method') {
+    content = <ChooseMethod bankPosition={bank.position} onChoose={(step) => {
+      if (step === 'typed') patch({ source: 'typed', isolatedAt: body.isolatedAt ?? gateAt });
+      if (step === 'guided') patch({ source: 'guided' });
+      go({ step });
+    }} onDiscard={async () => {
+      await discardDraft(body.clientId);
+      onClose();
+    }} />;
+  } else if (stepState.step === 'guided') {
+    content = (
+      <GuidedCapture
+        expectedTauSeconds={expected.tauSeconds}
+        engine={engine}
+        isolatedAt={body.isolatedAt}
+        samples={samples}
+        ended={stepState.ended}
+        absenceConfirmed={absence}
+        onStart={(isolatedAt) => patch({ isolatedAt, source: 'guided' })}
+        onSamples={(next) => patch({ samples: next })}
+        onEnded={(ended) => go({ ended })}
+        onAbsenceConfirmed={setAbsence}
+        onFinish={() => go({ step: 'finish' })}
+      />
+    );
+  } else if (stepState.step === 'typed') {
+    content = (
+      <PaperSheet
+        engine={engine}
+        samples={samples}
+        isolatedAt={body.isolatedAt ?? gateAt}
+        onSamples={(next) => patch({ samples: next })}
+        onIsolatedAt={(isolatedAt) => patch({ isolatedAt })}
+        onDone={() => go({ step: 'finish' })}
+      />
+    );
+  } else if (stepState.step === 'logger') {
+    content = engine ? (
+      <LoggerUpload
+        engine={engine}
+        onUse={(read, file) => {
+          patch({ source: 'logger', loggerFileName: file.fileName, samples: read, isolatedAt: body.isolatedAt ?? gateAt });
+          go({ step: 'finish' });
+        }}
+      />
+    ) : (
+      <p className="text-base text-tide-900">A logger file is read by Ebbline’s server: it needs a connection. Choose another way, or try again when connected.</p>
+    );
+  } else {
+    content = (
+      <Finish
+        visit={visit}
+        viewer={viewer}
+        bank={bank}
+        body={body}
+        engine={engine}
+        absence={absence}
+        askAbsence={body.source !== 'guided' || !absence}
+        onAbsence={setAbsence}
+        onObservations={(observations) => patch({ observations })}
+        onBack={() => go({ step: body.source === 'logger' ? 'logger' : body.source === 'typed' ? 'typed' : 'guided' })}
+        onSave={async () => {
+          const final = {
+            ...body,
+            isolatedAt: body.isolatedAt ?? gateAt,
+            observations: { visualFindings: [], ...(body.observations ?? {}) },
+          };
+          const parsed = decayRunInputSchema.safeParse(final);
+          if (!parsed.success) {
+            setProblem(`This run cannot be saved yet: ${parsed.error.issues.map((i) => i.message).join(' ')}`);
+            return;
+          }
+          setProblem(null);
+          await updateDraft(body.clientId, final);
+          await markReady(body.clientId);
+        }}
+      />
+    );
+  }
+
+  return (
+    <div data-testid="bank-capture">
+      {header}
+      {status === 'capturing' && stepState.step !== 'method' ? (
+        <h3 className="mb-3 text-lg font-bold text-tide-900">
+          {stepState.step === 'guided' ? 'Guided capture' : stepState.step === 'typed' ? 'Readings from a paper sheet' : stepState.step === 'logger' ? 'Readings from a logger file' : 'Observations and save'}
+        </h3>
+      ) : null}
+      {content}
+      {problemLine}
+    </div>
+  );
+}
+
+function ChooseMethod({ bankPosition, onChoose, onDiscard }: { bankPosition: string; onChoose: (step: Step) => void; onDiscard: () => Promise<void> }) {
+  const [discarding, setDiscarding] = useState(false);
+  return (
+    <div className="space-y-3" data-testid="choose-method">
+      <h3 className="text-lg font-bold text-tide-900">How do you take the readings of bank {bankPosition}?</h3>
+      <MethodButton title="Guided capture now" text="Press Start at isolation; the phone tells you when to read the meter." onClick={() => onChoose('guided')} primary />
+      <MethodButton title="Type readings from a paper sheet" text="You wrote the times and voltages down as you measured." onClick={() => onChoose('typed')} />
+      <MethodButton title="Read a logger file" text="A CSV from a data logger or an oscilloscope." onClick={() => onChoose('logger')} />
+      {discarding ? (
+        <div className="space-y-2 rounded-lg bg-tide-50 p-3">
+          <p className="text-sm text-tide-900">Throw this run away? The safety confirmation is forgotten; nothing was sent.</p>
+          <div className="flex gap-2">
+            <Button variant="danger" onClick={() => void onDiscard()}>
+              Yes, throw it away
+            </Button>
+            <Button onClick={() => setDiscarding(false)}>Keep it</Button>
+          </div>
+        </div>
+      ) : (
+        <Button variant="ghost" size="sm" onClick={() => setDiscarding(true)}>
+          Throw this run away
+        </Button>
+      )}
+    </div>
+  );
+}
+
+function MethodButton({ title, text, onClick, primary = false }: { title: string; text: string; onClick: () => void; primary?: boolean }) {
+  return (
+    <button
+      type="button"
+      onClick={onClick}
+      aria-describedby={undefined}
+      className={`block min-h-16 w-full rounded-xl border-2 px-4 py-3 text-left ${primary ? 'border-tide-800 bg-tide-800 text-white' : 'border-tide-200 bg-white text-tide-900 hover:bg-tide-50'}`}
+    >
+      <span className="block text-lg font-bold">{title}</span>
+      <span className={`block text-sm ${primary ? 'text-tide-50' : 'text-tide-600'}`}>{text}</span>
+    </button>
+  );
+}
+
+function Finish({
+  visit,
+  viewer,
+  bank,
+  body,
+  engine,
+  absence,
+  askAbsence,
+  onAbsence,
+  onObservations,
+  onBack,
+  onSave,
+}: {
+  visit: Visit;
+  viewer: CaptureViewer;
+  bank: VisitBankRef;
+  body: Body;
+  engine: ReturnType<typeof useCaptureEngine>['engine'];
+  absence: boolean;
+  askAbsence: boolean;
+  onAbsence: (on: boolean) => void;
+  onObservations: (observations: RunObservations) => void;
+  onBack: () => void;
+  onSave: () => Promise<void>;
+}) {
+  const [problems, setProblems] = useState<string[]>([]);
+  const [saving, setSaving] = useState(false);
+  const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
+  const observations = body.observations as RunObservations | undefined;
+  const fit = useMemo(() => liveFit(samples, engine, observations ?? {}), [samples, engine, observations]);
+  return (
+    <div className="space-y-5" data-testid="capture-finish">
+      {askAbsence ? <BigCheck label={ABSENCE_CHECK.sentence} checked={absence} onChange={onAbsence} /> : null}
+      <ObservationsForm
+        initial={observations}
+        designBleederOhms={engine?.design.bleederOhms}
+        onChange={(next, nextProblems) => {
+          setProblems(nextProblems);
+          onObservations(next);
+        }}
+      />
+      <div className="space-y-2">
+        <h4 className="text-base font-bold text-tide-900">Photos (optional)</h4>
+        <VisitPhotos visitId={visit.id} bankId={bank.id} canAdd={visit.technicians.some((t) => t.id === viewer.id) || viewer.roles.includes('admin')} />
+      </div>
+      {fit.verdict?.safetyFinding ? (
+        <p className="text-sm font-medium text-eol-600">This run carries a safety finding: it is saved as such.</p>
+      ) : null}
+      <p className="text-sm text-tide-800">
+        {samples.length} reading{samples.length === 1 ? '' : 's'}. Saving keeps the run on this phone and sends it as soon as there is a connection.
+      </p>
+      {problems.length ? (
+        <p role="alert" className="text-sm font-medium text-eol-600">
+          {problems.join(' ')}
+        </p>
+      ) : null}
+      <div className="flex flex-col gap-2 sm:flex-row">
+        <Button
+          variant="primary"
+          className="min-h-12 w-full text-base sm:w-auto"
+          disabled={!absence || saving || problems.length > 0}
+          onClick={() => {
+            setSaving(true);
+            onSave().finally(() => setSaving(false));
+          }}
+        >
+          {saving ? 'Saving…' : 'Save the run'}
+        </Button>
+        <Button className="min-h-12 w-full sm:w-auto" onClick={onBack}>
+          Back to the readings
+        </Button>
+      </div>
+      {!absence ? <p className="text-sm text-tide-800">Confirm absence of voltage first.</p> : null}
+    </div>
+  );
+}
+
+/** After Save: where the run is (on this phone, sending, sent, refused) and its verdict. */
+function SavedRun({
+  visit,
+  viewer,
+  bank,
+  draft,
+  body,
+  engine,
+  onClose,
+}: {
+  visit: Visit;
+  viewer: CaptureViewer;
+  bank: VisitBankRef;
+  draft: RunDraft;
+  body: Body;
+  engine: ReturnType<typeof useCaptureEngine>['engine'];
+  onClose: () => void;
+}) {
+  const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
+  const local = useMemo(
+    () => (engine && samples.length ? judgeRecordedRun({ samples, engine, observations: (body.observations ?? {}) as RunObservations }) : null),
+    [engine, samples, body.observations],
+  );
+  const verdict = draft.run?.verdict ?? local;
+  const fit = verdict?.status === 'ok' ? verdict.fit : null;
+  const plotted = useMemo(() => liveFit(samples, null).plotted, [samples]);
+  return (
+    <div className="space-y-4" data-testid="saved-run">
+      <p
+        role="status"
+        data-testid="saved-run-status"
+        data-status={draft.status}
+        className={`rounded-lg px-3 py-2 text-base font-medium ${draft.status === 'refused' ? 'border border-eol-600/40 bg-eol-600/5 text-eol-600' : 'bg-ok-600/10 text-tide-950'}`}
+      >
+        {draft.status === 'sent'
+          ? '✓ Sent: the run is stored in Ebbline for review.'
+          : draft.status === 'refused'
+            ? `The server refused this run: ${draft.refusal ?? 'no reason given'} The readings stay on this phone.`
+            : '✓ Saved on this phone. It is sent by itself as soon as there is a connection.'}
+      </p>
+      <h3 className="text-lg font-bold text-tide-900">Verdict for bank {bank.position}</h3>
+      {verdict ? (
+        <RunVerdict verdict={verdict} context={{ markedWaitSeconds: visit.cabinetMarkedWaitMinutes ? visit.cabinetMarkedWaitMinutes * 60 : null }} />
+      ) : (
+        <p className="text-base text-tide-900">The verdict shows once the bank’s figures have loaded (a connection is needed).</p>
+      )}
+      {plotted.length ? <DecayPlot samples={plotted} verdict={fit ? { fit } : null} /> : null}
+      <VisitPhotos visitId={visit.id} bankId={bank.id} canAdd={visit.technicians.some((t) => t.id === viewer.id)} />
+      <Button variant="primary" className="min-h-12 w-full text-base sm:w-auto" onClick={onClose}>
+        Back to the banks
+      </Button>
+    </div>
+  );
+}
+
+/**
+ * In the "Mark as logged" confirmation: "Are you sure?" with the banks of the visit that have no
+ * run sent yet (and those still waiting on this phone); nothing when every bank has one.
+ */
 export function UnsentRunsWarning({ visit }: { visit: Visit }) {
-  void visit;
-  return null;
+  const drafts = useVisitDrafts(visit.id);
+  const runs = useVisitDecayRuns(visit.id);
+  const states = bankStates(visit, drafts, runs.data);
+  const missing = states.filter((s) => !s.run);
+  if (missing.length === 0) return null;
+  const waiting = missing.filter((s) => s.draft && s.draft.status !== 'capturing');
+  const none = missing.filter((s) => !s.draft || s.draft.status === 'capturing');
+  const names = (list: BankState[]) => list.map((s) => s.bank.position).join(', ');
+  return (
+    <div role="alert" className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950" data-testid="unsent-runs-warning">
+      <p className="font-bold">Are you sure?</p>
+      {none.length ? (
+        <p>
+          No decay run has been sent for {none.length === 1 ? 'bank' : 'banks'} {names(none)}. A logged visit goes to review without
+          {none.length === 1 ? ' it' : ' them'}.
+        </p>
+      ) : null}
+      {waiting.length ? (
+        <p>
+          The {waiting.length === 1 ? 'run' : 'runs'} of {names(waiting)} {waiting.length === 1 ? 'is' : 'are'} saved on this phone but not
+          sent yet: they are sent when the phone is online.
+        </p>
+      ) : null}
+    </div>
+  );
 }
