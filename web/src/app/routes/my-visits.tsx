@@ -2,6 +2,7 @@ import { Route, Routes, useParams } from 'react-router';
 import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
 import { UnsentRunsWarning, VisitCapture } from '../../features/decay-runs/components/capture/visit-capture';
+import { VisitPhotos } from '../../features/decay-runs/components/photos/visit-photos';
 import { MyVisitPage } from '../../features/my-visits/components/my-visit-page';
 import { MyVisitsList } from '../../features/my-visits/components/my-visits-list';
 
@@ -29,7 +30,18 @@ function VisitScreen() {
       <MyVisitPage
         visitId={visitId}
         viewer={viewer}
-        atCabinet={(visit) => <VisitCapture visit={visit} viewer={viewer} />}
+        atCabinet={(visit) => (
+          <>
+            <VisitCapture visit={visit} viewer={viewer} />
+            <section aria-labelledby="visit-photos-heading" className="mt-6 space-y-2">
+              <h2 id="visit-photos-heading" className="text-xl font-bold text-tide-900">
+                Photos of the visit
+              </h2>
+              <p className="text-sm text-tide-800">The cabinet, its label, anything worth showing the reviewer. Photos of one bank are added with its run.</p>
+              <VisitPhotos visitId={visit.id} canAdd />
+            </section>
+          </>
+        )}
         beforeLogging={(visit) => <UnsentRunsWarning visit={visit} />}
       />
     </div>
