@@ -6,21 +6,38 @@ import { ReviewVisit } from './review-visit';
 
 /**
  * The review queue of reliability engineers: the logged visits, the one waiting longest first,
- * each with its runs to accept or query. A visit whose last run is reviewed leaves the queue
+ * each with its runs to accept or query (the one waiting longest shown open, the others opened
+ * one tap away). A visit whose last run is reviewed leaves the queue
  * and stays below, under "Reviewed just now", for as long as the screen is open.
  */
 export function ReviewQueue() {
   const logged = useLoggedVisits();
   const [reviewedHere, setReviewedHere] = useState<string[]>([]);
-  const noteReviewed = (visitId: string) =>
+  // the visits shown open; until the reviewer opens or closes one, the one waiting longest
+  const [openIds, setOpenIds] = useState<string[] | null>(null);
+  const firstWaiting = logged.data?.items[0]?.id;
+  const openNow = (ids: string[] | null) => ids ?? (firstWaiting ? [firstWaiting] : []);
+  const isOpen = (visitId: string) => openNow(openIds).includes(visitId);
+  const toggle = (visitId: string) =>
+    setOpenIds((ids) => {
+      const current = openNow(ids);
+      return current.includes(visitId)
+        ? current.filter((id) => id !== visitId)
+        : [...current, visitId];
+    });
+  const noteReviewed = (visitId: string) => {
     setReviewedHere((ids) => (ids.includes(visitId) ? ids : [...ids, visitId]));
+    // a visit reviewed stays open where it goes (under "Reviewed just now")
+    setOpenIds((ids) => {
+      const current = openNow(ids);
+      return current.includes(visitId) ? current : [...current, visitId];
+    });
+  };
 
   if (logged.isPending) return <Spinner label="Loading the logged visits…" />;
   if (logged.isError) {
     return (
-      <ErrorPanel title="The logged visits could not be loaded">
-        {logged.error.message}
-      </ErrorPanel>
+      <ErrorPanel title="The logged visits could not be loaded">{logged.error.message}</ErrorPanel>
     );
   }
   const waiting = logged.data.items;
@@ -30,17 +47,33 @@ export function ReviewQueue() {
   return (
     <div className="space-y-6" data-testid="review-queue">
       {waiting.length === 0 ? (
-        <p role="status" className="rounded-xl border border-tide-100 bg-white p-5 text-tide-800 shadow-sm">
+        <p
+          role="status"
+          className="rounded-xl border border-tide-100 bg-white p-5 text-tide-800 shadow-sm"
+        >
           Nothing is waiting for review: every logged visit has been reviewed.
         </p>
       ) : (
         <>
           <p className="text-sm text-tide-800">
-            {logged.data.total === 1 ? 'One logged visit is' : `${logged.data.total} logged visits are`} waiting for review
-            {logged.data.total > waiting.length ? ` (the ${REVIEW_QUEUE_SIZE} waiting longest are shown)` : ''}.
+            {logged.data.total === 1
+              ? 'One logged visit is'
+              : `${logged.data.total} logged visits are`}{' '}
+            waiting for review
+            {logged.data.total > waiting.length
+              ? ` (the ${REVIEW_QUEUE_SIZE} waiting longest are shown)`
+              : ''}
+            .
           </p>
           {waiting.map((visit) => (
-            <ReviewVisit key={visit.id} visitId={visit.id} initial={visit} onReviewed={noteReviewed} />
+            <ReviewVisit
+              key={visit.id}
+              visitId={visit.id}
+              initial={visit}
+              open={isOpen(visit.id)}
+              onToggle={() => toggle(visit.id)}
+              onReviewed={noteReviewed}
+            />
           ))}
         </>
       )}
@@ -50,7 +83,13 @@ export function ReviewQueue() {
             Reviewed just now
           </h2>
           {done.map((visitId) => (
-            <ReviewVisit key={visitId} visitId={visitId} onReviewed={noteReviewed} />
+            <ReviewVisit
+              key={visitId}
+              visitId={visitId}
+              open={isOpen(visitId)}
+              onToggle={() => toggle(visitId)}
+              onReviewed={noteReviewed}
+            />
           ))}
         </section>
       ) : null}

@@ -1,5 +1,11 @@
 import { useState, type FormEvent } from 'react';
-import { RUN_SOURCE_LABELS, VISUAL_FINDING_LABELS } from '../../../../../../shared/constants/decay-runs';
+import {
+  RUN_SOURCE_LABELS,
+  VISUAL_FINDING_LABELS,
+} from '../../../../../../shared/constants/decay-runs';
+import { HEALTH_LABELS, type HealthName } from '../../../../../../shared/constants/health';
+import { formatFigure } from '../../../../../../shared/domain/format';
+import { explainVerdict } from '../../../../../../shared/domain/verdict-explanation';
 import type { DecayRun } from '../../../../../../shared/schemas/decay-run';
 import { Badge } from '../../../../components/ui/badge';
 import { Button } from '../../../../components/ui/button';
@@ -22,11 +28,61 @@ export function ReviewStateBadge({ state }: { state: DecayRun['review']['state']
   return <Badge tone="muted">waiting for review</Badge>;
 }
 
+const HEALTH_TONE: Record<HealthName, 'ok' | 'warn' | 'danger'> = {
+  healthy: 'ok',
+  watch: 'warn',
+  'end-of-life': 'danger',
+};
+
+/**
+ * What a reviewer reads first: the health word, τ and the capacitance against the baseline, and
+ * any safety finding, each in plain words (the whole verdict folds out below it).
+ */
+function RunSummary({
+  run,
+  markedWaitSeconds,
+}: {
+  run: DecayRun;
+  markedWaitSeconds: number | null;
+}) {
+  const text = explainVerdict(run.verdict, {
+    asOfOn: run.isolatedAt.slice(0, 10),
+    markedWaitSeconds,
+  });
+  const { verdict } = run;
+  return (
+    <div className="space-y-1 text-sm text-tide-900" data-testid="review-run-summary">
+      <p className="flex flex-wrap items-center gap-2">
+        {verdict.health ? (
+          <Badge tone={HEALTH_TONE[verdict.health]}>{HEALTH_LABELS[verdict.health]}</Badge>
+        ) : (
+          <Badge tone="muted">not judged</Badge>
+        )}
+        {verdict.status === 'ok' ? (
+          <span>
+            τ {seconds(verdict.tauSeconds)}
+            {verdict.baseline
+              ? ` · ${formatFigure(verdict.baseline.ratio * 100)} % of the baseline`
+              : ''}
+          </span>
+        ) : null}
+      </p>
+      {verdict.status === 'ok' ? <p>{text.capacitance ?? text.health}</p> : <p>{text.tau}</p>}
+      {text.safety ? <p className="font-medium text-eol-600">⚠ {text.safety}</p> : null}
+    </div>
+  );
+}
+
 /** The figures a run would set as the bank's baseline: τ and the capacitance at 20 °C, else the compared one. */
-export function baselineFiguresOf(run: DecayRun): { tauSeconds: number; capacitanceMicrofarads: number } | null {
+export function baselineFiguresOf(
+  run: DecayRun,
+): { tauSeconds: number; capacitanceMicrofarads: number } | null {
   if (run.verdict.status !== 'ok') return null;
   const { capacitance } = run.verdict;
-  return { tauSeconds: run.verdict.tauSeconds, capacitanceMicrofarads: capacitance.at20CMicrofarads ?? capacitance.comparedMicrofarads };
+  return {
+    tauSeconds: run.verdict.tauSeconds,
+    capacitanceMicrofarads: capacitance.at20CMicrofarads ?? capacitance.comparedMicrofarads,
+  };
 }
 
 /**
@@ -56,7 +112,9 @@ export function ReviewRun({
   const figures = baselineFiguresOf(run);
   const id = `review-${run.id}`;
   const serverProblem =
-    review.error instanceof ApiError ? review.error.issues.find((i) => i.path === 'comment')?.message ?? review.error.message : review.error?.message;
+    review.error instanceof ApiError
+      ? (review.error.issues.find((i) => i.path === 'comment')?.message ?? review.error.message)
+      : review.error?.message;
 
   function send(outcome: 'accepted' | 'queried') {
     const text = comment.trim();
@@ -66,7 +124,16 @@ export function ReviewRun({
     }
     setCommentProblem(null);
     review.mutate(
-      { run, review: { outcome, comment: text, ...(outcome === 'accepted' && baseline.offered && useAsBaseline ? { useAsBaseline: true } : {}) } },
+      {
+        run,
+        review: {
+          outcome,
+          comment: text,
+          ...(outcome === 'accepted' && baseline.offered && useAsBaseline
+            ? { useAsBaseline: true }
+            : {}),
+        },
+      },
       { onSuccess: () => setEditing(false) },
     );
   }
@@ -77,7 +144,11 @@ export function ReviewRun({
   };
 
   return (
-    <article className="space-y-3 rounded-xl border border-tide-100 bg-white p-4 shadow-sm" aria-label={`Decay run on ${bankLabel}`} data-testid="review-run">
+    <article
+      className="space-y-3 rounded-xl border border-tide-100 bg-white p-4 shadow-sm"
+      aria-label={`Decay run on ${bankLabel}`}
+      data-testid="review-run"
+    >
       <header className="flex flex-wrap items-center gap-2">
         <h4 className="text-base font-bold text-tide-900">{bankLabel}</h4>
         <ReviewStateBadge state={run.review.state} />
@@ -85,7 +156,8 @@ export function ReviewRun({
         {run.usedAsBaseline ? <Badge tone="spark">baseline of this bank</Badge> : null}
       </header>
       <p className="text-sm text-tide-700">
-        Recorded by {run.recordedBy.name}, {formatInstant(run.recordedAt)} · {RUN_SOURCE_LABELS[run.source]}
+        Recorded by {run.recordedBy.name}, {formatInstant(run.recordedAt)} ·{' '}
+        {RUN_SOURCE_LABELS[run.source]}
         {run.loggerFileName ? ` (${run.loggerFileName})` : ''}
       </p>
       {run.correctionReason ? (
@@ -97,13 +169,27 @@ export function ReviewRun({
       {run.verdict.status === 'ok' ? (
         <DecayPlot samples={plottedSamples(run.samples)} verdict={run.verdict} />
       ) : (
-        <p className="rounded-lg bg-tide-50 p-3 text-sm text-tide-800">No chart: the readings gave no trustworthy τ.</p>
+        <p className="rounded-lg bg-tide-50 p-3 text-sm text-tide-800">
+          No chart: the readings gave no trustworthy τ.
+        </p>
       )}
-      <RunVerdict verdict={run.verdict} context={{ asOfOn: run.isolatedAt.slice(0, 10), markedWaitSeconds }} />
+      <RunSummary run={run} markedWaitSeconds={markedWaitSeconds} />
+      <details className="rounded-lg border border-tide-100 px-3 py-2">
+        <summary className="flex min-h-10 cursor-pointer items-center text-sm font-medium text-tide-800">
+          The whole verdict
+        </summary>
+        <div className="mt-2">
+          <RunVerdict
+            verdict={run.verdict}
+            context={{ asOfOn: run.isolatedAt.slice(0, 10), markedWaitSeconds }}
+          />
+        </div>
+      </details>
 
       {run.observations.visualFindings.length > 0 ? (
         <p className="text-sm font-medium text-eol-600">
-          Seen at the cabinet: {run.observations.visualFindings.map((f) => VISUAL_FINDING_LABELS[f]).join(', ')}
+          Seen at the cabinet:{' '}
+          {run.observations.visualFindings.map((f) => VISUAL_FINDING_LABELS[f]).join(', ')}
         </p>
       ) : null}
       {run.observations.notes ? (
@@ -113,13 +199,18 @@ export function ReviewRun({
       ) : null}
 
       {!editing ? (
-        <div className="space-y-2 rounded-lg bg-tide-50 p-3 text-sm text-tide-900" data-testid="review-outcome">
+        <div
+          className="space-y-2 rounded-lg bg-tide-50 p-3 text-sm text-tide-900"
+          data-testid="review-outcome"
+        >
           <p>
             {run.review.state === 'accepted' ? 'Accepted' : 'Queried'}
             {run.review.reviewedBy ? ` by ${run.review.reviewedBy.name}` : ''}
             {run.review.reviewedAt ? `, ${formatInstant(run.review.reviewedAt)}` : ''}.
           </p>
-          {run.review.comment ? <p className="whitespace-pre-line">“{run.review.comment}”</p> : null}
+          {run.review.comment ? (
+            <p className="whitespace-pre-line">“{run.review.comment}”</p>
+          ) : null}
           <Button size="sm" variant="ghost" onClick={() => setEditing(true)}>
             Change the review
           </Button>
@@ -149,8 +240,9 @@ export function ReviewRun({
                 onChange={(event) => setUseAsBaseline(event.target.checked)}
               />
               <span>
-                <span className="font-medium">Use this run as the baseline</span> of {bankLabel}: τ {seconds(figures.tauSeconds)} and{' '}
-                {microfarads(figures.capacitanceMicrofarads)} become what its later runs are compared with (when you accept it).
+                <span className="font-medium">Use this run as the baseline</span> of {bankLabel}: τ{' '}
+                {seconds(figures.tauSeconds)} and {microfarads(figures.capacitanceMicrofarads)}{' '}
+                become what its later runs are compared with (when you accept it).
               </span>
             </label>
           ) : !baseline.offered && baseline.reason ? (
@@ -162,10 +254,20 @@ export function ReviewRun({
             </p>
           ) : null}
           <div className="grid grid-cols-2 gap-2">
-            <Button type="submit" variant="primary" className="min-h-12" disabled={review.isPending}>
+            <Button
+              type="submit"
+              variant="primary"
+              className="min-h-12"
+              disabled={review.isPending}
+            >
               Accept
             </Button>
-            <Button variant="danger" className="min-h-12" disabled={review.isPending} onClick={() => send('queried')}>
+            <Button
+              variant="danger"
+              className="min-h-12"
+              disabled={review.isPending}
+              onClick={() => send('queried')}
+            >
               Query
             </Button>
           </div>
