@@ -1,3 +1,4 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
 import { useLocation } from 'react-router';
 import { AppShell } from '../../components/layout/app-shell';
@@ -10,6 +11,8 @@ import { NotAllowed } from '../../features/auth/components/not-allowed';
 import { WaitingForAccess } from '../../features/auth/components/waiting-for-access';
 import { ServerStatus } from '../../features/health/components/server-status';
 import { ConnectionNote, DraftSync } from '../../features/decay-runs/drafts/draft-sync';
+import { myVisitKeys } from '../../features/my-visits/api/get-my-visits';
+import { visitKeys } from '../../features/planner/api/visits';
 import { OfflineDrafts } from '../../features/decay-runs/drafts/offline-drafts';
 import { ApiError } from '../../lib/api-client';
 import { goToSignIn } from '../../lib/sign-in';
@@ -22,6 +25,7 @@ import { mayOpen, navFor, screenFor, startScreenFor } from '../access';
  */
 export function RootLayout() {
   const me = useMe();
+  const queryClient = useQueryClient();
   const location = useLocation();
   const signedOut = me.error instanceof ApiError && me.error.status === 401;
   useEffect(() => {
@@ -68,7 +72,14 @@ export function RootLayout() {
       account={(closeMenu) => <AccountMenu me={me.data} onNavigate={closeMenu} />}
       notice={
         <>
-          <DraftSync userId={me.data.id} />
+          <DraftSync
+            userId={me.data.id}
+            // a stored run changes its visit (runs counted, a planned visit started)
+            onSent={() => {
+              void queryClient.invalidateQueries({ queryKey: myVisitKeys.all });
+              void queryClient.invalidateQueries({ queryKey: visitKeys.all });
+            }}
+          />
           <ConnectionNote />
         </>
       }

@@ -1,11 +1,10 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useEffect, useSyncExternalStore } from 'react';
+import { useEffect, useRef, useSyncExternalStore } from 'react';
+import type { DecayRun } from '../../../../../shared/schemas/decay-run';
+import { decayRunKeys } from '../api/get-decay-runs';
 import { submitDecayRun } from '../api/submit-decay-run';
 import { changeDraft, discardDraft, listDrafts, onSendRequested, setDraftOwner, useDrafts } from './draft-store';
 import { sendDraftsRound, type DraftSendStore } from './send-drafts';
-
-/** The decay-runs queries' common key prefix (decayRunKeys.all). */
-const DECAY_RUN_QUERIES = ['decay-runs'] as const;
 
 const SYNC_LOCK = 'ebbline-draft-sync';
 
@@ -19,8 +18,20 @@ const store: DraftSendStore = { list: () => listDrafts(), change: changeDraft, d
  * tab sends at a time (a Web Lock); the server keeps one run per clientId whatever happens.
  * Renders nothing.
  */
-export function DraftSync({ userId }: { userId?: string }) {
+export function DraftSync({
+  userId,
+  onSent,
+}: {
+  /** The signed-in person: new drafts are theirs, and only theirs are sent. */
+  userId?: string;
+  /** Called after runs were stored (the app refreshes what they change, e.g. the visit). */
+  onSent?: (runs: DecayRun[]) => void;
+}) {
   const queryClient = useQueryClient();
+  const onSentRef = useRef(onSent);
+  useEffect(() => {
+    onSentRef.current = onSent;
+  });
 
   useEffect(() => {
     setDraftOwner(userId);
@@ -38,7 +49,10 @@ export function DraftSync({ userId }: { userId?: string }) {
         nowMs: () => Date.now(),
         force,
       });
-      if (result.sent.length > 0) void queryClient.invalidateQueries({ queryKey: DECAY_RUN_QUERIES });
+      if (result.sent.length > 0) {
+        void queryClient.invalidateQueries({ queryKey: decayRunKeys.all });
+        onSentRef.current?.(result.sent);
+      }
       return result.nextAttemptAtMs;
     };
 
