@@ -4,8 +4,9 @@
  * rolled-back write leaves none, a committed one leaves it for the job to pick up, even when
  * the process stops right after the commit.
  *
- * What enqueues what today: nothing. The register's writes are kept in the audit trail and no
- * job acts on them yet; the jobs that later issues add (alerts, mail) add their topics and
+ * What enqueues what today: a decay run recorded, corrected or reviewed (`decay-run.recorded`,
+ * `decay-run.corrected`, `decay-run.reviewed`) and an unplanned visit (`visit.unplanned`), for
+ * the alert and mail jobs to come; no job consumes yet. The register's writes are kept in the audit trail; the jobs that later issues add (alerts, mail) add their topics and
  * their producers together, each producer calling `enqueueOutboxMessage` from the write
  * service whose change the job acts on.
  */

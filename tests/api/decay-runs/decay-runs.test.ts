@@ -247,6 +247,26 @@ describe('the server judges the run as the phone does', () => {
   });
 });
 
+describe('a logger run of many readings', () => {
+  it('when a logger file gives 20 000 readings, then the run is stored whole; 20 001 readings are 400 naming samples', async () => {
+    const visit = await visitOf(plant);
+    const samples = decaySamples({ tauSeconds: TEST_DESIGN_HEALTHY_TAU_SECONDS, v0Volts: 541.3, count: 20_000, stepSeconds: 0.0825, noiseVolts: 0.4 });
+    const body = validRunInput(plant.bankA.id, { source: 'logger', loggerFileName: 'DL-850 export 0612.csv', samples });
+    expect(JSON.stringify(body).length).toBeGreaterThan(800_000);
+    const run = await recordRun(app, visit.id, plant.ana.auth, body);
+    expect(run.samples).toHaveLength(20_000);
+    expect(run.verdict.status).toBe('ok');
+    expect(run.loggerFileName).toBe('DL-850 export 0612.csv');
+
+    const before = await runTables();
+    const tooMany = validRunInput(plant.bankA.id, { samples: [...samples, { tSeconds: 1650, volts: 3 }] });
+    const res = await postRun(app, visit.id, plant.ana.auth, tooMany);
+    expect(res.status).toBe(400);
+    expect(res.body.error.issues[0].path).toBe('samples');
+    expect(await runTables()).toEqual(before);
+  }, 120_000);
+});
+
 describe('corrections: a new version with its reason', () => {
   it('when a run is corrected, then version 2 supersedes it, both are listed, and a second correction of version 1 is 409', async () => {
     const visit = await visitOf(plant);
