@@ -12,7 +12,6 @@ import { readPastedReadings, type ReadingRow } from '../utils/readings';
 import type { DecayCheckOutcome } from '../utils/run-check';
 import { DecayVerdictView } from './decay-verdict';
 import { LoggerUpload } from './logger/logger-upload';
-import { LoggerUpload } from './logger/logger-upload';
 import { ReadingsTable } from './readings-table';
 
 /** What the check is judged with, in one paragraph, so an engineer can see where each figure comes from. */
@@ -124,15 +123,6 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
                 </Button>
               </div>
               <PasteBox onRows={check.replaceRows} />
-              <details className="rounded-lg border border-tide-100 px-3 py-2" data-testid="decay-logger-file">
-                <summary className="cursor-pointer py-2 text-sm font-medium text-tide-800">Or read a logger file</summary>
-                <div className="mt-2">
-                  <LoggerUpload
-                    engine={facts}
-                    onUse={(samples) => check.replaceRows(samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })))}
-                  />
-                </div>
-              </details>
               <details className="rounded-lg border border-tide-100 px-3 py-2" data-testid="decay-logger-file">
                 <summary className="cursor-pointer py-2 text-sm font-medium text-tide-800">Or read a logger file</summary>
                 <div className="mt-2">
