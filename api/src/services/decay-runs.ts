@@ -47,7 +47,7 @@ import { recordAudit, type AuditRecordInput } from './audit';
 import { bankRecordForEngine } from './banks';
 import { enqueueOutboxMessage } from './outbox';
 import type { Actor, UnitOfWork } from './unit-of-work';
-import { transitionVisit } from './visits';
+import { mayReadVisit, transitionVisit, type VisitViewer } from './visits';
 
 /** Roles that correct any run (besides the person who recorded it). */
 export const DECAY_RUN_CORRECTORS: readonly Role[] = ['reliability', 'admin'];
@@ -298,7 +298,8 @@ function mayRecordOn(actor: Actor, technicianIds: readonly string[]): boolean {
  * @param visitId - the visit the run belongs to; a planned one is started in the same unit of work
  * @param input - a parsed `decayRunInputSchema` body
  * @returns the run (with its bank, cabinet, site and people) and whether this call stored it
- * @throws AppError `client-id-reused` (same clientId, other body), `not-found` (visit),
+ * @throws AppError `client-id-reused` (same clientId, other body), `not-found` (visit, also
+ *   one a technician may not read),
  *   `forbidden` (not an assigned technician or an admin), `visit-not-open` (logged, reviewed,
  *   missed or cancelled), `bank-not-on-visit` (issues name bankId)
  */
@@ -312,7 +313,8 @@ export async function recordDecayRun(uow: UnitOfWork, visitId: string, input: De
 
   // the visit row is locked: two first runs on a planned visit start it once
   const visit = await Visit.findByPk(visitId, { transaction, lock: transaction.LOCK.UPDATE });
-  if (!visit) throw AppError.notFound('Visit');
+  // a technician who may not read the visit is told it was not found, as the visits routes do
+  if (!visit || !(await mayReadVisit(uow.actor, visitId, transaction))) throw AppError.notFound('Visit');
   const technicianIds = (await VisitTechnician.findAll({ where: { visitId }, attributes: ['userId'], transaction })).map((t) => t.userId);
   if (!mayRecordOn(uow.actor, technicianIds)) {
     throw AppError.forbidden('Only a technician assigned to this visit (or an admin) may record decay runs on it.');
@@ -429,11 +431,12 @@ const NEWEST_FIRST: [string, string][] = [
 /**
  * A visit's runs, every version, newest first.
  *
- * @throws AppError `not-found` (visit)
+ * @param viewer - who reads: a technician reads the runs of the visits they may read
+ * @throws AppError `not-found` (visit, also one the viewer may not read)
  */
-export async function listVisitDecayRuns(visitId: string, transaction?: Transaction): Promise<DecayRun[]> {
+export async function listVisitDecayRuns(visitId: string, viewer: VisitViewer, transaction?: Transaction): Promise<DecayRun[]> {
   const visit = await Visit.findByPk(visitId, { attributes: ['id'], transaction });
-  if (!visit) throw AppError.notFound('Visit');
+  if (!visit || !(await mayReadVisit(viewer, visitId, transaction))) throw AppError.notFound('Visit');
   return DecayRun.findAll({ where: { visitId }, include: RUN_INCLUDE, order: NEWEST_FIRST, transaction });
 }
 

@@ -132,7 +132,7 @@ export async function listVisits(query: VisitListQuery, viewer: VisitViewer): Pr
 }
 
 /** True when the viewer may read the visit (it exists). */
-async function mayReadVisit(viewer: VisitViewer, id: string, transaction?: Transaction): Promise<boolean> {
+export async function mayReadVisit(viewer: VisitViewer, id: string, transaction?: Transaction): Promise<boolean> {
   const visibility = readsAllVisits(viewer) ? 'TRUE' : VISIBLE_TO_TECHNICIAN;
   const rows = await sequelize.query(
     `SELECT 1 FROM visits v JOIN cabinets c ON c.id = v.cabinet_id JOIN areas a ON a.id = c.area_id

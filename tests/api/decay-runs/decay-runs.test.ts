@@ -180,14 +180,18 @@ describe('POST /api/visits/:visitId/decay-runs: a bad submission stores nothing'
 });
 
 describe('who may record a run', () => {
-  it('when the assigned technician records, then 201; another technician, a planner or a reliability engineer: 403 and nothing stored', async () => {
+  it('when the assigned technician records, then 201; another technician of the site, a planner or a reliability engineer: 403; a technician of another site: 404; nothing stored', async () => {
     const visit = await visitOf(plant);
     const before = await runTables();
-    for (const caller of [plant.ben, plant.outsider, plant.planner, plant.reliability]) {
+    for (const caller of [plant.ben, plant.planner, plant.reliability]) {
       const res = await postRun(app, visit.id, caller.auth, validRunInput(plant.bankA.id));
       expect(res.status).toBe(403);
       expect(res.body.error.code).toBe('forbidden');
     }
+    const outsider = await postRun(app, visit.id, plant.outsider.auth, validRunInput(plant.bankA.id));
+    expect(outsider.status).toBe(404);
+    expect((await request(app).get(`/api/visits/${visit.id}/decay-runs`).set('Authorization', plant.outsider.auth)).status).toBe(404);
+    expect((await request(app).get(`/api/visits/${visit.id}/decay-runs`).set('Authorization', plant.ben.auth)).status).toBe(200);
     expect(await runTables()).toEqual(before);
     const run = await recordRun(app, visit.id, plant.ana.auth, validRunInput(plant.bankA.id));
     expect(run.recordedBy).toEqual({ id: plant.ana.user.id, name: plant.ana.user.name });

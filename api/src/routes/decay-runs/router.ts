@@ -33,7 +33,7 @@ export const visitDecayRunsRouter = Router({ mergeParams: true });
 
 visitDecayRunsRouter.get('/', requireRole(...decayRunPolicy.read), async (req, res) => {
   const visitId = idParam(req, 'visitId', 'Visit');
-  res.json({ items: (await listVisitDecayRuns(visitId)).map(presentDecayRun) });
+  res.json({ items: (await listVisitDecayRuns(visitId, actingUser(req))).map(presentDecayRun) });
 });
 
 visitDecayRunsRouter.post('/', requireRole(...decayRunPolicy.record), async (req, res) => {
