@@ -1,7 +1,7 @@
 /**
  * Review (reliability engineer, phone): a logged visit with two decay runs is in the queue; one
  * run is queried with a comment for the technician, the other accepted as its bank's baseline;
- * the visit shows reviewed. The visit and its runs are made through the services, as the
+ * the visit shows reviewed, and the technician reads the comment on his visit. The visit and its runs are made through the services, as the
  * technician's phone would have left them.
  */
 import { afterAll, describe, expect, inject, it } from 'vitest';
@@ -67,7 +67,7 @@ async function loggedVisitWithTwoRuns() {
 }
 
 describe('Review (reliability engineer, phone)', () => {
-  it('when Ines queries one run with a comment and accepts the other as the baseline, then the visit shows reviewed', async () => {
+  it('when Ines queries one run with a comment and accepts the other as the baseline, then the visit shows reviewed and Dario reads the comment on his visit', async () => {
     const { visitId, tag, banks } = await loggedVisitWithTwoRuns();
     const [queried, accepted] = banks;
     const { page } = await browser(PHONE_VIEWPORT);
@@ -122,5 +122,15 @@ describe('Review (reliability engineer, phone)', () => {
     expect(stored[0]).toMatchObject({ state: 'reviewed', baseline_source: 'decay-run', comment });
     expect(stored[0]!.baseline_decay_run_id).not.toBeNull();
     expect(console.problems).toEqual([]);
+
+    // the comment goes back to the technician: Dario reads it on his visit
+    const technician = await browser(PHONE_VIEWPORT);
+    const technicianConsole = watchConsole(technician.page);
+    await signIn(technician.page, 'dario', 'tidewater-tech', { returnTo: `/my-visits/${visitId}` });
+    await technician.page.getByRole('heading', { name: tag }).first().waitFor();
+    await eventually(() => technician.page.getByTestId('visit-runs').textContent()).toContain(comment);
+    expect(await technician.page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await screenshot(technician.page, 'review-comment-technician-phone');
+    expect(technicianConsole.problems).toEqual([]);
   });
 });

@@ -3,6 +3,7 @@ import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
 import { UnsentRunsWarning, VisitCapture } from '../../features/decay-runs/components/capture/visit-capture';
 import { VisitPhotos } from '../../features/decay-runs/components/photos/visit-photos';
+import { VisitRuns } from '../../features/decay-runs/components/verdict/visit-runs';
 import { MyVisitPage } from '../../features/my-visits/components/my-visit-page';
 import { MyVisitsList } from '../../features/my-visits/components/my-visits-list';
 
@@ -43,6 +44,7 @@ function VisitScreen() {
           </>
         )}
         beforeLogging={(visit) => <UnsentRunsWarning visit={visit} />}
+        recorded={(visit) => <VisitRuns visitId={visit.id} viewer={viewer} />}
       />
     </div>
   );

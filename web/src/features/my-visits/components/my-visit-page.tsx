@@ -27,6 +27,8 @@ export interface MyVisitSlots {
   atCabinet?: (visit: Visit) => ReactNode;
   /** Shown in the "Mark as logged" confirmation, e.g. the banks with no run sent yet. */
   beforeLogging?: (visit: Visit) => ReactNode;
+  /** The runs recorded on the visit and their review (a queried run with the reviewer's comment), once it is logged or reviewed. */
+  recorded?: (visit: Visit) => ReactNode;
 }
 
 /** One visit, as a technician opens it at the cabinet: what, where, when, the cautions, and Start / Mark as logged. */
@@ -94,6 +96,8 @@ function VisitDetail({ visit, viewer, slots }: { visit: Visit; viewer: Viewer; s
       <DischargeCaution />
 
       {slots.atCabinet && visit.state === 'under-way' && isAssigned(visit, viewer) ? slots.atCabinet(visit) : null}
+
+      {slots.recorded && (visit.state === 'logged' || visit.state === 'reviewed') ? slots.recorded(visit) : null}
 
       <Card title="Cabinet">
         <DetailList
