@@ -33,6 +33,8 @@ export default async function setup(project: TestProject): Promise<() => Promise
     PORT: String(port),
     APP_URL: baseUrl,
     WEB_DIST_DIR: process.env.E2E_WEB_DIST_DIR ?? 'dist/web',
+    // photos added by the browser tests go to a folder of this run's own
+    PHOTO_DIR: `.data/photos-e2e-${port}`,
     DATABASE_URL: await createTestDatabase('ebbline_e2e'),
   });
   const { seedDemo } = await import('../../infra/seed/index');

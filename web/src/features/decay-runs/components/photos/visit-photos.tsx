@@ -196,7 +196,7 @@ function AddPhoto({ visitId, bankId, online }: { visitId: string; bankId?: strin
       <label
         className={`${buttonClass('primary')} min-h-12 w-full cursor-pointer text-base focus-within:ring-2 focus-within:ring-spark-400 sm:w-auto ${busy || !online ? 'pointer-events-none opacity-60' : ''}`}
       >
-        <span aria-hidden="true">📷</span> Add a photo
+        <CameraIcon /> Add a photo
         <input
           type="file"
           accept="image/*"
@@ -226,5 +226,14 @@ function AddPhoto({ visitId, bankId, online }: { visitId: string; bankId?: strin
         </div>
       ) : null}
     </div>
+  );
+}
+
+function CameraIcon() {
+  return (
+    <svg aria-hidden="true" viewBox="0 0 24 24" className="h-5 w-5" fill="none" stroke="currentColor" strokeWidth="2" strokeLinecap="round" strokeLinejoin="round">
+      <path d="M4 8h3l2-3h6l2 3h3a1 1 0 0 1 1 1v10a1 1 0 0 1-1 1H4a1 1 0 0 1-1-1V9a1 1 0 0 1 1-1z" />
+      <circle cx="12" cy="13.5" r="3.5" />
+    </svg>
   );
 }
