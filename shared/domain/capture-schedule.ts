@@ -32,7 +32,9 @@ const GROWTH = 0.25;
 const MAX_GAP_TIME_CONSTANTS = 1 / 3;
 
 /** Round gaps, seconds: a gap is the largest of these not above the ideal one. */
-const ROUND_GAPS_SECONDS = [3, 4, 5, 10, 15, 20, 30, 60, 90, 120, 180, 300, 600, 900, 1200, 1800, 3600];
+const ROUND_GAPS_SECONDS = [
+  3, 4, 5, 10, 15, 20, 30, 60, 90, 120, 180, 300, 600, 900, 1200, 1800, 3600,
+];
 
 /** Options of {@link captureScheduleSeconds}. */
 export interface CaptureScheduleOptions {
@@ -67,25 +69,40 @@ export interface CaptureScheduleOptions {
  * captureScheduleSeconds(120, { startVolts: 560, endVolts: 50 })
  * // the same up to 300: the bus is expected below 50 V after 120 · ln(560/50) ≈ 290 s
  */
-export function captureScheduleSeconds(expectedTauSeconds: number, options: CaptureScheduleOptions = {}): number[] {
+export function captureScheduleSeconds(
+  expectedTauSeconds: number,
+  options: CaptureScheduleOptions = {},
+): number[] {
   const tau = expectedTauSeconds;
   if (!(tau > 0) || !Number.isFinite(tau)) {
-    throw new EngineInputError('invalid-option', `The expected τ must be a positive number of seconds, got ${String(tau)}.`, [
-      { path: 'expectedTauSeconds', message: 'must be a positive number of seconds' },
-    ]);
+    throw new EngineInputError(
+      'invalid-option',
+      `The expected τ must be a positive number of seconds, got ${String(tau)}.`,
+      [{ path: 'expectedTauSeconds', message: 'must be a positive number of seconds' }],
+    );
   }
-  const minGap = Math.max(CAPTURE_MIN_SPACING_FLOOR_SECONDS, options.minSpacingSeconds ?? CAPTURE_MIN_SPACING_SECONDS);
+  const minGap = Math.max(
+    CAPTURE_MIN_SPACING_FLOOR_SECONDS,
+    options.minSpacingSeconds ?? CAPTURE_MIN_SPACING_SECONDS,
+  );
   if (!Number.isFinite(minGap)) {
-    throw new EngineInputError('invalid-option', 'The smallest spacing between prompts must be a number of seconds.', [
-      { path: 'minSpacingSeconds', message: 'must be a number of seconds' },
-    ]);
+    throw new EngineInputError(
+      'invalid-option',
+      'The smallest spacing between prompts must be a number of seconds.',
+      [{ path: 'minSpacingSeconds', message: 'must be a number of seconds' }],
+    );
   }
   const { startVolts, endVolts } = options;
-  for (const [path, value] of [['startVolts', startVolts], ['endVolts', endVolts]] as const) {
+  for (const [path, value] of [
+    ['startVolts', startVolts],
+    ['endVolts', endVolts],
+  ] as const) {
     if (value !== undefined && !(value > 0 && Number.isFinite(value))) {
-      throw new EngineInputError('invalid-option', `${path} must be a positive number of volts, got ${String(value)}.`, [
-        { path, message: 'must be a positive number of volts' },
-      ]);
+      throw new EngineInputError(
+        'invalid-option',
+        `${path} must be a positive number of volts, got ${String(value)}.`,
+        [{ path, message: 'must be a positive number of volts' }],
+      );
     }
   }
 

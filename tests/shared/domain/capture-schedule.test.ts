@@ -16,9 +16,12 @@ describe('captureScheduleSeconds', () => {
     expect(gaps(times).every((gap) => gap > 0)).toBe(true);
   });
 
-  it.each(TAUS)('when τ is %s s, then the first prompt comes at the smallest spacing after isolation', (tau) => {
-    expect(captureScheduleSeconds(tau)[0]).toBe(CAPTURE_MIN_SPACING_SECONDS);
-  });
+  it.each(TAUS)(
+    'when τ is %s s, then the first prompt comes at the smallest spacing after isolation',
+    (tau) => {
+      expect(captureScheduleSeconds(tau)[0]).toBe(CAPTURE_MIN_SPACING_SECONDS);
+    },
+  );
 
   it.each(TAUS)('when τ is %s s, then the last prompt is at 5 τ or just after it', (tau) => {
     const times = captureScheduleSeconds(tau);
@@ -28,14 +31,19 @@ describe('captureScheduleSeconds', () => {
     expect(last - 5 * tau).toBeLessThan(gaps(times).at(-1)! + 1e-9);
   });
 
-  it.each(TAUS)('when τ is %s s, then at the last prompt the bus is below 1 % of V0 (e^−5 = 0.67 %)', (tau) => {
-    const last = captureScheduleSeconds(tau).at(-1)!;
-    expect(Math.exp(-last / tau)).toBeLessThanOrEqual(Math.exp(-5) + 1e-12);
-    expect(Math.exp(-last / tau)).toBeLessThan(0.01);
-  });
+  it.each(TAUS)(
+    'when τ is %s s, then at the last prompt the bus is below 1 % of V0 (e^−5 = 0.67 %)',
+    (tau) => {
+      const last = captureScheduleSeconds(tau).at(-1)!;
+      expect(Math.exp(-last / tau)).toBeLessThanOrEqual(Math.exp(-5) + 1e-12);
+      expect(Math.exp(-last / tau)).toBeLessThan(0.01);
+    },
+  );
 
   it.each(TAUS)('when τ is %s s, then no two prompts are closer than 5 s', (tau) => {
-    expect(Math.min(...gaps(captureScheduleSeconds(tau)))).toBeGreaterThanOrEqual(CAPTURE_MIN_SPACING_SECONDS);
+    expect(Math.min(...gaps(captureScheduleSeconds(tau)))).toBeGreaterThanOrEqual(
+      CAPTURE_MIN_SPACING_SECONDS,
+    );
   });
 
   it('when τ is 120 s, then the prompts are dense at first and spaced later', () => {
@@ -54,7 +62,9 @@ describe('captureScheduleSeconds', () => {
 
   it('when τ is 120 s, then the schedule is the one of the example', () => {
     const times = captureScheduleSeconds(120);
-    expect(times.slice(0, 17)).toEqual([5, 10, 15, 20, 25, 30, 35, 40, 50, 60, 75, 90, 100, 120, 150, 180, 210]);
+    expect(times.slice(0, 17)).toEqual([
+      5, 10, 15, 20, 25, 30, 35, 40, 50, 60, 75, 90, 100, 120, 150, 180, 210,
+    ]);
     expect(times.at(-1)).toBe(600);
     expect(times).toHaveLength(30);
   });
@@ -68,7 +78,9 @@ describe('captureScheduleSeconds', () => {
   });
 
   it('when the start voltage is already below the end voltage, then the schedule runs to 5 τ', () => {
-    expect(captureScheduleSeconds(60, { startVolts: 40, endVolts: 50 })).toEqual(captureScheduleSeconds(60));
+    expect(captureScheduleSeconds(60, { startVolts: 40, endVolts: 50 })).toEqual(
+      captureScheduleSeconds(60),
+    );
   });
 
   it('when a smaller spacing is asked for, then it is kept but never below 3 s', () => {
@@ -90,9 +102,12 @@ describe('captureScheduleSeconds', () => {
     expect(Math.min(...gaps(times))).toBeGreaterThanOrEqual(CAPTURE_MIN_SPACING_SECONDS);
   });
 
-  it.each([0, -5, Number.NaN, Number.POSITIVE_INFINITY])('when τ is %s, then it is refused', (tau) => {
-    expect(() => captureScheduleSeconds(tau)).toThrow(EngineInputError);
-  });
+  it.each([0, -5, Number.NaN, Number.POSITIVE_INFINITY])(
+    'when τ is %s, then it is refused',
+    (tau) => {
+      expect(() => captureScheduleSeconds(tau)).toThrow(EngineInputError);
+    },
+  );
 
   it('when a voltage is not positive, then it is refused naming it', () => {
     try {

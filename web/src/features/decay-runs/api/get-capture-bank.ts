@@ -23,7 +23,11 @@ export const captureBankQueryOptions = (bankId: string) =>
  * The engine's inputs of a bank for a live verdict (the same mapping the server uses), or null
  * while the bank is loading, when it cannot be loaded (offline), or when its design has no revision.
  */
-export function useCaptureEngine(bankId: string): { engine: BankEngineInputs | null; bank: Bank | undefined; isPending: boolean } {
+export function useCaptureEngine(bankId: string): {
+  engine: BankEngineInputs | null;
+  bank: Bank | undefined;
+  isPending: boolean;
+} {
   const bank = useQuery(captureBankQueryOptions(bankId));
   const engine = useMemo(() => (bank.data ? bankEngineInputs(bank.data) : null), [bank.data]);
   return { engine, bank: bank.data, isPending: bank.isPending };

@@ -25,7 +25,10 @@ export function ReadingsTable({
   return (
     <fieldset>
       <legend className="mb-1 text-sm font-medium text-tide-900">Readings</legend>
-      <div className="grid grid-cols-[2rem_1fr_1fr_2.5rem] items-end gap-x-2 text-xs font-bold uppercase tracking-wide text-tide-600" aria-hidden="true">
+      <div
+        className="grid grid-cols-[2rem_1fr_1fr_2.5rem] items-end gap-x-2 text-xs font-bold uppercase tracking-wide text-tide-600"
+        aria-hidden="true"
+      >
         <span>Row</span>
         <span>Time since isolation (s)</span>
         <span>DC bus (V)</span>
@@ -35,15 +38,24 @@ export function ReadingsTable({
         {rows.map((row, i) => {
           const n = i + 1;
           const rowIssues = issues.filter((issue) => issue.row === n);
-          const bad = (field: ReadingIssue['field']) => rowIssues.some((issue) => issue.field === field);
+          const bad = (field: ReadingIssue['field']) =>
+            rowIssues.some((issue) => issue.field === field);
           const errorId = `reading-${n}-error`;
           const mark = leftOut.get(n);
           const markId = `reading-${n}-left-out`;
-          const describedBy = [rowIssues.length ? errorId : '', mark ? markId : ''].filter(Boolean).join(' ') || undefined;
+          const describedBy =
+            [rowIssues.length ? errorId : '', mark ? markId : ''].filter(Boolean).join(' ') ||
+            undefined;
           return (
             <li key={i} data-testid={`reading-row-${n}`} data-left-out={mark ? 'true' : undefined}>
-              <div className={`grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2 ${mark ? '-mx-1 rounded-md bg-watch-600/10 px-1 py-0.5' : ''}`}>
-                <span className={`text-right font-mono text-sm ${mark ? 'font-bold text-watch-600' : 'text-tide-600'}`}>{n}</span>
+              <div
+                className={`grid grid-cols-[2rem_1fr_1fr_2.5rem] items-center gap-x-2 ${mark ? '-mx-1 rounded-md bg-watch-600/10 px-1 py-0.5' : ''}`}
+              >
+                <span
+                  className={`text-right font-mono text-sm ${mark ? 'font-bold text-watch-600' : 'text-tide-600'}`}
+                >
+                  {n}
+                </span>
                 <ReadingCell
                   id={`reading-${n}-time`}
                   label={`Row ${n}: time since isolation, seconds`}
@@ -60,20 +72,36 @@ export function ReadingsTable({
                   describedBy={describedBy}
                   onChange={(value) => onCell(i, 'volts', value)}
                 />
-                <Button variant="ghost" size="sm" className="px-0" aria-label={`Remove row ${n}`} onClick={() => onRemove(i)}>
+                <Button
+                  variant="ghost"
+                  size="sm"
+                  className="px-0"
+                  aria-label={`Remove row ${n}`}
+                  onClick={() => onRemove(i)}
+                >
                   ✕
                 </Button>
               </div>
               {rowIssues.length ? (
-                <div id={errorId} data-testid={`error-reading-${n}`} className="ml-10 mt-0.5 space-y-0.5 text-sm font-medium text-eol-600">
+                <div
+                  id={errorId}
+                  data-testid={`error-reading-${n}`}
+                  className="ml-10 mt-0.5 space-y-0.5 text-sm font-medium text-eol-600"
+                >
                   {rowIssues.map((issue) => (
                     <p key={issue.field + issue.message}>{issue.message}</p>
                   ))}
                 </div>
               ) : null}
               {mark ? (
-                <div id={markId} data-testid={`left-out-reading-${n}`} className="ml-10 mt-0.5 text-sm text-tide-900">
-                  <span className="mr-1 inline-flex rounded-full bg-watch-600/15 px-2 py-0.5 text-xs font-bold text-watch-600">{mark.label}</span>
+                <div
+                  id={markId}
+                  data-testid={`left-out-reading-${n}`}
+                  className="ml-10 mt-0.5 text-sm text-tide-900"
+                >
+                  <span className="mr-1 inline-flex rounded-full bg-watch-600/15 px-2 py-0.5 text-xs font-bold text-watch-600">
+                    {mark.label}
+                  </span>
                   {mark.explanation}
                 </div>
               ) : null}
@@ -81,7 +109,9 @@ export function ReadingsTable({
           );
         })}
       </ol>
-      <p className="mt-1 text-xs text-tide-600">Seconds (or m:ss) from the moment of isolation; a new row opens as you type in the last one.</p>
+      <p className="mt-1 text-xs text-tide-600">
+        Seconds (or m:ss) from the moment of isolation; a new row opens as you type in the last one.
+      </p>
     </fieldset>
   );
 }

@@ -7,10 +7,15 @@ export const FALLBACK_TAU_SECONDS = 120;
  * The τ a capture expects of a bank, seconds: its last accepted run's τ when it has one, else its
  * baseline τ; and where it comes from, in words.
  */
-export function expectedTauOf(bank: VisitBankRef): { tauSeconds: number; source: 'last run' | 'baseline' | 'assumed' } {
+export function expectedTauOf(bank: VisitBankRef): {
+  tauSeconds: number;
+  source: 'last run' | 'baseline' | 'assumed';
+} {
   const last = (bank as VisitBankRef & { lastTauSeconds?: number | null }).lastTauSeconds;
-  if (typeof last === 'number' && last > 0 && Number.isFinite(last)) return { tauSeconds: last, source: 'last run' };
-  if (bank.baselineTauSeconds > 0 && Number.isFinite(bank.baselineTauSeconds)) return { tauSeconds: bank.baselineTauSeconds, source: 'baseline' };
+  if (typeof last === 'number' && last > 0 && Number.isFinite(last))
+    return { tauSeconds: last, source: 'last run' };
+  if (bank.baselineTauSeconds > 0 && Number.isFinite(bank.baselineTauSeconds))
+    return { tauSeconds: bank.baselineTauSeconds, source: 'baseline' };
   return { tauSeconds: FALLBACK_TAU_SECONDS, source: 'assumed' };
 }
 

@@ -15,7 +15,9 @@ import { liveFit, type LiveFit } from './live-fit';
 import { BigCheck } from './safety-gate';
 
 /** The sentence of the last safety check, confirmed when the capture has ended. */
-export const ABSENCE_CHECK = SAFETY_CHECKS.find((check) => check.key === 'absenceOfVoltageVerified')!;
+export const ABSENCE_CHECK = SAFETY_CHECKS.find(
+  (check) => check.key === 'absenceOfVoltageVerified',
+)!;
 
 /** Below this many prompts to 5 τ the bank discharges too fast to follow by hand. */
 const MIN_HAND_PROMPTS = 5;
@@ -57,27 +59,49 @@ export function GuidedCapture(props: GuidedCaptureProps) {
   const schedule = useMemo(() => captureScheduleSeconds(expectedTauSeconds), [expectedTauSeconds]);
   const fit = useMemo(() => liveFit(props.samples, props.engine), [props.samples, props.engine]);
 
-  if (!isolatedAt) return <BeforeStart schedule={schedule} expectedTauSeconds={expectedTauSeconds} onStart={props.onStart} />;
+  if (!isolatedAt)
+    return (
+      <BeforeStart
+        schedule={schedule}
+        expectedTauSeconds={expectedTauSeconds}
+        onStart={props.onStart}
+      />
+    );
   return <Running {...props} isolatedAt={isolatedAt} schedule={schedule} fit={fit} />;
 }
 
-function BeforeStart({ schedule, expectedTauSeconds, onStart }: { schedule: number[]; expectedTauSeconds: number; onStart: (at: string) => void }) {
+function BeforeStart({
+  schedule,
+  expectedTauSeconds,
+  onStart,
+}: {
+  schedule: number[];
+  expectedTauSeconds: number;
+  onStart: (at: string) => void;
+}) {
   const tooFast = schedule.filter((t) => t <= 5 * expectedTauSeconds).length < MIN_HAND_PROMPTS;
   return (
     <div className="space-y-4" data-testid="guided-before-start">
       <ol className="list-decimal space-y-1 pl-5 text-base text-tide-900">
         <li>Keep the meter on the DC-bus test points, reading DC volts.</li>
         <li>Press Start at the very moment you isolate the drive.</li>
-        <li>When the card turns yellow and the phone beeps, read the meter and type the voltage.</li>
+        <li>
+          When the card turns yellow and the phone beeps, read the meter and type the voltage.
+        </li>
       </ol>
       <p className="text-sm text-tide-800">
-        The first readings come every {schedule[0]} s, then further apart: {schedule.length} prompts over about{' '}
-        {Math.round(schedule.at(-1)! / 60)} min at most. The capture ends by itself below {CAPTURE_END_VOLTS} V.
+        The first readings come every {schedule[0]} s, then further apart: {schedule.length} prompts
+        over about {Math.round(schedule.at(-1)! / 60)} min at most. The capture ends by itself below{' '}
+        {CAPTURE_END_VOLTS} V.
       </p>
       {tooFast ? (
-        <p className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950" data-testid="guided-too-fast">
-          This bank is expected to discharge within seconds (τ about {Math.round(expectedTauSeconds)} s): readings by hand cannot
-          follow it. Use a logger and read its file instead, if you can.
+        <p
+          className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950"
+          data-testid="guided-too-fast"
+        >
+          This bank is expected to discharge within seconds (τ about{' '}
+          {Math.round(expectedTauSeconds)} s): readings by hand cannot follow it. Use a logger and
+          read its file instead, if you can.
         </p>
       ) : null}
       <Button
@@ -119,13 +143,18 @@ function useNow(active: boolean): number {
   return now;
 }
 
-function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: number[]; fit: LiveFit }) {
+function Running(
+  props: GuidedCaptureProps & { isolatedAt: string; schedule: number[]; fit: LiveFit },
+) {
   const { schedule, samples, ended, fit } = props;
   const now = useNow(!ended);
   const elapsed = Math.max(0, (now - Date.parse(props.isolatedAt)) / 1000);
   const index = latestPromptIndex(schedule, elapsed);
   const answered = useMemo(() => new Set(samples.map((s) => s.tSeconds)), [samples]);
-  const dueAt = index >= 0 && !answered.has(promptAt(schedule, index)) && !ended ? promptAt(schedule, index) : null;
+  const dueAt =
+    index >= 0 && !answered.has(promptAt(schedule, index)) && !ended
+      ? promptAt(schedule, index)
+      : null;
   const nextAt = promptAt(schedule, index + 1);
   const [typed, setTyped] = useState('');
   const [problem, setProblem] = useState<string | null>(null);
@@ -149,17 +178,22 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
     const volts = readDecimal(typed);
     if (volts === null) return setProblem('Type the voltage as a number, e.g. 412 or 412,5.');
     if (volts < SAMPLE_VOLTS.min || volts > SAMPLE_VOLTS.max) {
-      return setProblem(`A reading is between ${SAMPLE_VOLTS.min} and ${SAMPLE_VOLTS.max} V: check the number.`);
+      return setProblem(
+        `A reading is between ${SAMPLE_VOLTS.min} and ${SAMPLE_VOLTS.max} V: check the number.`,
+      );
     }
     const atNow = Math.max(0, (Date.now() - Date.parse(props.isolatedAt)) / 1000);
     let tSeconds = dueAt ?? Math.round(atNow * 10) / 10;
-    while (samples.some((s) => s.tSeconds === tSeconds)) tSeconds = Math.round((tSeconds + 0.1) * 10) / 10;
+    while (samples.some((s) => s.tSeconds === tSeconds))
+      tSeconds = Math.round((tSeconds + 0.1) * 10) / 10;
     const next = [...samples, { tSeconds, volts }].sort((a, b) => a.tSeconds - b.tSeconds);
     setProblem(null);
     setTyped('');
     setLastStamp(
       `${formatReadingVolts(volts)} recorded at ${clockText(tSeconds)}: ${
-        dueAt !== null ? 'the time of the prompt' : 'the time you pressed Record (no prompt was waiting)'
+        dueAt !== null
+          ? 'the time of the prompt'
+          : 'the time you pressed Record (no prompt was waiting)'
       }.`,
     );
     props.onSamples(next);
@@ -171,8 +205,15 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
     <div className="space-y-4" data-testid="guided-capture">
       <div className="flex items-end justify-between gap-3">
         <div>
-          <p className="text-xs font-bold uppercase tracking-wide text-tide-600">Time since isolation</p>
-          <p role="timer" aria-label="Time since isolation" className="font-mono text-4xl font-bold tabular-nums text-tide-950" data-testid="capture-clock">
+          <p className="text-xs font-bold uppercase tracking-wide text-tide-600">
+            Time since isolation
+          </p>
+          <p
+            role="timer"
+            aria-label="Time since isolation"
+            className="font-mono text-4xl font-bold tabular-nums text-tide-950"
+            data-testid="capture-clock"
+          >
             {clockText(elapsed)}
           </p>
         </div>
@@ -190,7 +231,9 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
             data-due={dueAt !== null ? 'true' : 'false'}
             aria-live="assertive"
             className={`rounded-xl border-2 px-4 py-3 transition-colors ${
-              dueAt !== null ? 'animate-pulse border-spark-600 bg-spark-300 text-tide-950' : 'border-tide-100 bg-tide-50 text-tide-900'
+              dueAt !== null
+                ? 'animate-pulse border-spark-600 bg-spark-300 text-tide-950'
+                : 'border-tide-100 bg-tide-50 text-tide-900'
             }`}
           >
             {dueAt !== null ? (
@@ -201,7 +244,9 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
             ) : (
               <>
                 <p className="text-lg font-bold">Next reading at {clockText(nextAt)}</p>
-                <p className="text-base">in {clockText(nextAt - elapsed + 0.999)}: keep the meter in view.</p>
+                <p className="text-base">
+                  in {clockText(nextAt - elapsed + 0.999)}: keep the meter in view.
+                </p>
               </>
             )}
           </div>
@@ -224,13 +269,24 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
                   aria-describedby={`${inputId}-stamp`}
                   onChange={(e) => setTyped(e.target.value)}
                 />
-                <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-xl font-bold text-tide-600">V</span>
+                <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-xl font-bold text-tide-600">
+                  V
+                </span>
               </div>
-              <Button type="submit" variant="primary" className="min-h-14 px-5 text-base" disabled={typed.trim() === ''}>
+              <Button
+                type="submit"
+                variant="primary"
+                className="min-h-14 px-5 text-base"
+                disabled={typed.trim() === ''}
+              >
                 Record reading
               </Button>
             </div>
-            <p id={`${inputId}-stamp`} className="text-sm text-tide-800" data-testid="capture-stamp-rule">
+            <p
+              id={`${inputId}-stamp`}
+              className="text-sm text-tide-800"
+              data-testid="capture-stamp-rule"
+            >
               {dueAt !== null
                 ? `Goes in at ${clockText(dueAt)}, the time of the prompt.`
                 : 'No prompt is waiting: a reading goes in at the time you press Record.'}
@@ -252,7 +308,9 @@ function Running(props: GuidedCaptureProps & { isolatedAt: string; schedule: num
       )}
 
       <LiveVerdictLine fit={fit} />
-      {fit.plotted.length > 0 ? <DecayPlot samples={fit.plotted} verdict={fit.fit ? { fit: fit.fit } : null} /> : null}
+      {fit.plotted.length > 0 ? (
+        <DecayPlot samples={fit.plotted} verdict={fit.fit ? { fit: fit.fit } : null} />
+      ) : null}
       <ReadingsList samples={samples} schedule={schedule} onSamples={props.onSamples} />
     </div>
   );
@@ -262,16 +320,31 @@ function Ended(props: GuidedCaptureProps) {
   const last = props.samples.at(-1);
   const below = last !== undefined && last.volts < CAPTURE_END_VOLTS;
   return (
-    <div className="space-y-3 rounded-xl border-2 border-ok-600/50 bg-ok-600/5 px-4 py-3" data-testid="capture-ended">
+    <div
+      className="space-y-3 rounded-xl border-2 border-ok-600/50 bg-ok-600/5 px-4 py-3"
+      data-testid="capture-ended"
+    >
       <p className="text-lg font-bold text-tide-950">
-        {below ? `The capture has ended: the last reading is below ${CAPTURE_END_VOLTS} V.` : 'You stopped the capture.'}
+        {below
+          ? `The capture has ended: the last reading is below ${CAPTURE_END_VOLTS} V.`
+          : 'You stopped the capture.'}
       </p>
       <p className="text-base text-tide-900">
-        Before you touch anything, verify absence of voltage with the meter: test it on a known source, measure, test it again.
+        Before you touch anything, verify absence of voltage with the meter: test it on a known
+        source, measure, test it again.
       </p>
-      <BigCheck label={ABSENCE_CHECK.sentence} checked={props.absenceConfirmed} onChange={props.onAbsenceConfirmed} />
+      <BigCheck
+        label={ABSENCE_CHECK.sentence}
+        checked={props.absenceConfirmed}
+        onChange={props.onAbsenceConfirmed}
+      />
       <div className="flex flex-col gap-2 sm:flex-row">
-        <Button variant="primary" className="min-h-12 w-full text-base sm:w-auto" disabled={!props.absenceConfirmed} onClick={props.onFinish}>
+        <Button
+          variant="primary"
+          className="min-h-12 w-full text-base sm:w-auto"
+          disabled={!props.absenceConfirmed}
+          onClick={props.onFinish}
+        >
           Continue to the observations
         </Button>
         <Button className="min-h-12 w-full sm:w-auto" onClick={() => props.onEnded(false)}>
@@ -286,33 +359,51 @@ function Ended(props: GuidedCaptureProps) {
 function LiveVerdictLine({ fit }: { fit: LiveFit }) {
   const text = verdictLine(fit);
   return (
-    <p
-      data-testid="live-verdict"
-      data-trustworthy={fit.trustworthy ? 'true' : 'false'}
-      aria-live="polite"
-      className={`rounded-lg px-3 py-2 text-base ${fit.trustworthy ? 'border border-tide-200 bg-white text-tide-950' : 'bg-tide-50 text-tide-800'}`}
-    >
-      {text}
-    </p>
+    <div>
+      <p className="mb-1 text-xs font-bold uppercase tracking-wide text-tide-600">Verdict so far</p>
+      <p
+        data-testid="live-verdict"
+        data-trustworthy={fit.trustworthy ? 'true' : 'false'}
+        aria-live="polite"
+        className={`rounded-lg px-3 py-2 text-base ${fit.trustworthy ? 'border border-tide-200 bg-white text-tide-950' : 'bg-tide-50 text-tide-800'}`}
+      >
+        {text}
+      </p>
+    </div>
   );
 }
 
 function verdictLine(fit: LiveFit): string {
-  if (!fit.trustworthy) return `Verdict: waiting for ${fit.waitingFor ?? 'more readings'}.`;
+  if (!fit.trustworthy) return `The verdict comes with ${fit.waitingFor ?? 'more readings'}.`;
   const verdict: RecordedRunVerdict | null = fit.verdict;
-  if (!verdict) return `τ is about ${Math.round(fit.fit!.tauSeconds)} s. The verdict comes when the bank’s figures have loaded (a connection is needed once).`;
+  if (!verdict)
+    return `τ is about ${Math.round(fit.fit!.tauSeconds)} s. The verdict comes when the bank’s figures have loaded (a connection is needed once).`;
   const text = explainVerdict(verdict, { asOfOn: todayOn() });
-  return [text.safety, text.health, verdict.status === 'ok' ? text.capacitance : null].filter(Boolean).join(' ');
+  return [text.safety, text.health, verdict.status === 'ok' ? text.capacitance : null]
+    .filter(Boolean)
+    .join(' ');
 }
 
 /** The readings so far, each correctable (a dropped digit) or removable. */
-function ReadingsList({ samples, schedule, onSamples }: { samples: readonly DecaySample[]; schedule: readonly number[]; onSamples: (s: DecaySample[]) => void }) {
+function ReadingsList({
+  samples,
+  schedule,
+  onSamples,
+}: {
+  samples: readonly DecaySample[];
+  schedule: readonly number[];
+  onSamples: (s: DecaySample[]) => void;
+}) {
   const onPrompt = useMemo(() => new Set(schedule), [schedule]);
   if (samples.length === 0) return null;
   return (
     <section aria-label="Readings" className="space-y-1">
-      <h4 className="text-sm font-bold uppercase tracking-wide text-tide-600">Readings ({samples.length})</h4>
-      <p className="text-xs text-tide-600">Mistyped one? Correct the number here; the chart follows.</p>
+      <h4 className="text-sm font-bold uppercase tracking-wide text-tide-600">
+        Readings ({samples.length})
+      </h4>
+      <p className="text-xs text-tide-600">
+        Mistyped one? Correct the number here; the chart follows.
+      </p>
       <ol className="divide-y divide-tide-100" data-testid="capture-readings">
         {samples.map((sample, i) => (
           <ReadingRow
@@ -328,7 +419,17 @@ function ReadingsList({ samples, schedule, onSamples }: { samples: readonly Deca
   );
 }
 
-function ReadingRow({ sample, onPrompt, onChange, onRemove }: { sample: DecaySample; onPrompt: boolean; onChange: (volts: number) => void; onRemove: () => void }) {
+function ReadingRow({
+  sample,
+  onPrompt,
+  onChange,
+  onRemove,
+}: {
+  sample: DecaySample;
+  onPrompt: boolean;
+  onChange: (volts: number) => void;
+  onRemove: () => void;
+}) {
   const [text, setText] = useState(String(sample.volts));
   const [shown, setShown] = useState(sample.volts);
   const [bad, setBad] = useState(false);
@@ -341,7 +442,9 @@ function ReadingRow({ sample, onPrompt, onChange, onRemove }: { sample: DecaySam
   return (
     <li className="flex items-center gap-2 py-1.5" data-testid="capture-reading">
       <span className="w-14 shrink-0 font-mono text-base text-tide-950">{at}</span>
-      <span className="w-20 shrink-0 text-xs text-tide-600">{onPrompt ? 'at the prompt' : 'typed then'}</span>
+      <span className="w-20 shrink-0 text-xs text-tide-600">
+        {onPrompt ? 'at the prompt' : 'typed then'}
+      </span>
       <div className="relative min-w-0 flex-1">
         <input
           className={`${inputClass} pr-8`}
@@ -358,9 +461,17 @@ function ReadingRow({ sample, onPrompt, onChange, onRemove }: { sample: DecaySam
             if (ok && volts !== sample.volts) onChange(volts);
           }}
         />
-        <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-tide-600">V</span>
+        <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-tide-600">
+          V
+        </span>
       </div>
-      <Button variant="ghost" size="sm" className="min-h-10 shrink-0" aria-label={`Remove the reading at ${at}`} onClick={onRemove}>
+      <Button
+        variant="ghost"
+        size="sm"
+        className="min-h-10 shrink-0"
+        aria-label={`Remove the reading at ${at}`}
+        onClick={onRemove}
+      >
         ✕
       </Button>
     </li>

@@ -1,5 +1,14 @@
-import { fitDecay, type BankEngineInputs, type DecayFit, type DecaySample } from '../../../../../../shared/domain';
-import { judgeRecordedRun, type RecordedRunObservations, type RecordedRunVerdict } from '../../../../../../shared/domain/recorded-run';
+import {
+  fitDecay,
+  type BankEngineInputs,
+  type DecayFit,
+  type DecaySample,
+} from '../../../../../../shared/domain';
+import {
+  judgeRecordedRun,
+  type RecordedRunObservations,
+  type RecordedRunVerdict,
+} from '../../../../../../shared/domain/recorded-run';
 import { plottedSamples } from '../../utils/plotted-samples';
 
 /**
@@ -8,7 +17,11 @@ import { plottedSamples } from '../../utils/plotted-samples';
  * chart shows the fit, but the verdict line says what is still missing (a verdict on 3 readings
  * over half a τ would often change its mind).
  */
-export const TRUSTWORTHY_FIT = { minReadings: 5, minSpanTimeConstants: 1, maxHalfWidth: 0.15 } as const;
+export const TRUSTWORTHY_FIT = {
+  minReadings: 5,
+  minSpanTimeConstants: 1,
+  maxHalfWidth: 0.15,
+} as const;
 
 /** The live fit of a capture's readings so far. */
 export interface LiveFit {
@@ -32,11 +45,21 @@ export interface LiveFit {
  * liveFit([{ tSeconds: 5, volts: 538 }, { tSeconds: 10, volts: 516 }, ...], engine)
  * // { verdict: { status: 'ok', tauSeconds: 120.4, health: 'healthy', ... }, trustworthy: true, waitingFor: null, ... }
  */
-export function liveFit(samples: readonly DecaySample[], engine: BankEngineInputs | null, observations: RecordedRunObservations = {}): LiveFit {
+export function liveFit(
+  samples: readonly DecaySample[],
+  engine: BankEngineInputs | null,
+  observations: RecordedRunObservations = {},
+): LiveFit {
   const plotted = plottedSamples(samples);
   if (plotted.length < 3) {
     const more = 3 - plotted.length;
-    return { plotted, verdict: null, fit: null, trustworthy: false, waitingFor: `${more} more reading${more === 1 ? '' : 's'} for a first fit` };
+    return {
+      plotted,
+      verdict: null,
+      fit: null,
+      trustworthy: false,
+      waitingFor: `${more} more reading${more === 1 ? '' : 's'} for a first fit`,
+    };
   }
   let verdict: RecordedRunVerdict | null = null;
   let fit: DecayFit | null = null;
@@ -62,10 +85,16 @@ function trust(fit: DecayFit | null): { trustworthy: boolean; waitingFor: string
     missing.push(`${more} more reading${more === 1 ? '' : 's'}`);
   }
   if (fit.spanTimeConstants < TRUSTWORTHY_FIT.minSpanTimeConstants) {
-    missing.push(`readings until about ${Math.ceil(fit.tauSeconds * TRUSTWORTHY_FIT.minSpanTimeConstants)} s (one time constant)`);
+    const until = Math.ceil(fit.tauSeconds * TRUSTWORTHY_FIT.minSpanTimeConstants);
+    missing.push(
+      `readings up to about ${Math.floor(until / 60)}:${String(until % 60).padStart(2, '0')} (one time constant)`,
+    );
   }
   const [low, high] = fit.tauCi95;
   const halfWidth = (high - low) / 2 / fit.tauSeconds;
-  if (missing.length === 0 && !(halfWidth <= TRUSTWORTHY_FIT.maxHalfWidth)) missing.push('a few more readings to steady the fit');
-  return missing.length === 0 ? { trustworthy: true, waitingFor: null } : { trustworthy: false, waitingFor: missing.join(' and ') };
+  if (missing.length === 0 && !(halfWidth <= TRUSTWORTHY_FIT.maxHalfWidth))
+    missing.push('a few more readings to steady the fit');
+  return missing.length === 0
+    ? { trustworthy: true, waitingFor: null }
+    : { trustworthy: false, waitingFor: missing.join(' and ') };
 }

@@ -41,8 +41,13 @@ export function PaperSheet({
   const leftOut = useMemo(() => {
     if (fit.verdict?.status !== 'ok') return new Map<number, LeftOutMark>();
     // the fit's indices count in the time-ordered readings; map them back to screen rows
-    const order = readings.samples.map((s, i) => ({ s, row: readings.rowNumbers[i]! })).sort((a, b) => a.s.tSeconds - b.s.tSeconds);
-    return leftOutRows(fit.verdict.fit.excluded, order.map((o) => o.row));
+    const order = readings.samples
+      .map((s, i) => ({ s, row: readings.rowNumbers[i]! }))
+      .sort((a, b) => a.s.tSeconds - b.s.tSeconds);
+    return leftOutRows(
+      fit.verdict.fit.excluded,
+      order.map((o) => o.row),
+    );
   }, [fit, readings]);
   const timeId = useId();
 
@@ -54,8 +59,14 @@ export function PaperSheet({
 
   return (
     <div className="space-y-4" data-testid="paper-sheet">
-      <p className="text-base text-tide-900">Type the readings from your sheet: seconds (or m:ss) since isolation and the voltage.</p>
-      <Field id={timeId} label="Time of isolation" hint="The time of day the drive was isolated: the sheet’s 0 s.">
+      <p className="text-base text-tide-900">
+        Type the readings from your sheet: seconds (or m:ss) since isolation and the voltage.
+      </p>
+      <Field
+        id={timeId}
+        label="Time of isolation"
+        hint="The time of day the drive was isolated: the sheet’s 0 s."
+      >
         <TextInput
           id={timeId}
           type="time"
@@ -77,16 +88,31 @@ export function PaperSheet({
           if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
           change(next);
         }}
-        onRemove={(index) => change(rows.length <= 1 ? [EMPTY_ROW] : rows.filter((_, i) => i !== index))}
+        onRemove={(index) =>
+          change(rows.length <= 1 ? [EMPTY_ROW] : rows.filter((_, i) => i !== index))
+        }
       />
-      {fit.plotted.length > 0 ? <DecayPlot samples={fit.plotted} verdict={fit.fit ? { fit: fit.fit } : null} /> : null}
-      {fit.fit === null && fit.plotted.length >= 3 ? (
-        <p className="text-sm text-tide-800">These readings do not fit a decay yet: check the times and the voltages.</p>
+      {fit.plotted.length > 0 ? (
+        <DecayPlot samples={fit.plotted} verdict={fit.fit ? { fit: fit.fit } : null} />
       ) : null}
-      <Button variant="primary" className="min-h-12 w-full text-base sm:w-auto" disabled={readings.samples.length < 3} onClick={onDone}>
+      {fit.fit === null && fit.plotted.length >= 3 ? (
+        <p className="text-sm text-tide-800">
+          These readings do not fit a decay yet: check the times and the voltages.
+        </p>
+      ) : null}
+      <Button
+        variant="primary"
+        className="min-h-12 w-full text-base sm:w-auto"
+        disabled={readings.samples.length < 3}
+        onClick={onDone}
+      >
         Use these readings
       </Button>
-      {readings.samples.length < 3 ? <p className="text-sm text-tide-800">At least 3 readings; better 5 or more over two to three time constants.</p> : null}
+      {readings.samples.length < 3 ? (
+        <p className="text-sm text-tide-800">
+          At least 3 readings; better 5 or more over two to three time constants.
+        </p>
+      ) : null}
     </div>
   );
 }
@@ -94,7 +120,9 @@ export function PaperSheet({
 /** "HH:MM:SS" of an instant on this phone's clock. */
 function timeOfDay(iso: string): string {
   const d = new Date(iso);
-  return [d.getHours(), d.getMinutes(), d.getSeconds()].map((n) => String(n).padStart(2, '0')).join(':');
+  return [d.getHours(), d.getMinutes(), d.getSeconds()]
+    .map((n) => String(n).padStart(2, '0'))
+    .join(':');
 }
 
 /** The instant at `time` ("HH:MM" or "HH:MM:SS", this phone's clock) on the day of `iso`; a time after now is the day before. */

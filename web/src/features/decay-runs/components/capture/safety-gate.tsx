@@ -60,15 +60,22 @@ export function SafetyGate({
       <DischargeTimes visit={visit} bank={bank} busVolts={busVolts} />
       <DischargeCaution compact />
       <fieldset className="space-y-2">
-        <legend className="mb-2 text-base font-bold text-tide-900">Confirm each of these before you measure</legend>
+        <legend className="mb-2 text-base font-bold text-tide-900">
+          Confirm each of these before you measure
+        </legend>
         {GATE_CHECKS.map((check) => (
-          <BigCheck key={check.key} label={check.sentence} checked={ticked.has(check.key)} onChange={(on) => toggle(check.key, on)} />
+          <BigCheck
+            key={check.key}
+            label={check.sentence}
+            checked={ticked.has(check.key)}
+            onChange={(on) => toggle(check.key, on)}
+          />
         ))}
       </fieldset>
       {!all ? (
         <p className="text-sm text-tide-800" data-testid="gate-waiting">
-          Tick all {GATE_CHECKS.length} to go on ({ticked.size} of {GATE_CHECKS.length} ticked). If one is not true, stop here and
-          put it right first.
+          Tick all {GATE_CHECKS.length} to go on ({ticked.size} of {GATE_CHECKS.length} ticked). If
+          one is not true, stop here and put it right first.
         </p>
       ) : null}
       <div className="flex flex-col gap-2 sm:flex-row">
@@ -99,11 +106,21 @@ export function SafetyGate({
 }
 
 /** A checkbox a gloved thumb can hit: the whole row is the target. */
-export function BigCheck({ label, checked, onChange }: { label: string; checked: boolean; onChange: (checked: boolean) => void }) {
+export function BigCheck({
+  label,
+  checked,
+  onChange,
+}: {
+  label: string;
+  checked: boolean;
+  onChange: (checked: boolean) => void;
+}) {
   return (
     <label
       className={`flex min-h-14 cursor-pointer items-start gap-3 rounded-lg border-2 px-3 py-3 text-base ${
-        checked ? 'border-ok-600 bg-ok-600/5 text-tide-950' : 'border-tide-200 bg-white text-tide-900'
+        checked
+          ? 'border-ok-600 bg-ok-600/5 text-tide-950'
+          : 'border-tide-200 bg-white text-tide-900'
       }`}
     >
       <input
@@ -128,17 +145,32 @@ function DischargeTimes({
   busVolts?: number;
 }) {
   const expected = expectedTauOf(bank);
-  const marked = visit.cabinetMarkedWaitMinutes !== null && visit.cabinetMarkedWaitMinutes > 0 ? visit.cabinetMarkedWaitMinutes * 60 : undefined;
+  const marked =
+    visit.cabinetMarkedWaitMinutes !== null && visit.cabinetMarkedWaitMinutes > 0
+      ? visit.cabinetMarkedWaitMinutes * 60
+      : undefined;
   const estimate =
     busVolts !== undefined && busVolts > 0
-      ? estimateDischargeSafety({ busTauSeconds: expected.tauSeconds, fromVolts: busVolts, fromSource: 'nominal-bus', markedWaitSeconds: marked })
+      ? estimateDischargeSafety({
+          busTauSeconds: expected.tauSeconds,
+          fromVolts: busVolts,
+          fromSource: 'nominal-bus',
+          markedWaitSeconds: marked,
+        })
       : null;
-  const tauFrom = expected.source === 'last run' ? 'its last accepted run' : expected.source === 'baseline' ? 'its baseline' : 'a typical bank';
+  const tauFrom =
+    expected.source === 'last run'
+      ? 'its last accepted run'
+      : expected.source === 'baseline'
+        ? 'its baseline'
+        : 'a typical bank';
   return (
     <div className="space-y-2" data-testid="gate-discharge">
       <dl className="grid grid-cols-1 gap-2 sm:grid-cols-2">
         <div className="rounded-lg border border-tide-100 bg-tide-50 px-3 py-2">
-          <dt className="text-xs font-bold uppercase tracking-wide text-tide-600">Marked wait on the cabinet</dt>
+          <dt className="text-xs font-bold uppercase tracking-wide text-tide-600">
+            Marked wait on the cabinet
+          </dt>
           <dd className="text-lg font-bold text-tide-950" data-testid="gate-marked-wait">
             {marked !== undefined ? `${visit.cabinetMarkedWaitMinutes} min` : 'Not on record'}
           </dd>
@@ -149,22 +181,34 @@ function DischargeTimes({
           </dd>
         </div>
         <div className="rounded-lg border border-tide-100 bg-tide-50 px-3 py-2">
-          <dt className="text-xs font-bold uppercase tracking-wide text-tide-600">Ebbline’s estimate</dt>
+          <dt className="text-xs font-bold uppercase tracking-wide text-tide-600">
+            Ebbline’s estimate
+          </dt>
           <dd className="text-lg font-bold text-tide-950" data-testid="gate-estimate">
-            {estimate ? `about ${waitText(estimate.safeAfterSeconds['50'])} to 50 V` : `about ${waitText(5 * expected.tauSeconds)} to under 1 %`}
+            {estimate
+              ? `about ${waitText(estimate.safeAfterSeconds['50'])} to 50 V`
+              : `about ${waitText(5 * expected.tauSeconds)} to under 1 %`}
           </dd>
           <dd className="text-sm text-tide-800">
             From τ = {Math.round(expected.tauSeconds)} s of {tauFrom}
-            {estimate ? ` and the ${Math.round(busVolts!)} V bus.` : ' (5 time constants; the bus voltage is not on record).'}
+            {estimate
+              ? ` and the ${Math.round(busVolts!)} V bus.`
+              : ' (5 time constants; the bus voltage is not on record).'}
           </dd>
         </div>
       </dl>
       {estimate?.findings.map((finding) => (
-        <p key={finding} className="rounded-lg border border-eol-600/40 bg-eol-600/5 px-3 py-2 text-sm font-medium text-eol-600" role="alert">
+        <p
+          key={finding}
+          className="rounded-lg border border-eol-600/40 bg-eol-600/5 px-3 py-2 text-sm font-medium text-eol-600"
+          role="alert"
+        >
           ⚠ {finding}
         </p>
       ))}
-      <p className="text-sm text-tide-800">Whichever is longer counts. The estimate never replaces the marked wait or your meter.</p>
+      <p className="text-sm text-tide-800">
+        Whichever is longer counts. The estimate never replaces the marked wait or your meter.
+      </p>
     </div>
   );
 }

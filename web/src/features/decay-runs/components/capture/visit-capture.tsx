@@ -1,18 +1,29 @@
 import { useQueries } from '@tanstack/react-query';
-import { useId, useMemo, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import { HEALTH_LABELS } from '../../../../../../shared/constants/health';
 import { REVIEW_STATE_LABELS } from '../../../../../../shared/constants/decay-runs';
 import type { Role } from '../../../../../../shared/constants/roles';
 import type { DecaySample } from '../../../../../../shared/domain';
 import { judgeRecordedRun } from '../../../../../../shared/domain/recorded-run';
-import { decayRunInputSchema, type DecayRun, type DecayRunInput } from '../../../../../../shared/schemas/decay-run';
+import {
+  decayRunInputSchema,
+  type DecayRun,
+  type DecayRunInput,
+} from '../../../../../../shared/schemas/decay-run';
 import type { Visit, VisitBankRef } from '../../../../../../shared/schemas/visit';
 import { Badge } from '../../../../components/ui/badge';
 import { Button } from '../../../../components/ui/button';
 import { Card } from '../../../../components/ui/card';
 import { captureBankQueryOptions, useCaptureEngine } from '../../api/get-capture-bank';
 import { useVisitDecayRuns } from '../../api/get-decay-runs';
-import { createDraft, discardDraft, markReady, updateDraft, useVisitDrafts, type RunDraft } from '../../drafts/draft-store';
+import {
+  createDraft,
+  discardDraft,
+  markReady,
+  updateDraft,
+  useVisitDrafts,
+  type RunDraft,
+} from '../../drafts/draft-store';
 import { DecayPlot } from '../decay-plot';
 import { LoggerUpload } from '../logger/logger-upload';
 import { VisitPhotos } from '../photos/visit-photos';
@@ -44,13 +55,16 @@ const STEP_KEY = (clientId: string) => `ebbline-capture-step:${clientId}`;
 
 function loadStep(draft: RunDraft): StepState {
   try {
-    const stored = JSON.parse(localStorage.getItem(STEP_KEY(draft.clientId)) ?? 'null') as StepState | null;
+    const stored = JSON.parse(
+      localStorage.getItem(STEP_KEY(draft.clientId)) ?? 'null',
+    ) as StepState | null;
     if (stored && typeof stored.step === 'string') return stored;
   } catch {
     // nothing kept: work it out from the draft
   }
   const source = draft.body.source;
-  if (draft.body.samples?.length || (source === 'guided' && draft.body.isolatedAt)) return { step: source ?? 'guided', ended: false };
+  if (draft.body.samples?.length || (source === 'guided' && draft.body.isolatedAt))
+    return { step: source ?? 'guided', ended: false };
   return { step: 'method', ended: false };
 }
 
@@ -70,12 +84,22 @@ interface BankState {
   draft: RunDraft | undefined;
 }
 
-function bankStates(visit: Visit, drafts: readonly RunDraft[], runs: readonly DecayRun[] | undefined): BankState[] {
+function bankStates(
+  visit: Visit,
+  drafts: readonly RunDraft[],
+  runs: readonly DecayRun[] | undefined,
+): BankState[] {
   return visit.banks.map((bank) => {
     const current = (runs ?? []).filter((r) => r.bankId === bank.id && r.supersededById === null);
     const sentIds = new Set((runs ?? []).map((r) => r.clientId));
-    const unsent = drafts.filter((d) => d.bankId === bank.id && d.status !== 'sent' && !sentIds.has(d.clientId));
-    return { bank, run: current.sort((a, b) => b.recordedAt.localeCompare(a.recordedAt))[0], draft: unsent.at(-1) };
+    const unsent = drafts.filter(
+      (d) => d.bankId === bank.id && d.status !== 'sent' && !sentIds.has(d.clientId),
+    );
+    return {
+      bank,
+      run: current.sort((a, b) => b.recordedAt.localeCompare(a.recordedAt))[0],
+      draft: unsent.at(-1),
+    };
   });
 }
 
@@ -92,12 +116,21 @@ export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureV
   const states = bankStates(visit, drafts, runs.data);
   // undefined until the technician opens or closes a bank: a run in progress on this phone
   // then opens where it was (after a reload or a closed tab)
-  const [chosen, setChosen] = useState<{ bankId: string; clientId?: string } | null | undefined>(undefined);
+  const [chosen, setChosen] = useState<{ bankId: string; clientId?: string } | null | undefined>(
+    undefined,
+  );
   const headingId = useId();
   // the bank's figures for the live verdict, loaded while the connection is there
   useQueries({ queries: visit.banks.map((bank) => captureBankQueryOptions(bank.id)) });
-  const capturing = drafts.filter((d) => d.status === 'capturing' && visit.banks.some((b) => b.id === d.bankId)).at(-1);
-  const open = chosen === undefined ? (capturing ? { bankId: capturing.bankId, clientId: capturing.clientId } : null) : chosen;
+  const capturing = drafts
+    .filter((d) => d.status === 'capturing' && visit.banks.some((b) => b.id === d.bankId))
+    .at(-1);
+  const open =
+    chosen === undefined
+      ? capturing
+        ? { bankId: capturing.bankId, clientId: capturing.clientId }
+        : null
+      : chosen;
   const setOpen = setChosen;
 
   const openState = open ? states.find((s) => s.bank.id === open.bankId) : undefined;
@@ -125,14 +158,28 @@ export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureV
           )}
         </Card>
       ) : (
-        <Card title={visit.banks.length === 1 ? 'The bank to measure' : `The ${visit.banks.length} banks to measure`}>
+        <Card
+          title={
+            visit.banks.length === 1
+              ? 'The bank to measure'
+              : `The ${visit.banks.length} banks to measure`
+          }
+        >
           <ul className="divide-y divide-tide-100" data-testid="capture-banks">
             {states.map((state) => (
               <BankRow
                 key={state.bank.id}
                 state={state}
-                onMeasure={() => setOpen({ bankId: state.bank.id, clientId: state.draft?.status === 'capturing' ? state.draft.clientId : undefined })}
-                onOpenDraft={() => state.draft && setOpen({ bankId: state.bank.id, clientId: state.draft.clientId })}
+                onMeasure={() =>
+                  setOpen({
+                    bankId: state.bank.id,
+                    clientId:
+                      state.draft?.status === 'capturing' ? state.draft.clientId : undefined,
+                  })
+                }
+                onOpenDraft={() =>
+                  state.draft && setOpen({ bankId: state.bank.id, clientId: state.draft.clientId })
+                }
               />
             ))}
           </ul>
@@ -143,7 +190,15 @@ export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureV
   );
 }
 
-function BankRow({ state, onMeasure, onOpenDraft }: { state: BankState; onMeasure: () => void; onOpenDraft: () => void }) {
+function BankRow({
+  state,
+  onMeasure,
+  onOpenDraft,
+}: {
+  state: BankState;
+  onMeasure: () => void;
+  onOpenDraft: () => void;
+}) {
   const { bank, run, draft } = state;
   const position = bank.position;
   return (
@@ -157,24 +212,34 @@ function BankRow({ state, onMeasure, onOpenDraft }: { state: BankState; onMeasur
       </div>
       {draft?.status === 'refused' ? (
         <p className="rounded-lg border border-eol-600/40 bg-eol-600/5 px-3 py-2 text-sm text-tide-950">
-          The server refused the run saved on this phone: {draft.refusal ?? 'no reason given'}. The readings are kept here.
+          The server refused the run saved on this phone: {draft.refusal ?? 'no reason given'}. The
+          readings are kept here.
         </p>
       ) : null}
       {run?.review.state === 'queried' ? (
-        <p className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950" data-testid={`queried-${position}`}>
-          <b>Queried{run.review.reviewedBy ? ` by ${run.review.reviewedBy.name}` : ''}:</b> “{run.review.comment}”
+        <p
+          className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950"
+          data-testid={`queried-${position}`}
+        >
+          <b>Queried{run.review.reviewedBy ? ` by ${run.review.reviewedBy.name}` : ''}:</b> “
+          {run.review.comment}”
         </p>
       ) : null}
       {draft?.status === 'capturing' ? (
         <Button variant="primary" className="min-h-12 w-full text-base" onClick={onMeasure}>
           Go on with bank {position}
         </Button>
-      ) : draft && (draft.status === 'ready' || draft.status === 'sending' || draft.status === 'refused') ? (
+      ) : draft &&
+        (draft.status === 'ready' || draft.status === 'sending' || draft.status === 'refused') ? (
         <Button className="min-h-12 w-full text-base" onClick={onOpenDraft}>
           Open the run of bank {position}
         </Button>
       ) : (
-        <Button variant={run ? 'secondary' : 'primary'} className="min-h-12 w-full text-base" onClick={onMeasure}>
+        <Button
+          variant={run ? 'secondary' : 'primary'}
+          className="min-h-12 w-full text-base"
+          onClick={onMeasure}
+        >
           {run ? `Measure bank ${position} again` : `Measure bank ${position}`}
         </Button>
       )}
@@ -185,15 +250,25 @@ function BankRow({ state, onMeasure, onOpenDraft }: { state: BankState; onMeasur
 function BankStateBadge({ state }: { state: BankState }) {
   const { run, draft } = state;
   if (draft?.status === 'capturing') return <Badge tone="spark">in progress on this phone</Badge>;
-  if (draft?.status === 'ready' || draft?.status === 'sending') return <Badge tone="warn">saved on this phone, not sent yet</Badge>;
+  if (draft?.status === 'ready' || draft?.status === 'sending')
+    return <Badge tone="warn">saved on this phone, not sent yet</Badge>;
   if (draft?.status === 'refused') return <Badge tone="danger">refused: kept on this phone</Badge>;
   if (!run) return <Badge tone="muted">not measured</Badge>;
   const health = run.health ? HEALTH_LABELS[run.health] : 'not judged';
-  const tone = run.safetyFinding || run.health === 'end-of-life' ? 'danger' : run.health === 'watch' ? 'warn' : run.health === 'healthy' ? 'ok' : 'muted';
+  const tone =
+    run.safetyFinding || run.health === 'end-of-life'
+      ? 'danger'
+      : run.health === 'watch'
+        ? 'warn'
+        : run.health === 'healthy'
+          ? 'ok'
+          : 'muted';
   return (
     <span className="flex flex-wrap gap-1">
       <Badge tone={tone}>sent: {health}</Badge>
-      <Badge tone={run.review.state === 'queried' ? 'warn' : 'muted'}>{REVIEW_STATE_LABELS[run.review.state]}</Badge>
+      <Badge tone={run.review.state === 'queried' ? 'warn' : 'muted'}>
+        {REVIEW_STATE_LABELS[run.review.state]}
+      </Badge>
     </span>
   );
 }
@@ -221,18 +296,30 @@ function BankCapture({
   const { engine, bank: bankRecord } = useCaptureEngine(bank.id);
   const busVolts = bankRecord?.cabinetDcBusVolts ?? undefined;
   const [body, setBody] = useState<Body | undefined>(initialDraft?.body);
-  const [stepState, setStepState] = useState<StepState | undefined>(() => (initialDraft ? loadStep(initialDraft) : undefined));
+  const [stepState, setStepState] = useState<StepState | undefined>(() =>
+    initialDraft ? loadStep(initialDraft) : undefined,
+  );
   const [problem, setProblem] = useState<string | null>(null);
   const [creating, setCreating] = useState(false);
   const [openedAt] = useState(() => new Date().toISOString());
-  const draft = body ? (drafts.find((d) => d.clientId === body.clientId) ?? initialDraft) : undefined;
+  const draft = body
+    ? (drafts.find((d) => d.clientId === body.clientId) ?? initialDraft)
+    : undefined;
   const samples = useMemo(() => (body?.samples ?? []) as DecaySample[], [body?.samples]);
+  // each step starts at the top of the screen, below the visit's header and cautions
+  const top = useRef<HTMLDivElement>(null);
+  const where = `${body ? 'run' : 'gate'}:${stepState?.step ?? ''}:${draft?.status ?? ''}`;
+  useEffect(() => {
+    top.current?.scrollIntoView({ block: 'start' });
+  }, [where]);
 
   const clientId = body?.clientId;
   function patch(change: Partial<Body>) {
     if (!clientId) return;
     setBody((current) => (current ? { ...current, ...change } : current));
-    updateDraft(clientId, change).catch((error: unknown) => setProblem(error instanceof Error ? error.message : String(error)));
+    updateDraft(clientId, change).catch((error: unknown) =>
+      setProblem(error instanceof Error ? error.message : String(error)),
+    );
   }
   function go(next: Partial<StepState>) {
     if (!clientId) return;
@@ -279,10 +366,18 @@ function BankCapture({
 
   if (!body) {
     return (
-      <div data-testid="bank-capture">
+      <div data-testid="bank-capture" ref={top} className="scroll-mt-20">
         {header}
-        <SafetyGate visit={visit} bank={bank} busVolts={busVolts} onConfirm={(c) => void confirmGate(c)} onCancel={onClose} />
-        {creating ? <p className="mt-2 text-sm text-tide-800">Keeping the run on this phone…</p> : null}
+        <SafetyGate
+          visit={visit}
+          bank={bank}
+          busVolts={busVolts}
+          onConfirm={(c) => void confirmGate(c)}
+          onCancel={onClose}
+        />
+        {creating ? (
+          <p className="mt-2 text-sm text-tide-800">Keeping the run on this phone…</p>
+        ) : null}
         {problemLine}
       </div>
     );
@@ -291,25 +386,46 @@ function BankCapture({
 
   const status = draft?.status ?? 'capturing';
   const gateAt = (body.safety as { confirmedAt?: string } | undefined)?.confirmedAt ?? openedAt;
-  const absence = (body.safety as { absenceOfVoltageVerified?: boolean } | undefined)?.absenceOfVoltageVerified === true;
+  const absence =
+    (body.safety as { absenceOfVoltageVerified?: boolean } | undefined)
+      ?.absenceOfVoltageVerified === true;
   const setAbsence = (on: boolean) => {
-    const safety = { ...(body.safety ?? {}), absenceOfVoltageVerified: on ? true : undefined } as unknown as DecayRunInput['safety'];
+    const safety = {
+      ...(body.safety ?? {}),
+      absenceOfVoltageVerified: on ? true : undefined,
+    } as unknown as DecayRunInput['safety'];
     patch({ safety });
   };
   const expected = expectedTauOf(bank);
 
   let content;
   if (status !== 'capturing') {
-    content = <SavedRun visit={visit} viewer={viewer} bank={bank} draft={draft!} body={body} engine={engine} onClose={onClose} />;
+    content = (
+      <SavedRun
+        visit={visit}
+        viewer={viewer}
+        bank={bank}
+        draft={draft!}
+        body={body}
+        engine={engine}
+        onClose={onClose}
+      />
+    );
   } else if (stepState.step === 'method') {
-    content = <ChooseMethod bankPosition={bank.position} onChoose={(step) => {
-      if (step === 'typed') patch({ source: 'typed', isolatedAt: body.isolatedAt ?? gateAt });
-      if (step === 'guided') patch({ source: 'guided' });
-      go({ step });
-    }} onDiscard={async () => {
-      await discardDraft(body.clientId);
-      onClose();
-    }} />;
+    content = (
+      <ChooseMethod
+        bankPosition={bank.position}
+        onChoose={(step) => {
+          if (step === 'typed') patch({ source: 'typed', isolatedAt: body.isolatedAt ?? gateAt });
+          if (step === 'guided') patch({ source: 'guided' });
+          go({ step });
+        }}
+        onDiscard={async () => {
+          await discardDraft(body.clientId);
+          onClose();
+        }}
+      />
+    );
   } else if (stepState.step === 'guided') {
     content = (
       <GuidedCapture
@@ -342,12 +458,20 @@ function BankCapture({
       <LoggerUpload
         engine={engine}
         onUse={(read, file) => {
-          patch({ source: 'logger', loggerFileName: file.fileName, samples: read, isolatedAt: body.isolatedAt ?? gateAt });
+          patch({
+            source: 'logger',
+            loggerFileName: file.fileName,
+            samples: read,
+            isolatedAt: body.isolatedAt ?? gateAt,
+          });
           go({ step: 'finish' });
         }}
       />
     ) : (
-      <p className="text-base text-tide-900">A logger file is read by Ebbline’s server: it needs a connection. Choose another way, or try again when connected.</p>
+      <p className="text-base text-tide-900">
+        A logger file is read by Ebbline’s server: it needs a connection. Choose another way, or try
+        again when connected.
+      </p>
     );
   } else {
     content = (
@@ -361,7 +485,12 @@ function BankCapture({
         askAbsence={body.source !== 'guided' || !absence}
         onAbsence={setAbsence}
         onObservations={(observations) => patch({ observations })}
-        onBack={() => go({ step: body.source === 'logger' ? 'logger' : body.source === 'typed' ? 'typed' : 'guided' })}
+        onBack={() =>
+          go({
+            step:
+              body.source === 'logger' ? 'logger' : body.source === 'typed' ? 'typed' : 'guided',
+          })
+        }
         onSave={async () => {
           const final = {
             ...body,
@@ -370,7 +499,9 @@ function BankCapture({
           };
           const parsed = decayRunInputSchema.safeParse(final);
           if (!parsed.success) {
-            setProblem(`This run cannot be saved yet: ${parsed.error.issues.map((i) => i.message).join(' ')}`);
+            setProblem(
+              `This run cannot be saved yet: ${parsed.error.issues.map((i) => i.message).join(' ')}`,
+            );
             return;
           }
           setProblem(null);
@@ -382,11 +513,17 @@ function BankCapture({
   }
 
   return (
-    <div data-testid="bank-capture">
+    <div data-testid="bank-capture" ref={top} className="scroll-mt-20">
       {header}
       {status === 'capturing' && stepState.step !== 'method' ? (
         <h3 className="mb-3 text-lg font-bold text-tide-900">
-          {stepState.step === 'guided' ? 'Guided capture' : stepState.step === 'typed' ? 'Readings from a paper sheet' : stepState.step === 'logger' ? 'Readings from a logger file' : 'Observations and save'}
+          {stepState.step === 'guided'
+            ? 'Guided capture'
+            : stepState.step === 'typed'
+              ? 'Readings from a paper sheet'
+              : stepState.step === 'logger'
+                ? 'Readings from a logger file'
+                : 'Observations and save'}
         </h3>
       ) : null}
       {content}
@@ -395,17 +532,42 @@ function BankCapture({
   );
 }
 
-function ChooseMethod({ bankPosition, onChoose, onDiscard }: { bankPosition: string; onChoose: (step: Step) => void; onDiscard: () => Promise<void> }) {
+function ChooseMethod({
+  bankPosition,
+  onChoose,
+  onDiscard,
+}: {
+  bankPosition: string;
+  onChoose: (step: Step) => void;
+  onDiscard: () => Promise<void>;
+}) {
   const [discarding, setDiscarding] = useState(false);
   return (
     <div className="space-y-3" data-testid="choose-method">
-      <h3 className="text-lg font-bold text-tide-900">How do you take the readings of bank {bankPosition}?</h3>
-      <MethodButton title="Guided capture now" text="Press Start at isolation; the phone tells you when to read the meter." onClick={() => onChoose('guided')} primary />
-      <MethodButton title="Type readings from a paper sheet" text="You wrote the times and voltages down as you measured." onClick={() => onChoose('typed')} />
-      <MethodButton title="Read a logger file" text="A CSV from a data logger or an oscilloscope." onClick={() => onChoose('logger')} />
+      <h3 className="text-lg font-bold text-tide-900">
+        How do you take the readings of bank {bankPosition}?
+      </h3>
+      <MethodButton
+        title="Guided capture now"
+        text="Press Start at isolation; the phone tells you when to read the meter."
+        onClick={() => onChoose('guided')}
+        primary
+      />
+      <MethodButton
+        title="Type readings from a paper sheet"
+        text="You wrote the times and voltages down as you measured."
+        onClick={() => onChoose('typed')}
+      />
+      <MethodButton
+        title="Read a logger file"
+        text="A CSV from a data logger or an oscilloscope."
+        onClick={() => onChoose('logger')}
+      />
       {discarding ? (
         <div className="space-y-2 rounded-lg bg-tide-50 p-3">
-          <p className="text-sm text-tide-900">Throw this run away? The safety confirmation is forgotten; nothing was sent.</p>
+          <p className="text-sm text-tide-900">
+            Throw this run away? The safety confirmation is forgotten; nothing was sent.
+          </p>
           <div className="flex gap-2">
             <Button variant="danger" onClick={() => void onDiscard()}>
               Yes, throw it away
@@ -422,7 +584,17 @@ function ChooseMethod({ bankPosition, onChoose, onDiscard }: { bankPosition: str
   );
 }
 
-function MethodButton({ title, text, onClick, primary = false }: { title: string; text: string; onClick: () => void; primary?: boolean }) {
+function MethodButton({
+  title,
+  text,
+  onClick,
+  primary = false,
+}: {
+  title: string;
+  text: string;
+  onClick: () => void;
+  primary?: boolean;
+}) {
   return (
     <button
       type="button"
@@ -465,10 +637,15 @@ function Finish({
   const [saving, setSaving] = useState(false);
   const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
   const observations = body.observations as RunObservations | undefined;
-  const fit = useMemo(() => liveFit(samples, engine, observations ?? {}), [samples, engine, observations]);
+  const fit = useMemo(
+    () => liveFit(samples, engine, observations ?? {}),
+    [samples, engine, observations],
+  );
   return (
     <div className="space-y-5" data-testid="capture-finish">
-      {askAbsence ? <BigCheck label={ABSENCE_CHECK.sentence} checked={absence} onChange={onAbsence} /> : null}
+      {askAbsence ? (
+        <BigCheck label={ABSENCE_CHECK.sentence} checked={absence} onChange={onAbsence} />
+      ) : null}
       <ObservationsForm
         initial={observations}
         designBleederOhms={engine?.design.bleederOhms}
@@ -479,13 +656,22 @@ function Finish({
       />
       <div className="space-y-2">
         <h4 className="text-base font-bold text-tide-900">Photos (optional)</h4>
-        <VisitPhotos visitId={visit.id} bankId={bank.id} canAdd={visit.technicians.some((t) => t.id === viewer.id) || viewer.roles.includes('admin')} />
+        <VisitPhotos
+          visitId={visit.id}
+          bankId={bank.id}
+          canAdd={
+            visit.technicians.some((t) => t.id === viewer.id) || viewer.roles.includes('admin')
+          }
+        />
       </div>
       {fit.verdict?.safetyFinding ? (
-        <p className="text-sm font-medium text-eol-600">This run carries a safety finding: it is saved as such.</p>
+        <p className="text-sm font-medium text-eol-600">
+          This run carries a safety finding: it is saved as such.
+        </p>
       ) : null}
       <p className="text-sm text-tide-800">
-        {samples.length} reading{samples.length === 1 ? '' : 's'}. Saving keeps the run on this phone and sends it as soon as there is a connection.
+        {samples.length} reading{samples.length === 1 ? '' : 's'}. Saving keeps the run on this
+        phone and sends it as soon as there is a connection.
       </p>
       {problems.length ? (
         <p role="alert" className="text-sm font-medium text-eol-600">
@@ -533,7 +719,14 @@ function SavedRun({
 }) {
   const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
   const local = useMemo(
-    () => (engine && samples.length ? judgeRecordedRun({ samples, engine, observations: (body.observations ?? {}) as RunObservations }) : null),
+    () =>
+      engine && samples.length
+        ? judgeRecordedRun({
+            samples,
+            engine,
+            observations: (body.observations ?? {}) as RunObservations,
+          })
+        : null,
     [engine, samples, body.observations],
   );
   const verdict = draft.run?.verdict ?? local;
@@ -555,12 +748,25 @@ function SavedRun({
       </p>
       <h3 className="text-lg font-bold text-tide-900">Verdict for bank {bank.position}</h3>
       {verdict ? (
-        <RunVerdict verdict={verdict} context={{ markedWaitSeconds: visit.cabinetMarkedWaitMinutes ? visit.cabinetMarkedWaitMinutes * 60 : null }} />
+        <RunVerdict
+          verdict={verdict}
+          context={{
+            markedWaitSeconds: visit.cabinetMarkedWaitMinutes
+              ? visit.cabinetMarkedWaitMinutes * 60
+              : null,
+          }}
+        />
       ) : (
-        <p className="text-base text-tide-900">The verdict shows once the bank’s figures have loaded (a connection is needed).</p>
+        <p className="text-base text-tide-900">
+          The verdict shows once the bank’s figures have loaded (a connection is needed).
+        </p>
       )}
       {plotted.length ? <DecayPlot samples={plotted} verdict={fit ? { fit } : null} /> : null}
-      <VisitPhotos visitId={visit.id} bankId={bank.id} canAdd={visit.technicians.some((t) => t.id === viewer.id)} />
+      <VisitPhotos
+        visitId={visit.id}
+        bankId={bank.id}
+        canAdd={visit.technicians.some((t) => t.id === viewer.id)}
+      />
       <Button variant="primary" className="min-h-12 w-full text-base sm:w-auto" onClick={onClose}>
         Back to the banks
       </Button>
@@ -582,18 +788,24 @@ export function UnsentRunsWarning({ visit }: { visit: Visit }) {
   const none = missing.filter((s) => !s.draft || s.draft.status === 'capturing');
   const names = (list: BankState[]) => list.map((s) => s.bank.position).join(', ');
   return (
-    <div role="alert" className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950" data-testid="unsent-runs-warning">
+    <div
+      role="alert"
+      className="rounded-lg border border-watch-600/40 bg-watch-600/5 px-3 py-2 text-sm text-tide-950"
+      data-testid="unsent-runs-warning"
+    >
       <p className="font-bold">Are you sure?</p>
       {none.length ? (
         <p>
-          No decay run has been sent for {none.length === 1 ? 'bank' : 'banks'} {names(none)}. A logged visit goes to review without
+          No decay run has been sent for {none.length === 1 ? 'bank' : 'banks'} {names(none)}. A
+          logged visit goes to review without
           {none.length === 1 ? ' it' : ' them'}.
         </p>
       ) : null}
       {waiting.length ? (
         <p>
-          The {waiting.length === 1 ? 'run' : 'runs'} of {names(waiting)} {waiting.length === 1 ? 'is' : 'are'} saved on this phone but not
-          sent yet: they are sent when the phone is online.
+          The {waiting.length === 1 ? 'run' : 'runs'} of {names(waiting)}{' '}
+          {waiting.length === 1 ? 'is' : 'are'} saved on this phone but not sent yet: they are sent
+          when the phone is online.
         </p>
       ) : null}
     </div>

@@ -1,0 +1,176 @@
+import pg from 'pg';
+import { describe, expect, inject, it } from 'vitest';
+import { SAFETY_CHECKS } from '../../shared/constants/decay-runs';
+import { captureScheduleSeconds } from '../../shared/domain/capture-schedule';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
+import { watchConsole } from '../support/console';
+import { eventually } from '../support/eventually';
+import { signIn } from '../support/sign-in';
+
+const browser = browsersClosedAfterEach();
+
+interface PlannedVisit {
+  id: string;
+  tag: string;
+}
+
+/** The technician's latest planned visit in the coming weeks (the demo plans several), read from the database. */
+async function lastPlannedVisitOf(email: string): Promise<PlannedVisit> {
+  const client = new pg.Client({ connectionString: inject('databaseUrl') });
+  await client.connect();
+  try {
+    const { rows } = await client.query<PlannedVisit>(
+      `SELECT v.id, c.tag
+         FROM visits v JOIN visit_technicians vt ON vt.visit_id = v.id JOIN users u ON u.id = vt.user_id
+         JOIN cabinets c ON c.id = v.cabinet_id
+        WHERE u.email = $1 AND v.state = 'planned' AND v.planned_end_at > now()
+        ORDER BY v.planned_start_at DESC LIMIT 1`,
+      [email],
+    );
+    expect(rows).toHaveLength(1);
+    return rows[0]!;
+  } finally {
+    await client.end();
+  }
+}
+
+const GATE = SAFETY_CHECKS.filter((c) => c.when === 'before');
+const ABSENCE = SAFETY_CHECKS.find((c) => c.key === 'absenceOfVoltageVerified')!;
+
+describe('Guided capture at the cabinet (technician, phone)', () => {
+  it('when Lucia starts a visit, passes the safety gate and types the readings at the prompts, then the chart and the verdict follow and the run is saved', async () => {
+    const visit = await lastPlannedVisitOf('lucia@brackenmoor.example');
+    const { page } = await browser(PHONE_VIEWPORT);
+    const console = watchConsole(page);
+    await signIn(page, 'lucia', 'tidewater-tech', { returnTo: `/my-visits/${visit.id}` });
+    await page.getByRole('heading', { name: visit.tag }).waitFor();
+
+    // the clock the page runs on is the test's from here: the prompts come when the test says
+    await page.clock.install();
+    await page.reload();
+    await page.getByRole('heading', { name: visit.tag }).waitFor();
+    await page.getByRole('button', { name: 'Start visit' }).click();
+    await page.getByRole('heading', { name: 'At the cabinet' }).waitFor();
+
+    // the bank's expected τ and bus voltage, as the page has them
+    const facts = await page.evaluate(async (visitId) => {
+      const v = (await (await fetch(`/api/visits/${visitId}`)).json()) as {
+        banks: {
+          id: string;
+          position: string;
+          baselineTauSeconds: number;
+          lastTauSeconds?: number | null;
+        }[];
+      };
+      const bank = v.banks[0]!;
+      const record = (await (await fetch(`/api/banks/${bank.id}`)).json()) as {
+        cabinetDcBusVolts: number | null;
+      };
+      return {
+        position: bank.position,
+        tauSeconds: bank.lastTauSeconds ?? bank.baselineTauSeconds,
+        busVolts: record.cabinetDcBusVolts,
+      };
+    }, visit.id);
+    const v0 = facts.busVolts ?? 560;
+    const tau = facts.tauSeconds;
+
+    await page.getByRole('button', { name: `Measure bank ${facts.position}` }).click();
+    // the gate: the marked wait, the estimate, the caution, and Continue only when all four are ticked
+    await page.getByTestId('safety-gate').waitFor();
+    await page.getByTestId('safety-gate').getByTestId('discharge-caution').waitFor();
+    const proceed = page.getByRole('button', { name: 'Continue to the readings' });
+    expect(await proceed.isDisabled()).toBe(true);
+    for (const [i, check] of GATE.entries()) {
+      expect(await proceed.isDisabled()).toBe(true);
+      await page.getByRole('checkbox', { name: check.sentence }).check();
+      if (i === 0) await screenshot(page, 'capture-gate-phone');
+    }
+    await eventually(() => proceed.isDisabled()).toBe(false);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    await proceed.click();
+
+    await page.getByRole('button', { name: /^Guided capture now/ }).click();
+    // time stands still from here until the test moves it
+    const startAt = Date.now() + 60_000;
+    await page.clock.pauseAt(startAt);
+    await page.getByRole('button', { name: 'Start: isolated now' }).click();
+    const clock = page.getByRole('timer', { name: 'Time since isolation' });
+    await eventually(() => clock.textContent()).toBe('0:00');
+
+    const prompt = page.getByTestId('capture-prompt');
+    const voltage = page.getByRole('textbox', { name: 'DC-bus voltage' });
+    const verdictLine = page.getByTestId('live-verdict');
+    let elapsedMs = 0;
+    let typed = 0;
+    let sawTrustworthy = false;
+    for (const t of captureScheduleSeconds(tau)) {
+      await page.clock.fastForward(t * 1000 - elapsedMs);
+      elapsedMs = t * 1000;
+      await eventually(() => prompt.getAttribute('data-due')).toBe('true');
+      await eventually(() => prompt.textContent()).toContain(`for ${clockFor(t)}`);
+      const volts = Math.round(v0 * Math.exp(-t / tau) * 10) / 10;
+      // a comma decimal, as a phone keyboard in many countries types it
+      await voltage.fill(String(volts).replace('.', ','));
+      await page.getByRole('button', { name: 'Record reading' }).click();
+      typed++;
+      await eventually(() => page.getByTestId('capture-reading').count()).toBe(typed);
+      // below 50 V the capture ends by itself
+      if (volts < 50) break;
+      await eventually(() => page.getByTestId('capture-last-stamp').textContent()).toContain(
+        `at ${clockFor(t)}: the time of the prompt`,
+      );
+      if (typed === 3) {
+        await page.getByTestId('decay-plot').waitFor();
+        await screenshot(page, 'capture-first-readings-phone');
+      }
+      if (!sawTrustworthy && (await verdictLine.getAttribute('data-trustworthy')) === 'true') {
+        sawTrustworthy = true;
+        await eventually(() => verdictLine.textContent()).toMatch(/^Healthy: /);
+        await screenshot(page, 'capture-verdict-phone');
+      }
+    }
+    expect(typed).toBeGreaterThanOrEqual(5);
+    // the live verdict came while readings were still being taken
+    expect(sawTrustworthy).toBe(true);
+    await eventually(() => verdictLine.textContent()).toMatch(/^Healthy: the bank keeps/);
+    expect(
+      await page
+        .getByRole('img', { name: /Readings against the fitted decay: \d+ used, 0 left out/ })
+        .count(),
+    ).toBe(1);
+
+    // below 50 V the capture ends; absence of voltage is confirmed before anything else
+    await page.getByTestId('capture-ended').waitFor();
+    const onward = page.getByRole('button', { name: 'Continue to the observations' });
+    expect(await onward.isDisabled()).toBe(true);
+    await page.getByRole('checkbox', { name: ABSENCE.sentence }).check();
+    await screenshot(page, 'capture-ended-phone');
+    await onward.click();
+
+    await page.getByTestId('observations-form').waitFor();
+    await page.getByRole('textbox', { name: 'Bank temperature' }).fill('31');
+    await page.getByRole('textbox', { name: 'Meter used' }).fill('Fluke 87V');
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    await screenshot(page, 'capture-observations-phone');
+    await page.getByRole('button', { name: 'Save the run' }).click();
+
+    const status = page.getByTestId('saved-run-status');
+    await eventually(() => status.getAttribute('data-status')).toMatch(/^(ready|sending|sent)$/);
+    await page.getByTestId('run-verdict').waitFor();
+    await screenshot(page, 'capture-saved-phone');
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    expect(console.problems).toEqual([]);
+  }, 240_000);
+});
+
+/** m:ss, as the capture's clock shows it. */
+function clockFor(seconds: number): string {
+  return `${Math.floor(seconds / 60)}:${String(Math.floor(seconds % 60)).padStart(2, '0')}`;
+}
