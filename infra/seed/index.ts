@@ -9,6 +9,7 @@ import { pathToFileURL } from 'node:url';
 import { User } from '../../api/src/models/user';
 import { sequelize } from '../../api/src/db/sequelize';
 import { withUnitOfWork } from '../../api/src/services/unit-of-work';
+import { seedDecayHistory, type DecayHistorySeedSummary } from './decay-history';
 import { DEMO_PEOPLE } from './people';
 import { seedPlanner, type PlannerSeedSummary } from './planner';
 import {
@@ -18,7 +19,10 @@ import {
   type RegisterSeedSummary,
 } from './register';
 
-export interface SeedSummary extends Partial<RegisterSeedSummary>, Partial<PlannerSeedSummary> {
+export interface SeedSummary
+  extends Partial<RegisterSeedSummary>,
+    Partial<PlannerSeedSummary>,
+    Partial<DecayHistorySeedSummary> {
   /** People registered ahead of their first sign-in. */
   people: number;
 }
@@ -52,7 +56,9 @@ export async function seedDemo(options: SeedOptions = {}): Promise<SeedSummary> 
       }
       const register = await seedRegister(uow, options);
       const planner = await seedPlanner(uow, DEMO_AREA_NAMES);
-      return { people: registered.length, ...register, ...planner };
+      // after the Planner's visits: the history ends before them and their runs go into them
+      const history = await seedDecayHistory(uow, DEMO_AREA_NAMES);
+      return { people: registered.length, ...register, ...planner, ...history };
     },
     { now: options.now },
   );

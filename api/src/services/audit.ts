@@ -22,6 +22,11 @@ export interface AuditRecordInput {
   summary: string;
   before: Record<string, unknown> | null;
   after: Record<string, unknown> | null;
+  /**
+   * When it happened, when not the unit of work's instant: only the demo seed's history, whose
+   * steps are written at the instants they happened in the story (never after `uow.now`).
+   */
+  at?: Date;
 }
 
 /**
@@ -48,9 +53,9 @@ export async function recordAuditBatch(
     const actors = chunk.map((entry) => (entry.actor === undefined ? uow.actor : entry.actor));
     await sequelize.query(
       `INSERT INTO audit_entries (entity_type, entity_id, action, actor_id, actor_name, summary, before, after, at)
-       SELECT t.entity_type, t.entity_id, t.action, t.actor_id, t.actor_name, t.summary, t.before, t.after, $9::timestamptz
-         FROM unnest($1::text[], $2::uuid[], $3::text[], $4::uuid[], $5::text[], $6::text[], $7::jsonb[], $8::jsonb[])
-           AS t(entity_type, entity_id, action, actor_id, actor_name, summary, before, after)`,
+       SELECT t.entity_type, t.entity_id, t.action, t.actor_id, t.actor_name, t.summary, t.before, t.after, coalesce(t.at, $9::timestamptz)
+         FROM unnest($1::text[], $2::uuid[], $3::text[], $4::uuid[], $5::text[], $6::text[], $7::jsonb[], $8::jsonb[], $10::timestamptz[])
+           AS t(entity_type, entity_id, action, actor_id, actor_name, summary, before, after, at)`,
       {
         bind: [
           chunk.map((e) => e.entityType),
@@ -62,6 +67,7 @@ export async function recordAuditBatch(
           chunk.map((e) => (e.before === null ? null : JSON.stringify(e.before))),
           chunk.map((e) => (e.after === null ? null : JSON.stringify(e.after))),
           uow.now.toISOString(),
+          chunk.map((e) => (e.at && e.at.getTime() < uow.now.getTime() ? e.at.toISOString() : null)),
         ],
         transaction: uow.transaction,
       },

@@ -46,9 +46,9 @@ class Binds {
 
 /**
  * Every bank in service of a cabinet, area and site in use, with its due date and bucket.
- * Decay runs and their verdicts are not kept yet, so every bank's health is `unmeasured` and
- * no forecast moves a due date; both columns are here so the list's filters and the rule
- * already take them.
+ * Its health is that of its newest current (not corrected) accepted decay run that was judged,
+ * by the instant; `unmeasured` when it has none. No forecast moves a due date yet; the column
+ * is here so the rule already takes it.
  */
 function dueBanksSql(asOf: string): string {
   return `
@@ -58,6 +58,13 @@ function dueBanksSql(asOf: string): string {
       FROM visit_banks vb JOIN visits vi ON vi.id = vb.visit_id
       WHERE vi.state IN ('logged', 'reviewed') AND vi.logged_at <= ${asOf}::timestamptz
       GROUP BY vb.bank_id
+    ), health_now AS (
+      -- the health of each bank's newest current accepted run that was judged (one pass)
+      SELECT DISTINCT ON (r.bank_id) r.bank_id, r.health
+      FROM decay_runs r
+      WHERE r.review_state = 'accepted' AND r.health IS NOT NULL AND r.isolated_at <= ${asOf}::timestamptz
+        AND NOT EXISTS (SELECT 1 FROM decay_runs n WHERE n.supersedes_id = r.id)
+      ORDER BY r.bank_id, r.isolated_at DESC, r.recorded_at DESC
     ), judged AS (
       SELECT
         b.id AS bank_id, b.position, b.installed_on, b.bank_design_id,
@@ -68,7 +75,7 @@ function dueBanksSql(asOf: string): string {
         (b.baseline_set_at AT TIME ZONE s.time_zone)::date AS baseline_set_on,
         (l.last_logged_at AT TIME ZONE s.time_zone)::date AS last_inspected_on,
         NULL::date AS forecast_next_visit_on,
-        'unmeasured'::text AS health
+        COALESCE(h.health, 'unmeasured')::text AS health
       FROM banks b
       JOIN cabinets c ON c.id = b.cabinet_id
       JOIN areas a ON a.id = c.area_id
@@ -76,6 +83,7 @@ function dueBanksSql(asOf: string): string {
       JOIN bank_designs d ON d.id = b.bank_design_id
       JOIN bank_design_versions v ON v.id = d.current_version_id
       LEFT JOIN logged l ON l.bank_id = b.id
+      LEFT JOIN health_now h ON h.bank_id = b.id
       WHERE b.status = 'in-service' AND b.retired_at IS NULL
         AND c.retired_at IS NULL AND c.status <> 'retired' AND a.retired_at IS NULL AND s.retired_at IS NULL
     ), started AS (

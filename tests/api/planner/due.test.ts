@@ -552,3 +552,65 @@ describe('GET /api/due', () => {
     }
   });
 });
+
+describe('a bank’s health in the Due list', () => {
+  /** A decay run row written straight to its table (the decay-run services have their own tests). */
+  async function insertRun(
+    visitId: string,
+    bankId: string,
+    isolatedAt: string,
+    health: 'healthy' | 'watch' | 'end-of-life' | null,
+    review: 'pending' | 'accepted' | 'queried',
+    supersedesId: string | null = null,
+  ): Promise<string> {
+    const [rows] = await sequelize.query(
+      `INSERT INTO decay_runs (client_id, visit_id, bank_id, version, supersedes_id, correction_reason, source, isolated_at, samples, safety,
+                               observations, verdict, health, body_sha256, review_state, reviewed_at, recorded_by_id, recorded_at)
+       VALUES (gen_random_uuid(), $1, $2, $3, $4, $5, 'typed', $6, '[{"tSeconds":0,"volts":540}]', '{}', '{}', $7, $8,
+               repeat('a', 64), $9, CASE WHEN $9 = 'pending' THEN NULL ELSE $6::timestamptz END, $10, $6)
+       RETURNING id`,
+      {
+        bind: [
+          visitId,
+          bankId,
+          supersedesId ? 2 : 1,
+          supersedesId,
+          supersedesId ? 'Mistyped reading' : null,
+          isolatedAt,
+          JSON.stringify({ status: 'ok', health }),
+          health,
+          review,
+          planner.user.id,
+        ],
+      },
+    );
+    return (rows as Array<{ id: string }>)[0]!.id;
+  }
+
+  it('when a bank has accepted runs, then its health is the newest current accepted judged one’s; pending, queried, corrected, unjudged and later runs do not count; none: unmeasured', async () => {
+    const { site, cabinet, design } = await fleet('UTC', 365);
+    const at = new Date('2025-01-01T12:00:00Z');
+    const ageing = await makeBankAt(cabinet.id, design.id, '2024-01-01', at);
+    const corrected = await makeBankAt(cabinet.id, design.id, '2024-01-01', at);
+    const queriedOnly = await makeBankAt(cabinet.id, design.id, '2024-01-01', at);
+    const visit = await insertVisit(cabinet.id, [ageing.id, corrected.id, queriedOnly.id], 'reviewed', '2025-06-01T08:00:00Z', {
+      loggedAt: '2025-06-01T12:00:00Z',
+    });
+    await insertRun(visit, ageing.id, '2025-06-01T09:00:00Z', 'healthy', 'accepted');
+    await insertRun(visit, ageing.id, '2026-06-01T09:00:00Z', 'watch', 'accepted');
+    await insertRun(visit, ageing.id, '2026-06-01T09:30:00Z', null, 'accepted'); // no τ: says nothing
+    await insertRun(visit, ageing.id, '2026-07-01T09:00:00Z', 'end-of-life', 'pending');
+    await insertRun(visit, ageing.id, '2027-01-01T09:00:00Z', 'end-of-life', 'accepted'); // after the instant
+    const wrong = await insertRun(visit, corrected.id, '2026-06-01T09:00:00Z', 'end-of-life', 'accepted');
+    await insertRun(visit, corrected.id, '2026-05-01T09:00:00Z', 'healthy', 'accepted', wrong);
+    await insertRun(visit, queriedOnly.id, '2026-06-01T09:00:00Z', 'end-of-life', 'queried');
+
+    const list = await listDueBanks(query({ siteId: site.id }), new Date('2026-12-02T12:00:00Z'));
+    const healthOf = (id: string) => list.items.find((b) => b.bankId === id)?.health;
+    expect(healthOf(ageing.id)).toBe('watch');
+    expect(healthOf(corrected.id)).toBe('healthy');
+    expect(healthOf(queriedOnly.id)).toBe('unmeasured');
+    const watch = await listDueBanks(query({ siteId: site.id, health: 'watch' }), new Date('2026-12-02T12:00:00Z'));
+    expect(watch.items.map((b) => b.bankId)).toEqual([ageing.id]);
+  });
+});

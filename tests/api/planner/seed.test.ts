@@ -167,7 +167,7 @@ describe('the Planner’s demo', () => {
     expect(overlaps[0]!.n).toBe(0);
   });
 
-  it('when seeded, then some banks were inspected in the last weeks, some about a year ago, others never (overdue), and one visit was missed', async () => {
+  it('when seeded, then some banks were inspected in the last weeks, some about a year ago, others not for over a year (overdue), and one visit was missed', async () => {
     const visits = await rows<VisitRow>(visitsSql);
     const nowMs = NOW.getTime();
     const byState = (s: string) => visits.filter((v) => v.state === s);
@@ -180,10 +180,12 @@ describe('the Planner’s demo', () => {
     expect(yearAgo.length).toBeGreaterThanOrEqual(DEMO_AREA_NAMES.length);
     expect(byState('missed')).toHaveLength(1);
     for (const v of [...recent, ...yearAgo]) expect(v.loggedAt!.getTime()).toBeLessThan(nowMs);
-    // never inspected and installed over a year ago: overdue whatever the design's interval
+    // not inspected for over a year (the decay-run history ends before that) and installed over
+    // a year ago: overdue whatever the design's interval
     const [overdue] = await rows<{ n: number }>(
       `SELECT count(*)::int AS n FROM banks b WHERE b.status = 'in-service' AND b.installed_on < ($1::timestamptz - interval '1 year')::date
-          AND NOT EXISTS (SELECT 1 FROM visit_banks vb JOIN visits v ON v.id = vb.visit_id WHERE vb.bank_id = b.id AND v.state IN ('logged', 'reviewed'))`,
+          AND NOT EXISTS (SELECT 1 FROM visit_banks vb JOIN visits v ON v.id = vb.visit_id WHERE vb.bank_id = b.id AND v.state IN ('logged', 'reviewed')
+                             AND v.logged_at > $1::timestamptz - interval '1 year')`,
       [NOW.toISOString()],
     );
     expect(overdue!.n).toBeGreaterThan(50);
