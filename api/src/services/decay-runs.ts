@@ -332,6 +332,10 @@ export async function recordDecayRun(uow: UnitOfWork, visitId: string, input: De
     ]);
   }
   if (visit.state === 'planned') {
+    // only an assigned technician starts a visit (visit-states.ts): an admin records on one under way
+    if (!(uow.actor.roles.includes(VISIT_TECHNICIAN_ROLE) && technicianIds.includes(uow.actor.id))) {
+      throw AppError.forbidden('This visit has not been started: only a technician assigned to it may start it by recording the first run.');
+    }
     // the start button may have been pressed offline: the first run starts the visit
     await transitionVisit(uow, visitId, { action: 'start', version: visit.version });
   }

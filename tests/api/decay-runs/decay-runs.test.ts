@@ -197,7 +197,13 @@ describe('who may record a run', () => {
     expect(run.recordedBy).toEqual({ id: plant.ana.user.id, name: plant.ana.user.name });
   });
 
-  it('when an admin records on a visit under way, then 201', async () => {
+  it('when an admin records on a visit under way, then 201; on a planned visit (which only its technician starts), 403', async () => {
+    const planned = await visitOf(plant);
+    const before = await runTables();
+    const refused = await postRun(app, planned.id, plant.admin.auth, validRunInput(plant.bankB.id));
+    expect(refused.status).toBe(403);
+    expect(refused.body.error.message).toMatch(/only a technician assigned to it may start it/);
+    expect(await runTables()).toEqual(before);
     const visit = await visitOf(plant, 'under-way');
     const run = await recordRun(app, visit.id, plant.admin.auth, validRunInput(plant.bankB.id));
     expect(run.recordedBy.id).toBe(plant.admin.user.id);
