@@ -35,7 +35,7 @@ import { visitsRouter } from './routes/visits/router';
 import { loggerFilesRouter } from './routes/logger-files/router';
 import { photosRouter, visitPhotosRouter } from './routes/photos/router';
 import { bankDecayRunsRouter, decayRunsRouter, visitDecayRunsRouter } from './routes/decay-runs/router';
-import { decayRunReviewRouter } from './routes/decay-runs/review-router';
+import { decayRunReviewRouter, reviewQueueRouter } from './routes/decay-runs/review-router';
 
 /** Builds the Express app: API under /api, the built web app everywhere else. */
 export function createApp(): express.Express {
@@ -109,6 +109,7 @@ export function createApp(): express.Express {
   api.use('/visits/:visitId/decay-runs', visitDecayRunsRouter);
   api.use('/decay-runs', decayRunsRouter);
   api.use('/decay-runs', decayRunReviewRouter);
+  api.use('/review-queue', reviewQueueRouter);
   api.use('/photos', photosRouter);
   api.use('/visits', visitsRouter);
   api.use('/shutdown-windows', shutdownWindowsRouter);

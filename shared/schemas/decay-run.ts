@@ -236,3 +236,18 @@ export const decayRunReviewSchema = z
   });
 export type DecayRunReviewInput = z.input<typeof decayRunReviewSchema>;
 export type DecayRunReview = z.output<typeof decayRunReviewSchema>;
+
+/** Most visits one page of the review queue holds. */
+export const REVIEW_QUEUE_PAGE_SIZE_MAX = 200;
+
+/** The review queue's query (`GET /api/review-queue`): a page of the visits waiting for review. */
+export const reviewQueueQuerySchema = z.object({
+  page: z.coerce.number({ error: 'page is a number.' }).int('page is a whole number').min(1, 'page starts at 1').default(1),
+  pageSize: z.coerce
+    .number({ error: 'pageSize is a number.' })
+    .int('pageSize is a whole number')
+    .min(1, 'pageSize is at least 1')
+    .max(REVIEW_QUEUE_PAGE_SIZE_MAX, `pageSize is at most ${REVIEW_QUEUE_PAGE_SIZE_MAX}`)
+    .default(50),
+});
+export type ReviewQueueQuery = z.output<typeof reviewQueueQuerySchema>;

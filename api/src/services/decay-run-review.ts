@@ -9,7 +9,7 @@ import { QueryTypes } from 'sequelize';
 import { VISIT_REVIEWERS } from '../../../shared/constants/planning';
 import { hasAnyRole } from '../../../shared/constants/roles';
 import { REVIEW_STATE_LABELS, type ReviewState } from '../../../shared/constants/decay-runs';
-import type { DecayRunReview } from '../../../shared/schemas/decay-run';
+import type { DecayRunReview, ReviewQueueQuery } from '../../../shared/schemas/decay-run';
 import { sequelize } from '../db/sequelize';
 import { AppError } from '../errors';
 import { Bank } from '../models/bank';
@@ -21,7 +21,7 @@ import { setBankBaseline } from './banks';
 import { loadDecayRun } from './decay-runs';
 import { enqueueOutboxMessage } from './outbox';
 import type { UnitOfWork } from './unit-of-work';
-import { transitionVisit } from './visits';
+import { getVisit, transitionVisit } from './visits';
 
 /** What a review did beside the run itself, for the caller and the outbox. */
 export interface DecayRunReviewResult {
@@ -174,4 +174,34 @@ async function reviewVisitWhenDone(uow: UnitOfWork, visitId: string): Promise<bo
   if ((waiting?.count ?? 0) > 0) return false;
   await transitionVisit(uow, visitId, { action: 'review', version: visit.version });
   return true;
+}
+
+// a current run (not corrected since) of the visit still waiting for review
+const RUN_WAITING = `EXISTS (
+  SELECT 1 FROM decay_runs r
+   WHERE r.visit_id = v.id AND r.review_state = 'pending'
+     AND NOT EXISTS (SELECT 1 FROM decay_runs later WHERE later.supersedes_id = r.id)
+)`;
+
+/**
+ * The review queue: every logged visit, and every reviewed visit holding a current run still
+ * waiting for review (a queried run the technician corrected since), the one waiting longest
+ * first (by when it was logged). Only reliability engineers and admins read it (the route says so).
+ *
+ * @returns one page of the visits, loaded as the visits' answers show them, and their count
+ */
+export async function listReviewQueue(query: ReviewQueueQuery): Promise<{ rows: Visit[]; count: number }> {
+  const where = `WHERE v.state = 'logged' OR (v.state = 'reviewed' AND ${RUN_WAITING})`;
+  const [ids, counts] = await Promise.all([
+    sequelize.query<{ id: string }>(
+      `SELECT v.id FROM visits v ${where}
+        ORDER BY coalesce(v.logged_at, v.planned_start_at) ASC, v.id ASC LIMIT :limit OFFSET :offset`,
+      { replacements: { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }, type: QueryTypes.SELECT },
+    ),
+    sequelize.query<{ count: number }>(`SELECT count(*)::int AS count FROM visits v ${where}`, { type: QueryTypes.SELECT }),
+  ]);
+  const rows: Visit[] = [];
+  // one after another: a page is at most a couple of hundred visits, each one query
+  for (const { id } of ids) rows.push(await getVisit(id, null));
+  return { rows, count: counts[0]?.count ?? 0 };
 }

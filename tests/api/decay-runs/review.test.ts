@@ -272,3 +272,51 @@ describe('POST /api/decay-runs/:runId/review: a corpus of hostile bodies', () =>
     expect(tally[400]).toBeGreaterThan(0);
   }, 300_000);
 });
+
+describe('GET /api/review-queue', () => {
+  async function queuedIds(caller: Actor = reliability): Promise<string[]> {
+    const res = await request(app).get('/api/review-queue?pageSize=200').set('Authorization', caller.auth);
+    expect(res.status).toBe(200);
+    return (res.body.items as Array<{ id: string }>).map((v) => v.id);
+  }
+
+  it('when a technician or a planner asks for the queue, then 403', async () => {
+    for (const caller of [technician, planner]) {
+      expect((await request(app).get('/api/review-queue').set('Authorization', caller.auth)).status).toBe(403);
+    }
+    expect((await request(app).get('/api/review-queue').set('Authorization', admin.auth)).status).toBe(200);
+  });
+
+  it('when a queried run of a reviewed visit is corrected, then the visit is back in the queue until the correction is reviewed', async () => {
+    const place = await visitUnderWay();
+    const first = await recordRun(place.visitId, place.banks[0]!.id);
+    const second = await recordRun(place.visitId, place.banks[1]!.id);
+    // under way: not yet the reviewers'
+    expect(await queuedIds()).not.toContain(place.visitId);
+    await logVisit(place.visitId);
+    const queue = await request(app).get('/api/review-queue?pageSize=200').set('Authorization', reliability.auth);
+    expect(queue.body.items.find((v: { id: string }) => v.id === place.visitId)).toMatchObject({ state: 'logged', cabinetTag: place.cabinet.tag });
+    expect(queue.body.total).toBeGreaterThanOrEqual(1);
+
+    await review(first.id, reliability, { outcome: 'queried', comment: 'Check the reading at 2 min.' });
+    await review(second.id, reliability, { outcome: 'accepted', comment: '' });
+    expect(await visitState(place.visitId)).toBe('reviewed');
+    expect(await queuedIds()).not.toContain(place.visitId);
+
+    const corrected = await request(app)
+      .post(`/api/decay-runs/${first.id}/corrections`)
+      .set('Authorization', technician.auth)
+      .send(validCorrectionInput());
+    expect(corrected.status).toBe(201);
+    expect(await queuedIds()).toContain(place.visitId);
+    expect((await review(corrected.body.id, reliability, { outcome: 'accepted', comment: 'Fine now.' })).status).toBe(200);
+    expect(await queuedIds()).not.toContain(place.visitId);
+    expect(await visitState(place.visitId)).toBe('reviewed');
+  });
+
+  it('when the page is out of bounds, then 400 names it', async () => {
+    const res = await request(app).get('/api/review-queue?pageSize=5000').set('Authorization', reliability.auth);
+    expect(res.status).toBe(400);
+    expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain('pageSize');
+  });
+});

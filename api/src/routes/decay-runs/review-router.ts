@@ -1,10 +1,11 @@
 import { Router } from 'express';
 import { VISIT_REVIEWERS } from '../../../../shared/constants/planning';
-import { decayRunReviewSchema } from '../../../../shared/schemas/decay-run';
+import { decayRunReviewSchema, reviewQueueQuerySchema } from '../../../../shared/schemas/decay-run';
 import { requireRole } from '../../middleware/require-role';
-import { reviewDecayRun } from '../../services/decay-run-review';
+import { listReviewQueue, reviewDecayRun } from '../../services/decay-run-review';
 import { withUnitOfWork } from '../../services/unit-of-work';
 import { actingUser, idParam } from '../params';
+import { presentVisit } from '../visits/presenter';
 import { presentDecayRun } from './presenter';
 
 /**
@@ -19,4 +20,16 @@ decayRunReviewRouter.post('/:runId/review', requireRole(...VISIT_REVIEWERS), asy
   const input = decayRunReviewSchema.parse(req.body);
   const { run } = await withUnitOfWork(actingUser(req), (uow) => reviewDecayRun(uow, id, input));
   res.json(presentDecayRun(run));
+});
+
+/**
+ * `/api/review-queue`: the visits waiting for review (logged ones, and reviewed ones holding a
+ * corrected run still waiting), the one waiting longest first; for reliability engineers and admins.
+ */
+export const reviewQueueRouter = Router();
+
+reviewQueueRouter.get('/', requireRole(...VISIT_REVIEWERS), async (req, res) => {
+  const query = reviewQueueQuerySchema.parse(req.query);
+  const { rows, count } = await listReviewQueue(query);
+  res.json({ items: rows.map(presentVisit), total: count, page: query.page, pageSize: query.pageSize });
 });

@@ -7,7 +7,7 @@ export function Component() {
     <div className="mx-auto max-w-3xl">
       <PageHeader
         title="Review"
-        lead="Logged visits waiting for review. Accept each decay run, or query it with a comment that goes back to the technician."
+        lead="Logged visits waiting for review, and runs corrected after a query. Accept each decay run, or query it with a comment that goes back to the technician."
       />
       <ReviewQueue />
     </div>

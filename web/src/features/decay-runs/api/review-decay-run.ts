@@ -6,7 +6,7 @@ import type { Visit } from '../../../../../shared/schemas/visit';
 import { apiFetch } from '../../../lib/api-client';
 import { decayRunKeys } from './get-decay-runs';
 
-/** Most logged visits the review queue shows at once (the oldest first: they have waited longest). */
+/** Most visits the review queue shows at once (the one waiting longest first). */
 export const REVIEW_QUEUE_SIZE = 100;
 
 /**
@@ -15,15 +15,18 @@ export const REVIEW_QUEUE_SIZE = 100;
  */
 export const reviewKeys = {
   all: [...decayRunKeys.all, 'review'] as const,
-  loggedVisits: () => [...reviewKeys.all, 'logged-visits'] as const,
+  queue: () => [...reviewKeys.all, 'queue'] as const,
   visit: (visitId: string) => [...reviewKeys.all, 'visit', visitId] as const,
   bank: (bankId: string) => [...reviewKeys.all, 'bank', bankId] as const,
 };
 
-/** The logged visits, the one waiting longest first. */
-export async function getLoggedVisits(): Promise<ListPage<Visit>> {
-  const params = new URLSearchParams({ state: 'logged', sort: 'plannedStartAt', pageSize: String(REVIEW_QUEUE_SIZE) });
-  return apiFetch<ListPage<Visit>>(`/api/visits?${params}`);
+/**
+ * The visits waiting for review, the one waiting longest first: the logged ones, and reviewed
+ * ones holding a corrected run still waiting.
+ */
+export async function getReviewQueue(): Promise<ListPage<Visit>> {
+  const params = new URLSearchParams({ pageSize: String(REVIEW_QUEUE_SIZE) });
+  return apiFetch<ListPage<Visit>>(`/api/review-queue?${params}`);
 }
 
 /** One visit as it is now (its state moves to reviewed with its last run's review). */
@@ -36,8 +39,8 @@ export async function getReviewBank(bankId: string): Promise<Bank> {
   return apiFetch<Bank>(`/api/banks/${encodeURIComponent(bankId)}`);
 }
 
-export const loggedVisitsQueryOptions = () =>
-  queryOptions({ queryKey: reviewKeys.loggedVisits(), queryFn: getLoggedVisits });
+export const reviewQueueQueryOptions = () =>
+  queryOptions({ queryKey: reviewKeys.queue(), queryFn: getReviewQueue });
 
 export const reviewVisitQueryOptions = (visitId: string) =>
   queryOptions({ queryKey: reviewKeys.visit(visitId), queryFn: () => getReviewedVisit(visitId) });
@@ -45,7 +48,7 @@ export const reviewVisitQueryOptions = (visitId: string) =>
 export const reviewBankQueryOptions = (bankId: string) =>
   queryOptions({ queryKey: reviewKeys.bank(bankId), queryFn: () => getReviewBank(bankId) });
 
-export const useLoggedVisits = () => useQuery(loggedVisitsQueryOptions());
+export const useReviewQueue = () => useQuery(reviewQueueQueryOptions());
 
 export const useReviewBank = (bankId: string) => useQuery(reviewBankQueryOptions(bankId));
 
@@ -65,8 +68,13 @@ export async function reviewDecayRun(runId: string, review: DecayRunReview): Pro
 export function useReviewDecayRun(options: { onReviewed?: (run: DecayRun) => void } = {}) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ run, review }: { run: Pick<DecayRun, 'id' | 'visitId' | 'bankId'>; review: DecayRunReview }) =>
-      reviewDecayRun(run.id, review),
+    mutationFn: ({
+      run,
+      review,
+    }: {
+      run: Pick<DecayRun, 'id' | 'visitId' | 'bankId'>;
+      review: DecayRunReview;
+    }) => reviewDecayRun(run.id, review),
     onSuccess: async (answer, { run }) => {
       options.onReviewed?.(answer);
       client.setQueryData(decayRunKeys.detail(answer.id), answer);
@@ -74,7 +82,7 @@ export function useReviewDecayRun(options: { onReviewed?: (run: DecayRun) => voi
         client.invalidateQueries({ queryKey: decayRunKeys.lists() }),
         client.invalidateQueries({ queryKey: reviewKeys.visit(run.visitId) }),
         client.invalidateQueries({ queryKey: reviewKeys.bank(run.bankId) }),
-        client.invalidateQueries({ queryKey: reviewKeys.loggedVisits() }),
+        client.invalidateQueries({ queryKey: reviewKeys.queue() }),
       ]);
     },
     onError: async (_error, { run }) => {
@@ -99,7 +107,7 @@ export function useMarkVisitReviewed(options: { onReviewed?: (visit: Visit) => v
     onSuccess: async (visit) => {
       options.onReviewed?.(visit);
       client.setQueryData(reviewKeys.visit(visit.id), visit);
-      await client.invalidateQueries({ queryKey: reviewKeys.loggedVisits() });
+      await client.invalidateQueries({ queryKey: reviewKeys.queue() });
     },
   });
 }

@@ -1,21 +1,22 @@
 import { useState } from 'react';
 import { ErrorPanel } from '../../../../components/ui/error-panel';
 import { Spinner } from '../../../../components/ui/spinner';
-import { REVIEW_QUEUE_SIZE, useLoggedVisits } from '../../api/review-decay-run';
+import { REVIEW_QUEUE_SIZE, useReviewQueue } from '../../api/review-decay-run';
 import { ReviewVisit } from './review-visit';
 
 /**
- * The review queue of reliability engineers: the logged visits, the one waiting longest first,
+ * The review queue of reliability engineers: the logged visits (and reviewed ones holding a run
+ * corrected after a query), the one waiting longest first,
  * each with its runs to accept or query (the one waiting longest shown open, the others opened
  * one tap away). A visit whose last run is reviewed leaves the queue
  * and stays below, under "Reviewed just now", for as long as the screen is open.
  */
 export function ReviewQueue() {
-  const logged = useLoggedVisits();
+  const queue = useReviewQueue();
   const [reviewedHere, setReviewedHere] = useState<string[]>([]);
   // the visits shown open; until the reviewer opens or closes one, the one waiting longest
   const [openIds, setOpenIds] = useState<string[] | null>(null);
-  const firstWaiting = logged.data?.items[0]?.id;
+  const firstWaiting = queue.data?.items[0]?.id;
   const openNow = (ids: string[] | null) => ids ?? (firstWaiting ? [firstWaiting] : []);
   const isOpen = (visitId: string) => openNow(openIds).includes(visitId);
   const toggle = (visitId: string) =>
@@ -34,13 +35,15 @@ export function ReviewQueue() {
     });
   };
 
-  if (logged.isPending) return <Spinner label="Loading the logged visits…" />;
-  if (logged.isError) {
+  if (queue.isPending) return <Spinner label="Loading the visits waiting for review…" />;
+  if (queue.isError) {
     return (
-      <ErrorPanel title="The logged visits could not be loaded">{logged.error.message}</ErrorPanel>
+      <ErrorPanel title="The visits waiting for review could not be loaded">
+        {queue.error.message}
+      </ErrorPanel>
     );
   }
-  const waiting = logged.data.items;
+  const waiting = queue.data.items;
   const waitingIds = new Set(waiting.map((visit) => visit.id));
   const done = reviewedHere.filter((id) => !waitingIds.has(id));
 
@@ -56,11 +59,9 @@ export function ReviewQueue() {
       ) : (
         <>
           <p className="text-sm text-tide-800">
-            {logged.data.total === 1
-              ? 'One logged visit is'
-              : `${logged.data.total} logged visits are`}{' '}
-            waiting for review
-            {logged.data.total > waiting.length
+            {queue.data.total === 1 ? 'One visit is' : `${queue.data.total} visits are`} waiting for
+            review
+            {queue.data.total > waiting.length
               ? ` (the ${REVIEW_QUEUE_SIZE} waiting longest are shown)`
               : ''}
             .

@@ -117,9 +117,17 @@ export function ReviewVisit({
         <p className="text-sm text-tide-700">
           By {visit.technicians.map((t) => t.name).join(', ') || 'nobody assigned'}
         </p>
-        {reviewed ? (
+        {reviewed && runsQuery.isSuccess && waiting === 0 ? (
           <p role="status" className="rounded-lg bg-ok-600/10 p-2 text-sm font-medium text-ok-600">
             Every run of this visit has been reviewed: the visit is reviewed.
+          </p>
+        ) : reviewed && waiting > 0 ? (
+          <p className="text-sm text-tide-800">
+            Reviewed before;{' '}
+            {waiting === 1
+              ? 'a run corrected after a query waits'
+              : `${waiting} runs corrected after a query wait`}{' '}
+            for review.
           </p>
         ) : runsQuery.isSuccess && runs.length > 0 ? (
           <p className="text-sm text-tide-800">
