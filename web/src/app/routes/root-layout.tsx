@@ -1,5 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useEffect } from 'react';
+import { useEffect, useRef } from 'react';
 import { useLocation } from 'react-router';
 import { AppShell } from '../../components/layout/app-shell';
 import { CenteredPage } from '../../components/layout/centered-page';
@@ -10,7 +10,7 @@ import { AccountMenu } from '../../features/auth/components/account-menu';
 import { NotAllowed } from '../../features/auth/components/not-allowed';
 import { WaitingForAccess } from '../../features/auth/components/waiting-for-access';
 import { ServerStatus } from '../../features/health/components/server-status';
-import { ConnectionNote, DraftSync } from '../../features/decay-runs/drafts/draft-sync';
+import { ConnectionNote, DraftSync, useOnline } from '../../features/decay-runs/drafts/draft-sync';
 import { myVisitKeys } from '../../features/my-visits/api/get-my-visits';
 import { visitKeys } from '../../features/planner/api/visits';
 import { OfflineDrafts } from '../../features/decay-runs/drafts/offline-drafts';
@@ -28,17 +28,33 @@ export function RootLayout() {
   const queryClient = useQueryClient();
   const location = useLocation();
   const signedOut = me.error instanceof ApiError && me.error.status === 401;
+  const online = useOnline();
+  // the connection is back after opening offline: ask who is signed in again at once
+  const { refetch } = me;
+  const missingMe = !me.data;
+  const wasOnline = useRef(online);
+  useEffect(() => {
+    if (online && !wasOnline.current && missingMe) void refetch();
+    wasOnline.current = online;
+  }, [online, missingMe, refetch]);
+  // a phone can say it is online while nothing gets through: ask again every few seconds
+  const unreachable = missingMe && me.error instanceof ApiError && me.error.status === 0;
+  useEffect(() => {
+    if (!unreachable) return;
+    const timer = setInterval(() => void refetch(), 5_000);
+    return () => clearInterval(timer);
+  }, [unreachable, refetch]);
   useEffect(() => {
     if (signedOut) goToSignIn(location.pathname + location.search);
   }, [signedOut, location.pathname, location.search]);
 
   // opened without a connection (the service worker served the app): nobody can be signed in,
   // but the decay runs kept on this phone are shown, and they go once the connection returns
-  if (me.isPending && me.fetchStatus === 'paused') {
+  if (missingMe && (!online || unreachable)) {
     return (
       <CenteredPage>
         <div className="space-y-4">
-          <ConnectionNote />
+          <ConnectionNote unreachable />
           <OfflineDrafts />
         </div>
       </CenteredPage>

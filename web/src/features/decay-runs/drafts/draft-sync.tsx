@@ -135,21 +135,26 @@ export function useOnline(): boolean {
  * Says plainly when the phone is offline that readings are kept on it and sent later, and,
  * online, how many saved runs are still waiting or were refused by the server.
  */
-export function ConnectionNote() {
+export function ConnectionNote({
+  unreachable = false,
+}: {
+  /** The server could not be reached although the phone says it is online (a dead connection). */
+  unreachable?: boolean;
+}) {
   const online = useOnline();
   const drafts = useDrafts();
   const waiting = drafts.filter((draft) => draft.status === 'ready' || draft.status === 'sending').length;
   const refused = drafts.filter((draft) => draft.status === 'refused').length;
 
-  if (!online) {
+  if (!online || unreachable) {
     return (
       <div
         role="status"
         data-testid="connection-note"
-        data-online="false"
+        data-online={online ? 'unreachable' : 'false'}
         className="mb-4 rounded-lg border border-spark-400/60 bg-spark-300/25 px-4 py-3 text-base text-tide-950"
       >
-        <p className="font-semibold">You are offline.</p>
+        <p className="font-semibold">{online ? 'Ebbline cannot reach its server.' : 'You are offline.'}</p>
         <p>
           Readings are kept on this phone and sent by themselves when the connection returns.
           {waiting > 0 ? ` ${runs(waiting)} waiting to be sent.` : ''}
