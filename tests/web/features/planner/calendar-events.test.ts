@@ -30,6 +30,8 @@ describe('visitEvent', () => {
   it('when the title is made, then it names the cabinet and the technicians', () => {
     expect(visitTitle(visitOf({ technicians: [{ id: 't1', name: 'Ana' }, { id: 't2', name: 'Ben' }] }))).toBe('BRK-M2-VFD-014 · Ana, Ben');
     expect(visitTitle(visitOf({ technicians: [] }))).toBe('BRK-M2-VFD-014');
+    // a visit started at the cabinet says so
+    expect(visitTitle(visitOf({ technicians: [{ id: 't1', name: 'Ana' }], unplanned: true }))).toBe('BRK-M2-VFD-014 · Ana · unplanned');
   });
 });
 

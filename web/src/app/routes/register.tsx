@@ -15,6 +15,8 @@ import { permissionsFor, ReadOnlyNote, RegisterPermissionsProvider, useRegisterP
 import { SiteList } from '../../features/register/components/site-list';
 import { SiteEditScreen, SiteNewScreen, SitePage } from '../../features/register/components/site-page';
 import { SpareEditScreen, SpareList, SpareNewScreen, SparePage } from '../../features/register/components/spare-pages';
+import { StartAtCabinet } from '../../features/my-visits/components/start-at-cabinet';
+import { hasAnyRole } from '../../../../shared/constants/roles';
 
 const TABS = [
   { to: '/register/cabinets', label: 'Cabinets' },
@@ -81,6 +83,8 @@ function WithQuery({ name, render }: { name: string; render: (value: string | un
 
 function RegisterRoutes() {
   const can = useRegisterPermissions();
+  // a technician (or admin) who opened a cabinet by its label can start a visit there
+  const startsVisits = hasAnyRole(useMe().data?.roles ?? [], ['technician', 'admin']);
   const readNote = 'You can read the register. Planners and admins keep it.';
   return (
     <Routes>
@@ -88,7 +92,7 @@ function RegisterRoutes() {
       <Route path="cabinets" element={<ListScreen note={readNote}><CabinetList /></ListScreen>} />
       <Route path="cabinets/new" element={<EditorsOnly allowed={can.editRegister}><WithQuery name="areaId" render={(areaId) => <CabinetNewScreen areaId={areaId} />} /></EditorsOnly>} />
       <Route path="cabinets/import" element={<CabinetImportScreen />} />
-      <Route path="cabinets/:cabinetId" element={<WithParam name="cabinetId" render={(id) => <CabinetPage cabinetId={id} />} />} />
+      <Route path="cabinets/:cabinetId" element={<WithParam name="cabinetId" render={(id) => <CabinetPage cabinetId={id} atTheCabinet={startsVisits ? (c) => <StartAtCabinet key={c.id} cabinetId={c.id} cabinetTag={c.tag} /> : undefined} />} />} />
       <Route path="cabinets/:cabinetId/edit" element={<EditorsOnly allowed={can.editRegister}><WithParam name="cabinetId" render={(id) => <CabinetEditScreen cabinetId={id} />} /></EditorsOnly>} />
       <Route path="cabinets/:cabinetId/label" element={<WithParam name="cabinetId" render={(id) => <CabinetLabelScreen cabinetId={id} />} />} />
 

@@ -87,6 +87,7 @@ function EventBox({ event }: { event: PlannerEvent }) {
     <span>
       <span className="font-bold">{event.visit.cabinetTag}</span>
       {event.visit.technicians.length > 0 ? <span> · {event.visit.technicians.map((t) => t.name).join(', ')}</span> : null}
+      {event.visit.unplanned ? <span className="italic"> · unplanned</span> : null}
       {event.pending ? <span> (moving…)</span> : null}
     </span>
   );
@@ -110,6 +111,9 @@ function AgendaEvent({ event }: { event: PlannerEvent }) {
       <span className="rounded-full border px-1.5 text-xs font-medium" style={{ background: style.background, color: style.text, borderColor: style.border }}>
         {style.label}
       </span>
+      {event.visit.unplanned ? (
+        <span className="rounded-full border border-dashed border-tide-400 px-1.5 text-xs font-medium text-tide-800">unplanned</span>
+      ) : null}
       <span>
         <span className="font-bold">{event.visit.cabinetTag}</span> · {event.visit.siteName} · {event.visit.areaName}
         {event.visit.technicians.length > 0 ? ` · ${event.visit.technicians.map((t) => t.name).join(', ')}` : ''}

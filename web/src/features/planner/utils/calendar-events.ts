@@ -55,10 +55,11 @@ export const VISIT_STATE_STYLES: Record<VisitState, { background: string; border
 /** The shutdown windows' colour (a pale tide wash with a dashed edge). */
 export const WINDOW_STYLE = { background: '#d3e8e8', border: '#5fb3b3', text: '#17434d', label: 'shutdown window' };
 
-/** A visit's title on the calendar: its cabinet and who goes. */
+/** A visit's title on the calendar: its cabinet and who goes, and "unplanned" for one started at the cabinet. */
 export function visitTitle(visit: Visit): string {
   const people = visit.technicians.map((t) => t.name).join(', ');
-  return people ? `${visit.cabinetTag} · ${people}` : visit.cabinetTag;
+  const title = people ? `${visit.cabinetTag} · ${people}` : visit.cabinetTag;
+  return visit.unplanned ? `${title} · unplanned` : title;
 }
 
 /** A visit as a calendar event on the clock of `timeZone`; `moved` places it where a move proposes. */

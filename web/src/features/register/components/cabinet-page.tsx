@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { useNavigate } from 'react-router';
 import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import type { Cabinet } from '../../../../../shared/schemas/cabinet';
@@ -20,8 +21,12 @@ function MarkedWait({ minutes }: { minutes: number | null }) {
   return <span className="font-bold">{minutes} min</span>;
 }
 
-/** A cabinet: details, banks with their latest verdict, visits to come, label and history. */
-export function CabinetPage({ cabinetId }: { cabinetId: string }) {
+/**
+ * A cabinet: details, banks with their latest verdict, visits to come, label and history.
+ * `atTheCabinet` is shown first, under the tag (what a technician who scanned the label can do
+ * there), composed by the app.
+ */
+export function CabinetPage({ cabinetId, atTheCabinet }: { cabinetId: string; atTheCabinet?: (cabinet: Cabinet) => ReactNode }) {
   const can = useRegisterPermissions();
   const cabinet = cabinetsApi.useDetail(cabinetId);
   const audit = cabinetsApi.useAudit(cabinetId);
@@ -62,6 +67,7 @@ export function CabinetPage({ cabinetId }: { cabinetId: string }) {
           </>
         }
       />
+      {inUse && atTheCabinet ? atTheCabinet(c) : null}
       <div className="grid gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Card title="Details">
           <DetailList
