@@ -169,9 +169,12 @@ export function ReviewRun({
       {run.verdict.status === 'ok' ? (
         <DecayPlot samples={plottedSamples(run.samples)} verdict={run.verdict} />
       ) : (
-        <p className="rounded-lg bg-tide-50 p-3 text-sm text-tide-800">
-          No chart: the readings gave no trustworthy τ.
-        </p>
+        <div className="space-y-1">
+          <DecayPlot samples={plottedSamples(run.samples)} verdict={null} />
+          <p className="text-sm text-tide-800">
+            The readings as recorded: they gave no trustworthy τ, so no decay is fitted.
+          </p>
+        </div>
       )}
       <RunSummary run={run} markedWaitSeconds={markedWaitSeconds} />
       <details className="rounded-lg border border-tide-100 px-3 py-2">
