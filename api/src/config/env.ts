@@ -1,3 +1,4 @@
+import path from 'node:path';
 import { z } from 'zod';
 
 /** Reads a boolean the way people write it in an env file. */
@@ -104,6 +105,12 @@ function exampleSecretsIn(
     );
 }
 
+/** True when `folder` is `parent` or lies inside it (both resolved from the working folder). */
+function isInsideFolder(folder: string, parent: string): boolean {
+  const relative = path.relative(path.resolve(parent), path.resolve(folder));
+  return relative === '' || (!relative.startsWith('..') && !path.isAbsolute(relative));
+}
+
 /** Thrown at boot with one line per missing or bad variable. */
 export class ConfigError extends Error {
   override name = 'ConfigError';
@@ -129,6 +136,11 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
   ) {
     throw new ConfigError(
       'Invalid configuration:\n  OIDC_ISSUER: a provider on another machine must use https (OIDC_ALLOW_HTTP=true allows http on a closed test network)',
+    );
+  }
+  if (parsed.WEB_DIST_DIR && isInsideFolder(parsed.PHOTO_DIR, parsed.WEB_DIST_DIR)) {
+    throw new ConfigError(
+      "Invalid configuration:\n  PHOTO_DIR: must be outside the web app's folder (WEB_DIST_DIR), whose files are served to anyone",
     );
   }
   if (!isLoopbackUrl(appUrl)) {
