@@ -77,8 +77,9 @@ describe('Review (reliability engineer, phone)', () => {
 
     const visit = page.getByTestId('review-visit').filter({ has: page.getByRole('heading', { name: tag, exact: true }) });
     await visit.waitFor();
-    // the visit waiting longest is open; this one opens with a tap
-    await visit.getByRole('button', { name: /^Show the runs? and photos$/ }).click();
+    // the visit waiting longest is open; any other opens with a tap
+    const toggle = visit.getByRole('button', { name: /^(Show the runs? and photos|Hide the runs)$/ });
+    if ((await toggle.getAttribute('aria-expanded')) === 'false') await toggle.click();
     // each run with its chart and its verdict, and the caution of a cabinet's discharge
     await eventually(() => visit.getByTestId('decay-plot').count()).toBe(2);
     await eventually(() => visit.getByTestId('run-verdict').count()).toBe(2);
