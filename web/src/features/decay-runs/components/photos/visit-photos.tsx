@@ -93,7 +93,7 @@ function PhotoViewer({ photo, onClose }: { photo: Photo; onClose: () => void }) 
 }
 
 /** A fresh id for a photo; the Web Crypto call where the page has it (https or this machine). */
-function newClientId(): string {
+export function newClientId(): string {
   if (typeof crypto.randomUUID === 'function') return crypto.randomUUID();
   const b = crypto.getRandomValues(new Uint8Array(16));
   b[6] = (b[6]! & 0x0f) | 0x40;
@@ -102,8 +102,19 @@ function newClientId(): string {
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
 }
 
+/**
+ * Why a chosen file is not sent, checked in the browser before any byte goes (the server checks
+ * the same and more); null when it may be sent.
+ */
+export function photoProblemBeforeSending(file: { name: string; type: string; size: number }, online: boolean): string | null {
+  if (!online) return 'You are offline: this photo was not added. Take it again when the connection is back.';
+  if (file.type && !file.type.startsWith('image/')) return `${file.name} is not a photo. Choose a JPEG, PNG, WebP or HEIF photo.`;
+  if (file.size > PHOTO_MAX_BYTES) return `This photo is larger than ${PHOTO_MAX_MEBIBYTES} MB. Take it again at a lower resolution or quality.`;
+  return null;
+}
+
 /** The refusal of a photo in plain words, with what to do. */
-function problemOf(error: unknown): string {
+export function problemOf(error: unknown): string {
   if (error instanceof ApiError) {
     switch (error.code) {
       case 'file-too-large':
@@ -155,16 +166,9 @@ function AddPhoto({ visitId, bankId, online }: { visitId: string; bankId?: strin
     if (!file) return;
     setAdded(false);
     setSending(null);
-    if (!navigator.onLine) {
-      setProblem('You are offline: this photo was not added. Take it again when the connection is back.');
-      return;
-    }
-    if (file.type && !file.type.startsWith('image/')) {
-      setProblem(`${file.name} is not a photo. Choose a JPEG, PNG, WebP or HEIF photo.`);
-      return;
-    }
-    if (file.size > PHOTO_MAX_BYTES) {
-      setProblem(`This photo is larger than ${PHOTO_MAX_MEBIBYTES} MB. Take it again at a lower resolution or quality.`);
+    const refused = photoProblemBeforeSending(file, navigator.onLine);
+    if (refused) {
+      setProblem(refused);
       return;
     }
     send({ file, clientId: newClientId(), caption: caption.trim() });
