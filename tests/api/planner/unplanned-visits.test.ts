@@ -7,8 +7,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../api/src/app';
 import { sequelize } from '../../../api/src/db/sequelize';
 import type { Visit } from '../../../shared/schemas/visit';
-import { createActor } from '../../support/register';
-import { makeCabinet } from '../../support/register';
+import { assertCorpusHolds } from '../../support/hostile-bodies';
+import { createActor, makeCabinet } from '../../support/register';
 import { makePlant, type Plant } from './visits-fixtures';
 
 const app = createApp();
@@ -101,4 +101,16 @@ describe('unplanned visits', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect((res.body as Visit).technicians.map((t) => t.id)).toEqual([plant.admin.user.id]);
   }, 30_000);
+
+  it('when hostile bodies are sent, then never a 5xx, and a refusal stores nothing', async () => {
+    const tech = await createActor(['technician']);
+    const tally = await assertCorpusHolds(
+      app,
+      { method: 'post', path: `/api/cabinets/${plant.cabinet.id}/unplanned-visits`, headers: { Authorization: tech.auth } },
+      { bankIds: [plant.bankA.id] },
+      300,
+    );
+    // one visit at most: after it, the caller's visit under way there refuses the next (409)
+    expect(tally[201] ?? 0).toBeLessThanOrEqual(1);
+  }, 300_000);
 });
