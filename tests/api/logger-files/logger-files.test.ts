@@ -252,7 +252,7 @@ describe('the limits', () => {
       const lines = ['t_s,v', ...Array.from({ length: LOGGER_FILE_MAX_LINES }, (_, i) => `${i},1`)];
       const res = await send(Buffer.from(lines.join('\n')), 'long.csv');
       expect(res.status).toBe(413);
-      expect(res.body.error.message).toMatch(/^The file has more than 100,000 lines/);
+      expect(res.body.error.message).toMatch(/^The file has more than 50,000 lines/);
     },
     TIMEOUT,
   );
