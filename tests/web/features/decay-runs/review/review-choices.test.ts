@@ -19,6 +19,7 @@ import { decaySamples } from '../../../../support/decay-runs';
 import { bankJson } from '../bank-json';
 
 const bank = bankJson();
+const engine = bankEngineInputs(bank)!;
 const samples = decaySamples({ tauSeconds: 310, v0Volts: 540 });
 
 function verdictOf(
@@ -30,7 +31,7 @@ function verdictOf(
 ): RecordedRunVerdict {
   return judgeRecordedRun({
     samples: options.samples ?? samples,
-    engine: bankEngineInputs(bank),
+    engine,
     observations: {
       bankTempC: options.bankTempC ?? 20,
       meterInputOhms: 10e6,

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { Link } from 'react-router';
 import {
   RUN_SOURCE_LABELS,
   VISUAL_FINDING_LABELS,
@@ -162,7 +163,10 @@ export function ReviewRun({
       </p>
       {run.correctionReason ? (
         <p className="text-sm text-tide-800">
-          <span className="font-medium">Corrected:</span> {run.correctionReason}
+          <span className="font-medium">Corrected:</span> {run.correctionReason}{' '}
+          <Link to={`/runs/${run.id}`} className="font-medium text-tide-800 underline">
+            Every version
+          </Link>
         </p>
       ) : null}
 
