@@ -95,7 +95,7 @@ describe('the decay check on a bank page', () => {
     await page.goto(`${baseUrl}/register/banks/${bank.id}`);
     const panel = page.getByTestId('decay-check');
     await panel.waitFor();
-    await eventually(() => page.getByTestId('decay-not-stored').textContent()).toMatch(/not stored.*recording decay runs comes with visits/);
+    await eventually(() => page.getByTestId('decay-not-stored').textContent()).toMatch(/not stored.*To record a decay run, open this bank's visit/);
     await page.getByTestId('decay-empty').waitFor();
 
     // two readings cannot be judged: the reason is said

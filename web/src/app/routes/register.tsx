@@ -3,6 +3,7 @@ import { Navigate, NavLink, Route, Routes, useLocation, useParams, useSearchPara
 import { PageHeader } from '../../components/ui/page-header';
 import { useMe } from '../../features/auth/api/get-me';
 import { DecayCheckPanel } from '../../features/decay-runs/components/decay-check-panel';
+import { BankRunHistory } from '../../features/decay-runs/components/verdict/bank-run-history';
 import { AreaEditScreen, AreaNewScreen, AreaPage } from '../../features/register/components/area-page';
 import { BankDesignEditScreen, BankDesignList, BankDesignNewScreen, BankDesignPage } from '../../features/register/components/bank-design-page';
 import { BankEditScreen, BankNewScreen, BankPage } from '../../features/register/components/bank-page';
@@ -98,7 +99,7 @@ function RegisterRoutes() {
 
       <Route path="banks" element={<ListScreen note={readNote}><BankList /></ListScreen>} />
       <Route path="banks/new" element={<EditorsOnly allowed={can.editRegister}><WithQuery name="cabinetId" render={(cabinetId) => <BankNewScreen cabinetId={cabinetId} />} /></EditorsOnly>} />
-      <Route path="banks/:bankId" element={<WithParam name="bankId" render={(id) => <BankPage bankId={id} decayCheck={(bank) => <DecayCheckPanel key={bank.id} bank={bank} />} />} />} />
+      <Route path="banks/:bankId" element={<WithParam name="bankId" render={(id) => <BankPage bankId={id} decayRuns={(bank) => <BankRunHistory key={`runs-${bank.id}`} bankId={bank.id} />} decayCheck={(bank) => <DecayCheckPanel key={bank.id} bank={bank} />} />} />} />
       <Route path="banks/:bankId/edit" element={<EditorsOnly allowed={can.editRegister}><WithParam name="bankId" render={(id) => <BankEditScreen bankId={id} />} /></EditorsOnly>} />
 
       <Route path="sites" element={<ListScreen note={readNote}><SiteList /></ListScreen>} />

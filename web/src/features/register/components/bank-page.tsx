@@ -126,10 +126,18 @@ function ReplaceForm({ bank, onDone }: { bank: BankDetail; onDone: () => void })
 
 /**
  * A bank: what it is, its baseline (who set it, when), its replacement chain and its history.
- * `decayCheck` renders the decay check of a bank in service (composed by the app, so features
- * stay apart).
+ * `decayCheck` renders the decay check of a bank in service and `decayRuns` the decay runs
+ * stored on it (composed by the app, so features stay apart).
  */
-export function BankPage({ bankId, decayCheck }: { bankId: string; decayCheck?: (bank: BankDetail) => ReactNode }) {
+export function BankPage({
+  bankId,
+  decayCheck,
+  decayRuns,
+}: {
+  bankId: string;
+  decayCheck?: (bank: BankDetail) => ReactNode;
+  decayRuns?: (bank: BankDetail) => ReactNode;
+}) {
   const can = useRegisterPermissions();
   const bank = banksApi.useDetail(bankId);
   const audit = banksApi.useAudit(bankId);
@@ -236,6 +244,7 @@ export function BankPage({ bankId, decayCheck }: { bankId: string; decayCheck?: 
           ) : null}
         </Card>
       </div>
+      {decayRuns ? decayRuns(b) : null}
       {decayCheck && inService ? decayCheck(b) : null}
       <Card title="Replacement history">
         {b.lineage.length <= 1 ? (

@@ -1,8 +1,47 @@
-import type { DecayRun } from '../../../../../../shared/schemas/decay-run';
+import { useMemo, useRef, useState, type FormEvent } from 'react';
+import type { DecayRun, DecayRunCorrectionInput } from '../../../../../../shared/schemas/decay-run';
+import { DECAY_RUN_TEXT_LIMITS } from '../../../../../../shared/constants/decay-runs';
+import { Button } from '../../../../components/ui/button';
+import { Field, TextArea } from '../../../../components/ui/field';
+import { ApiError } from '../../../../lib/api-client';
+import { useCorrectDecayRun } from '../../api/correct-decay-run';
+import { readReadingRows, type ReadingRow } from '../../utils/readings';
+import { ObservationsForm, type RunObservations } from '../capture/observations-form';
+import { DecayPlot } from '../decay-plot';
+import { ReadingsTable } from '../readings-table';
+
+const EMPTY_ROW: ReadingRow = { time: '', volts: '' };
+const NO_MARKS = new Map();
+
+type CorrectionBody = Omit<DecayRunCorrectionInput, 'clientId'>;
 
 /**
- * A correction of a stored run: the readings and observations to edit, and the required reason.
- * Stored as the run's next version; `onCorrected` gets the new version.
+ * The clientId of a correction: the same for the same body (a retry after a lost answer stores
+ * one version), a new one once the body has changed (a different correction).
+ */
+function useClientIdFor() {
+  const last = useRef<{ key: string; clientId: string } | null>(null);
+  return (body: CorrectionBody): string => {
+    const key = JSON.stringify(body);
+    if (last.current?.key !== key) last.current = { key, clientId: crypto.randomUUID() };
+    return last.current.clientId;
+  };
+}
+
+function rowsOf(run: DecayRun): ReadingRow[] {
+  return [
+    ...run.samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })),
+    EMPTY_ROW,
+  ];
+}
+
+/**
+ * A correction of a stored run: the readings (the readings table, to fix a mistyped reading or
+ * remove one) and the observations to edit, and the reason, which is required. It is stored as
+ * the run's next version; the run as recorded stays, and both are shown. Idempotent: a retry of
+ * the same correction sends the same clientId, so one version is stored.
+ *
+ * @param onCorrected - gets the new version once stored
  */
 export function CorrectionForm({
   run,
@@ -13,7 +52,142 @@ export function CorrectionForm({
   onCorrected?: (next: DecayRun) => void;
   onCancel?: () => void;
 }) {
-  void onCorrected;
-  void onCancel;
-  return <form data-testid="correction-form">Correct version {run.version}</form>;
+  const [rows, setRows] = useState<ReadingRow[]>(() => rowsOf(run));
+  const [observations, setObservations] = useState<RunObservations>(() => ({
+    ...run.observations,
+    visualFindings: [...run.observations.visualFindings],
+  }));
+  const [observationProblems, setObservationProblems] = useState<string[]>([]);
+  const [reason, setReason] = useState('');
+  const [tried, setTried] = useState(false);
+  const clientIdFor = useClientIdFor();
+  const correct = useCorrectDecayRun();
+  const readings = useMemo(() => readReadingRows(rows), [rows]);
+
+  const reasonProblem =
+    reason.trim() === ''
+      ? 'Say why the run is corrected: the reviewer and the bank history read it.'
+      : undefined;
+  const readingsProblem =
+    readings.issues.length > 0
+      ? 'Fix or remove the rows with a problem.'
+      : readings.samples.length === 0
+        ? 'Keep at least one reading.'
+        : undefined;
+  const blocked = reasonProblem ?? readingsProblem ?? observationProblems[0];
+
+  function setCell(index: number, field: keyof ReadingRow, value: string) {
+    setRows((current) => {
+      const next = current.map((row, i) => (i === index ? { ...row, [field]: value } : row));
+      if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
+      return next;
+    });
+  }
+
+  function removeRow(index: number) {
+    setRows((current) =>
+      current.length <= 1 ? [EMPTY_ROW] : current.filter((_, i) => i !== index),
+    );
+  }
+
+  function submit(event: FormEvent) {
+    event.preventDefault();
+    setTried(true);
+    if (blocked) return;
+    const body: CorrectionBody = {
+      source: run.source,
+      ...(run.loggerFileName ? { loggerFileName: run.loggerFileName } : {}),
+      isolatedAt: run.isolatedAt,
+      samples: readings.samples,
+      // the checks were confirmed at the cabinet; a correction of the record does not repeat them
+      safety: run.safety,
+      observations,
+      reason: reason.trim(),
+    };
+    correct.mutate(
+      { runId: run.id, correction: { clientId: clientIdFor(body), ...body } },
+      { onSuccess: (next) => onCorrected?.(next) },
+    );
+  }
+
+  const error = correct.error;
+  return (
+    <form className="space-y-5" onSubmit={submit} noValidate data-testid="correction-form">
+      <p className="text-sm text-tide-800">
+        A stored run is never changed. Your correction becomes <b>version {run.version + 1}</b>, and
+        version {run.version} stays readable beside it.
+      </p>
+      <Field
+        id="correction-reason"
+        label="Why is this run corrected?"
+        required
+        hint="For example: the reading at 2 min was typed as 412 V; the sheet says 421 V."
+        error={tried ? reasonProblem : undefined}
+      >
+        <TextArea
+          id="correction-reason"
+          rows={3}
+          maxLength={DECAY_RUN_TEXT_LIMITS.correctionReason}
+          invalid={tried && !!reasonProblem}
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+        />
+      </Field>
+
+      <section className="space-y-3">
+        <ReadingsTable
+          rows={rows}
+          issues={readings.issues}
+          leftOut={NO_MARKS}
+          onCell={setCell}
+          onRemove={removeRow}
+        />
+        {tried && readingsProblem ? (
+          <p className="text-sm font-medium text-eol-600">{readingsProblem}</p>
+        ) : null}
+        {readings.samples.length > 1 ? (
+          <DecayPlot samples={readings.samples} verdict={null} />
+        ) : null}
+      </section>
+
+      <ObservationsForm
+        initial={observations}
+        onChange={(next, problems) => {
+          setObservations(next);
+          setObservationProblems(problems);
+        }}
+      />
+
+      {error ? (
+        <div
+          role="alert"
+          className="rounded-lg border border-eol-600/40 bg-eol-600/5 px-3 py-2 text-sm text-tide-950"
+          data-testid="correction-error"
+        >
+          <b className="text-eol-600">The correction was not stored.</b> {error.message}
+          {error instanceof ApiError && error.issues.length > 0 ? (
+            <ul className="mt-1 list-disc pl-5">
+              {error.issues.map((issue) => (
+                <li key={issue.path + issue.message}>{issue.message}</li>
+              ))}
+            </ul>
+          ) : null}
+          {error instanceof ApiError && (error.status === 0 || error.status >= 500) ? (
+            <p className="mt-1">Try again: the same correction is sent, so it is stored once.</p>
+          ) : null}
+        </div>
+      ) : null}
+
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" variant="primary" className="min-h-12" disabled={correct.isPending}>
+          {correct.isPending ? 'Storing the correction…' : `Store as version ${run.version + 1}`}
+        </Button>
+        {onCancel ? (
+          <Button className="min-h-12" onClick={onCancel} disabled={correct.isPending}>
+            Cancel
+          </Button>
+        ) : null}
+      </div>
+    </form>
+  );
 }

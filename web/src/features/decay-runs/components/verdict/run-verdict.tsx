@@ -111,6 +111,12 @@ export function HealthMark({ look, size = 20 }: { look: VerdictLook; size?: numb
   }
 }
 
+/** A sentence without its lead word ("Healthy: ", "Safety: ") where a heading above already says it. */
+function withoutLead(sentence: string): string {
+  const body = sentence.replace(/^(Healthy|Watch|End of life|Not judged|Safety): /, '');
+  return body.charAt(0).toUpperCase() + body.slice(1);
+}
+
 function Part({
   title,
   children,
@@ -175,13 +181,13 @@ export function RunVerdict({
           <span data-testid="verdict-health-word">{LOOKS[look].word}</span>
         </p>
         <p className="mt-2 text-base text-tide-950" data-testid="verdict-health-sentence">
-          {text.health}
+          {withoutLead(text.health)}
         </p>
       </section>
 
       {text.safety ? (
         <Part title="⚠ Safety finding" testId="verdict-safety" tone="safety">
-          <p className="font-bold">{text.safety}</p>
+          <p className="font-bold">{withoutLead(text.safety)}</p>
         </Part>
       ) : null}
 
