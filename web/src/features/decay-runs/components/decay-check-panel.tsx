@@ -3,7 +3,7 @@ import type { Bank } from '../../../../../shared/schemas/bank';
 import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { Field, TextArea, UnitInput } from '../../../components/ui/field';
-import { formatPercentFigure, type BankEngineInputs } from '../../../../../shared/domain';
+import { formatPercentFigure, type BankEngineInputs, type DecaySample } from '../../../../../shared/domain';
 import { formatMicrofarads, formatOhms, formatSeconds, formatVolts } from '../../../lib/units';
 import { useDecayCheck } from '../hooks/use-decay-check';
 import { seconds } from '../utils/figures';
@@ -29,6 +29,15 @@ function JudgedWith({ bank, facts }: { bank: Bank; facts: BankEngineInputs }) {
       {cabinet.markedWaitSeconds !== undefined ? `marked wait ${formatSeconds(cabinet.markedWaitSeconds)}` : 'no marked wait time'}.
     </p>
   );
+}
+
+/** Most rows a logger file puts into the readings table (a table to read and type in): every n-th reading past it. */
+const TABLE_ROWS_FROM_FILE = 2000;
+
+/** A logger file's readings as rows of the table, at most {@link TABLE_ROWS_FROM_FILE}. */
+function tableRowsOf(samples: readonly DecaySample[]): ReadingRow[] {
+  const step = Math.max(1, Math.ceil(samples.length / TABLE_ROWS_FROM_FILE));
+  return samples.filter((_, i) => i % step === 0).map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) }));
 }
 
 function PasteBox({ onRows }: { onRows: (rows: ReadingRow[]) => void }) {
@@ -128,7 +137,7 @@ export function DecayCheckPanel({ bank }: { bank: Bank }) {
                 <div className="mt-2">
                   <LoggerUpload
                     engine={facts}
-                    onUse={(samples) => check.replaceRows(samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })))}
+                    onUse={(samples) => check.replaceRows(tableRowsOf(samples))}
                   />
                 </div>
               </details>
