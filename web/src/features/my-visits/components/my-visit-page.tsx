@@ -232,7 +232,7 @@ function doneText(visit: Visit): string {
     case 'logged':
       return 'Logged: waiting for a reliability engineer’s review.';
     case 'reviewed':
-      return 'Reviewed: nothing more to do.';
+      return 'Reviewed by a reliability engineer: each run below shows its review (a queried one says what to put right).';
     case 'missed':
       return 'Missed: it was not started in time. Ask your planner to replan it.';
     case 'cancelled':
