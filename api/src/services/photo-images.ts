@@ -37,18 +37,27 @@ function notAnImage(): AppError {
  */
 export async function preparePhoto(bytes: Buffer): Promise<PreparedPhoto> {
   let format: string | undefined;
+  let compression: string | undefined;
   let width = 0;
   let height = 0;
   try {
     // the header only: nothing is decoded yet, so a "pixel bomb" costs nothing here
     const meta = await sharp(bytes, { limitInputPixels: false }).metadata();
     format = meta.format;
+    compression = meta.compression;
     width = meta.width ?? 0;
     height = meta.height ?? 0;
   } catch {
     throw notAnImage();
   }
   if (!format || !ACCEPTED.has(format) || width <= 0 || height <= 0) throw notAnImage();
+  if (format === 'heif' && compression === 'hevc') {
+    // the HEIC of some phones' cameras: a coding this server's image library does not decode
+    throw new AppError(
+      'not-an-image',
+      'This HEIC photo cannot be read here. Send it as JPEG: most phones do when sharing, or set the camera to "Most Compatible".',
+    );
+  }
   if (width * height > MAX_PIXELS) {
     const megapixels = Math.round((width * height) / 100_000) / 10;
     throw new AppError(

@@ -165,6 +165,17 @@ describe('POST /api/visits/:visitId/photos', () => {
     expect((await upload(technician, atLimit, { clientId: crypto.randomUUID() })).status).toBe(201);
   }, 60_000);
 
+  it('when the photo is a PNG, a WebP or an AVIF (HEIF), whatever its name says, then it is kept as a JPEG', async () => {
+    const base = () => sharp({ create: { width: 40, height: 30, channels: 3, background: '#c9861a' } });
+    for (const bytes of [await base().png().toBuffer(), await base().webp().toBuffer(), await base().avif().toBuffer()]) {
+      const res = await upload(technician, bytes, { clientId: crypto.randomUUID() }, 'photo.txt', 'application/octet-stream');
+      expect(res.status).toBe(201);
+      expect([res.body.widthPx, res.body.heightPx]).toEqual([40, 30]);
+      const full = await request(app).get(res.body.url).set('Authorization', technician.auth);
+      expect((await sharp(full.body as Buffer).metadata()).format).toBe('jpeg');
+    }
+  }, 30_000);
+
   it('when a text file is renamed .jpg, then 415 not-an-image and nothing is stored', async () => {
     await expectNothingStored(async () => {
       const res = await upload(technician, Buffer.from('Bank DC1 looked fine.\n'), { clientId: crypto.randomUUID() }, 'photo.jpg', 'image/jpeg');
