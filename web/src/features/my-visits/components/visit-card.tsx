@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { Badge } from '../../../components/ui/badge';
 import type { Visit } from '../../../../../shared/schemas/visit';
 import type { VisitWindow } from '../utils/visit-window';
 import { clockSpanText, dayText, durationText, spanText } from '../utils/visit-times';
@@ -42,7 +43,10 @@ export function VisitCard({
           </p>
           <p className="text-xs text-tide-600">{visit.timeZone}</p>
         </div>
-        <VisitStateBadge state={visit.state} />
+        <div className="flex flex-col items-end gap-1">
+          <VisitStateBadge state={visit.state} />
+          {visit.unplanned ? <Badge tone="muted">unplanned</Badge> : null}
+        </div>
       </div>
       <p className="mt-3 break-words font-mono text-base font-bold text-tide-900">{visit.cabinetTag}</p>
       <p className="text-sm text-tide-800">
