@@ -125,12 +125,10 @@ export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureV
   const capturing = drafts
     .filter((d) => d.status === 'capturing' && visit.banks.some((b) => b.id === d.bankId))
     .at(-1);
-  const open =
-    chosen === undefined
-      ? capturing
-        ? { bankId: capturing.bankId, clientId: capturing.clientId }
-        : null
-      : chosen;
+  // once opened so, it stays open past its save (the verdict comes next)
+  if (chosen === undefined && capturing)
+    setChosen({ bankId: capturing.bankId, clientId: capturing.clientId });
+  const open = chosen ?? null;
   const setOpen = setChosen;
 
   const openState = open ? states.find((s) => s.bank.id === open.bankId) : undefined;
