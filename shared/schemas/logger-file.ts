@@ -51,6 +51,8 @@ export interface LoggerFilePreview {
   voltsColumn: string;
   /** The file's line number of the header row. */
   headerRow: number;
+  /** The header's cells (column 1 first) and the first rows under it, as written: to choose other columns. */
+  header: { columns: string[]; rows: string[][] };
   /** Rows of readings read under the header, before anything was left out. */
   rowCount: number;
   leftOut: LoggerFileLeftOut;

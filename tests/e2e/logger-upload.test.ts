@@ -86,6 +86,13 @@ describe('a logger file on the bank page, at phone width', () => {
       await eventually(() => plot.getAttribute('aria-label')).toMatch(/^Readings against the fitted decay: \d+ used, \d+ left out$/);
       await eventually(async () => Math.abs(firstFigure(await preview.getByTestId('logger-summary').textContent()) / 218.8 - 1)).toBeLessThan(0.01);
       await eventually(() => preview.getByTestId('logger-summary').textContent()).toMatch(/^Health: .+ · τ 219 s \(3\.6 min\)/);
+      // the columns can be chosen again from the preview, the ones read preselected
+      await preview.getByTestId('logger-choose-columns').click();
+      await eventually(() => upload.getByTestId('logger-volts-column').inputValue()).toBe('2');
+      expect(await upload.getByTestId('logger-time-column').inputValue()).toBe('1');
+      await upload.getByTestId('logger-read-columns').click();
+      await eventually(() => upload.getByTestId('logger-columns').count()).toBe(0);
+      await preview.waitFor();
       // nothing wider than the phone
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE_VIEWPORT.width);
       await preview.getByTestId('logger-use').scrollIntoViewIfNeeded();

@@ -6,7 +6,8 @@
  * turns the engine's refusals into the API's. Nothing is stored.
  */
 import { DECAY_RUN_MAX_SAMPLES, DECAY_RUN_TEXT_LIMITS } from '../../../shared/constants/decay-runs';
-import { LOGGER_FILE_MAX_LINES } from '../../../shared/constants/logger-files';
+import { LOGGER_FILE_CANDIDATE_ROWS, LOGGER_FILE_MAX_LINES } from '../../../shared/constants/logger-files';
+import { normaliseLineEnds, tokenizeCsv, type CsvSeparator } from '../../../shared/domain/csv-text';
 import { EngineInputError } from '../../../shared/domain/errors';
 import { formatNumber } from '../../../shared/domain/format';
 import { LoggerColumnsQuestion, parseDecaySamplesCsv, type DecaySamplesCsv } from '../../../shared/domain/samples-csv';
@@ -143,6 +144,17 @@ function thin(read: DecaySamplesCsv): { samples: DecaySamplesCsv['samples']; row
   return { samples, rowNumbers, step };
 }
 
+/** Characters of the text's start in which the header and the rows under it are looked up (the header is within its first 100 lines). */
+const HEADER_CHARACTERS = 256 * 1024;
+
+/** The header row's cells and the first rows under it, as written, for choosing other columns. */
+function headerOf(text: string, headerRow: number, separator: CsvSeparator): LoggerFilePreview['header'] {
+  const lines = normaliseLineEnds(text.slice(0, HEADER_CHARACTERS)).text.split('\n');
+  const below = lines.slice(headerRow, headerRow + 4 * LOGGER_FILE_CANDIDATE_ROWS).filter((line) => line.trim() !== '');
+  const [columns = [], ...rows] = tokenizeCsv([lines[headerRow - 1] ?? '', ...below.slice(0, LOGGER_FILE_CANDIDATE_ROWS)].join('\n'), separator);
+  return { columns: columns.map((cell) => cell.trim()), rows: rows.map((cells) => cells.map((cell) => cell.trim())) };
+}
+
 /** The file's name as a run keeps it: no folders, no control characters, within its length. */
 function cleanFileName(name: string): string {
   // eslint-disable-next-line no-control-regex -- control characters are what is taken out
@@ -227,6 +239,7 @@ export async function previewLoggerFile(file: LoggerFileUpload, columns: LoggerF
     timeColumn: read.timeColumn,
     voltsColumn: read.voltageColumn,
     headerRow: read.headerRow,
+    header: headerOf(decoded.text, read.headerRow, read.separator),
     rowCount,
     leftOut: { preTrigger, zeroTail, averagedRows: read.averagedRows, thinned },
     format: {

@@ -64,6 +64,10 @@ describe('when a logger file of each known shape is previewed (tests/fixtures/lo
           voltsColumn: facts.expect.voltageColumn,
           headerRow: facts.expect.headerRow,
         });
+        // the header's cells hold the columns read, and rows follow it
+        expect(preview.header.columns).toContain(facts.expect.timeColumn);
+        expect(preview.header.columns).toContain(facts.expect.voltageColumn);
+        expect(preview.header.rows.length).toBeGreaterThan(0);
         const { samples, rowNumbers } = preview;
         const n = samples.length;
         expect(rowNumbers).toHaveLength(n);
@@ -166,6 +170,9 @@ describe('when the column names leave the voltage open', () => {
       const chosen = await send(bytes, 'second-channel.csv', { timeColumn: 'Time (s)', voltsColumn: 'CH1 (V)' });
       expect(chosen.status).toBe(200);
       expect(chosen.body).toMatchObject({ timeColumn: 'Time (s)', voltsColumn: 'CH1 (V)' });
+      // the header and the first rows come with the readings, to choose other columns from
+      expect(chosen.body.header.columns).toEqual(['Time (s)', 'CH1 (V)', 'CH2 (V)']);
+      expect(chosen.body.header.rows).toEqual(refused.body.error.candidates.rows);
       // facts: 601 readings from 565 V
       expect(chosen.body.samples).toHaveLength(601);
       expect(Math.abs(chosen.body.samples[0].volts - 565)).toBeLessThan(1);

@@ -76,6 +76,8 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
   const [progress, setProgress] = useState(0);
   const [preview, setPreview] = useState<LoggerFilePreview | null>(null);
   const [candidates, setCandidates] = useState<LoggerColumnCandidates | null>(null);
+  // the columns as read, preselected when the person asks to choose other ones
+  const [chosen, setChosen] = useState<{ time: string; volts: string } | undefined>(undefined);
   const [usedFile, setUsedFile] = useState<string | null>(null);
 
   function send(chosen: File, columns: Pick<LoggerFileUpload, 'timeColumn' | 'voltsColumn'> = {}) {
@@ -87,6 +89,7 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
       {
         onSuccess: (result) => {
           setCandidates(null);
+          setChosen(undefined);
           setPreview(result);
         },
         onError: (error) => {
@@ -97,16 +100,17 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
     );
   }
 
-  function choose(chosen: File | undefined) {
+  function choose(picked: File | undefined) {
     upload.reset();
     setPreview(null);
     setCandidates(null);
+    setChosen(undefined);
     setUsedFile(null);
-    if (!chosen) return;
-    const problem = loggerFileProblem(chosen);
+    if (!picked) return;
+    const problem = loggerFileProblem(picked);
     setLocalProblem(problem);
-    setFile(problem ? null : chosen);
-    if (!problem) send(chosen);
+    setFile(problem ? null : picked);
+    if (!problem) send(picked);
   }
 
   const error = upload.error;
@@ -155,8 +159,9 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
 
       {candidates && file ? (
         <ColumnPicker
-          key={`${candidates.headerRow}-${candidates.columns.join('|')}`}
+          key={`${candidates.headerRow}-${candidates.columns.join('|')}-${chosen?.time ?? ''}-${chosen?.volts ?? ''}`}
           candidates={candidates}
+          initial={chosen}
           message={columnsQuestion ? error!.message : null}
           pending={upload.isPending}
           onRead={(timeColumn, voltsColumn) => send(file, { timeColumn, voltsColumn })}
@@ -183,6 +188,11 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
           preview={preview}
           engine={engine}
           used={usedFile === preview.fileName}
+          onChooseColumns={() => {
+            const at = (name: string) => String(preview.header.columns.indexOf(name) + 1);
+            setChosen({ time: at(preview.timeColumn), volts: at(preview.voltsColumn) });
+            setCandidates({ question: 'voltsColumn', headerRow: preview.headerRow, ...preview.header });
+          }}
           onUse={() => {
             onUse(preview.samples, { fileName: preview.fileName });
             setUsedFile(preview.fileName);
@@ -196,11 +206,14 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
 /** The column picker: the file's header and first rows, and a select for the time and the voltage. */
 function ColumnPicker({
   candidates,
+  initial,
   message,
   pending,
   onRead,
 }: {
   candidates: LoggerColumnCandidates;
+  /** The columns preselected (1-based numbers); by default the first for the time, the next for the voltage. */
+  initial?: { time: string; volts: string };
   /** The reader's question, when the last answer was one (else a refusal shows below). */
   message: string | null;
   pending: boolean;
@@ -209,8 +222,8 @@ function ColumnPicker({
   const id = useId();
   const { columns, rows } = candidates;
   // a first guess the person checks: the first column for the time, the next for the voltage
-  const [time, setTime] = useState('1');
-  const [volts, setVolts] = useState(columns.length > 1 ? '2' : '1');
+  const [time, setTime] = useState(initial?.time ?? '1');
+  const [volts, setVolts] = useState(initial?.volts ?? (columns.length > 1 ? '2' : '1'));
   const same = time === volts;
   const label = (name: string, i: number) => `${i + 1} · ${name || '(no name)'}`;
   return (
@@ -275,7 +288,19 @@ function ColumnPicker({
 }
 
 /** The preview of the file's readings: what was read, the chart with the live fit, the verdict line, and "Use these readings". */
-function LoggerPreview({ preview, engine, used, onUse }: { preview: LoggerFilePreview; engine: BankEngineInputs; used: boolean; onUse: () => void }) {
+function LoggerPreview({
+  preview,
+  engine,
+  used,
+  onChooseColumns,
+  onUse,
+}: {
+  preview: LoggerFilePreview;
+  engine: BankEngineInputs;
+  used: boolean;
+  onChooseColumns: () => void;
+  onUse: () => void;
+}) {
   const verdict = useMemo(() => judge(engine, preview.samples), [engine, preview.samples]);
   const fitLeftOut = useMemo(
     () => (verdict.status === 'ok' ? [...leftOutRows(verdict.fit.excluded, preview.rowNumbers).entries()] : []),
@@ -314,6 +339,11 @@ function LoggerPreview({ preview, engine, used, onUse }: { preview: LoggerFilePr
               ))}
           </ul>
         </div>
+      ) : null}
+      {preview.header.columns.length > 2 ? (
+        <Button className="min-h-12 w-full" onClick={onChooseColumns} data-testid="logger-choose-columns">
+          Choose other columns
+        </Button>
       ) : null}
       <DischargeCaution compact />
       <Button variant="primary" className="min-h-14 w-full text-base" onClick={onUse} data-testid="logger-use">
