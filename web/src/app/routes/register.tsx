@@ -84,8 +84,9 @@ function WithQuery({ name, render }: { name: string; render: (value: string | un
 
 function RegisterRoutes() {
   const can = useRegisterPermissions();
-  // a technician (or admin) who opened a cabinet by its label can start a visit there
-  const startsVisits = hasAnyRole(useMe().data?.roles ?? [], ['technician', 'admin']);
+  // a technician who opened a cabinet by its label can start a visit there (and open it in My
+  // visits, which is the technicians' screen; the API lets an admin start one too)
+  const startsVisits = hasAnyRole(useMe().data?.roles ?? [], ['technician']);
   const readNote = 'You can read the register. Planners and admins keep it.';
   return (
     <Routes>
