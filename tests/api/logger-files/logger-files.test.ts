@@ -14,6 +14,7 @@ import { createApp } from '../../../api/src/app';
 import { DECAY_RUN_MAX_SAMPLES } from '../../../shared/constants/decay-runs';
 import { LOGGER_FILE_MAX_BYTES, LOGGER_FILE_MAX_LINES } from '../../../shared/constants/logger-files';
 import type { LoggerFilePreview } from '../../../shared/schemas/logger-file';
+import { seededRandom } from '../../../infra/seed/seeded-random';
 import { createCaller, type TestCaller } from '../../support/auth';
 import { countRows } from '../../support/register';
 import { LOGGER_FILES, REFUSED_LOGGER_FILES, type LoggerFileFacts } from '../../fixtures/logger-files/logger-files';
@@ -368,5 +369,52 @@ describe('who may preview, and what is kept', () => {
       expect([await countRows('audit_entries'), await countRows('outbox_messages')]).toEqual(before);
     },
     TIMEOUT,
+  );
+});
+
+describe('hostile files', () => {
+  /** A file of logger-like pieces put together at random: headers, separators, numbers, clock times, junk. */
+  function hostileFile(random: () => number): Buffer {
+    const pick = <T>(items: readonly T[]) => items[Math.floor(random() * items.length)]!;
+    const pieces = ['Time (s)', 'CH1 (V)', 'CH2 (V)', 'U [kV]', 't_s', 'v', 'Zeit [ms]', 'Timestamp', '08:15:30.5', '2024-06-11T08:15:30Z', '565,02', '-1e309', 'NaN', '1e400', '"', '""', '\u0000', '\ufeff', 'OL', '', ' ', '∞', '٣', '\ud800'];
+    const separators = [',', ';', '\t', ' ', '|'];
+    const ends = ['\n', '\r\n', '\r'];
+    if (random() < 0.3) {
+      // a decay with a piece or two put in at random places
+      const rows = Array.from({ length: 5 + Math.floor(random() * 60) }, (_, k) => `${k},${(565 * Math.exp(-k / 30)).toFixed(2)}`);
+      for (let m = Math.floor(random() * 3); m > 0; m--) rows[Math.floor(random() * rows.length)] = pick(pieces);
+      return Buffer.from([pick(['Time (s),Voltage (V)', 't_s,v', 'Time (s),CH1 (V),CH2 (V)']), ...rows].join(pick(ends)));
+    }
+    const lines: string[] = [];
+    const count = Math.floor(random() * 40);
+    for (let i = 0; i < count; i++) {
+      const cells = Array.from({ length: 1 + Math.floor(random() * 4) }, () => (random() < 0.5 ? String((random() - 0.2) * 10 ** Math.floor(random() * 8)) : pick(pieces)));
+      lines.push(cells.join(pick(separators)));
+    }
+    const text = lines.join(pick(ends));
+    if (random() < 0.15) return Buffer.from(Array.from({ length: Math.floor(random() * 300) }, () => Math.floor(random() * 256)));
+    if (random() < 0.1) return Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]);
+    return Buffer.from(text, random() < 0.1 ? 'latin1' : 'utf8');
+  }
+
+  it(
+    'when 300 files of random logger-like pieces are sent, then every answer is a 200 or a refusal in words, never a 5xx',
+    async () => {
+      const random = seededRandom(4_711);
+      const statuses = new Map<number, number>();
+      for (let i = 0; i < 300; i++) {
+        const fields: Record<string, string> = {};
+        if (random() < 0.2) fields.voltsColumn = random() < 0.5 ? String(Math.floor(random() * 6) - 1) : 'CH2 (V)';
+        if (random() < 0.1) fields.timeColumn = random() < 0.5 ? '0' : 'Timestamp';
+        const res = await send(hostileFile(random), `hostile-${i}.csv`, fields);
+        statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
+        expect(res.status, `file ${i}: ${JSON.stringify(res.body)}`).toBeLessThan(500);
+        if (res.status !== 200) expect(res.body.error.message.length).toBeGreaterThan(10);
+        else expect(res.body.samples.length).toBeGreaterThan(0);
+      }
+      // the corpus reaches more than one answer
+      expect(statuses.size).toBeGreaterThan(2);
+    },
+    120_000,
   );
 });
