@@ -172,6 +172,15 @@ function Running(
   }, [dueAt, index]);
 
   useWakeLock(!ended);
+  // after a reload the browser keeps sound off until the next tap
+  const [soundOn, setSoundOn] = useState(() => audio?.state === 'running');
+  useEffect(() => {
+    const context = audio;
+    if (!context) return;
+    const follow = () => setSoundOn(context.state === 'running');
+    context.addEventListener('statechange', follow);
+    return () => context.removeEventListener('statechange', follow);
+  }, [soundOn]);
 
   function record(event: FormEvent) {
     event.preventDefault();
@@ -224,6 +233,18 @@ function Running(
         ) : null}
       </div>
 
+      {!ended && !soundOn ? (
+        <Button
+          size="sm"
+          className="min-h-10"
+          onClick={() => {
+            unlockCue();
+            setSoundOn(true);
+          }}
+        >
+          🔔 Turn the beep on
+        </Button>
+      ) : null}
       {!ended ? (
         <>
           <div

@@ -55,7 +55,7 @@ export function SafetyGate({
   return (
     <section aria-labelledby={headingId} className="space-y-4" data-testid="safety-gate">
       <h3 id={headingId} className="text-lg font-bold text-tide-900">
-        Safety first: bank {bank.position}
+        Safety first: {bank.position}
       </h3>
       <DischargeTimes visit={visit} bank={bank} busVolts={busVolts} />
       <DischargeCaution compact />

@@ -203,7 +203,7 @@ function BankRow({
     <li className="space-y-2 py-3" data-testid={`capture-bank-${position}`}>
       <div className="flex flex-wrap items-center justify-between gap-2">
         <span className="min-w-0">
-          <span className="block text-lg font-bold text-tide-900">Bank {position}</span>
+          <span className="block text-lg font-bold text-tide-900">{position}</span>
           <span className="block text-sm text-tide-600">{bank.bankDesignCode}</span>
         </span>
         <BankStateBadge state={state} />
@@ -225,12 +225,12 @@ function BankRow({
       ) : null}
       {draft?.status === 'capturing' ? (
         <Button variant="primary" className="min-h-12 w-full text-base" onClick={onMeasure}>
-          Go on with bank {position}
+          Go on with {position}
         </Button>
       ) : draft &&
         (draft.status === 'ready' || draft.status === 'sending' || draft.status === 'refused') ? (
         <Button className="min-h-12 w-full text-base" onClick={onOpenDraft}>
-          Open the run of bank {position}
+          Open the run of {position}
         </Button>
       ) : (
         <Button
@@ -349,7 +349,7 @@ function BankCapture({
   const header = (
     <div className="mb-3 flex items-center justify-between gap-2">
       <p className="text-sm font-medium text-tide-600">
-        {visit.cabinetTag} · bank {bank.position}
+        {visit.cabinetTag} · {bank.position}
       </p>
       <Button variant="ghost" size="sm" className="min-h-10" onClick={onClose}>
         ← All banks
@@ -543,7 +543,7 @@ function ChooseMethod({
   return (
     <div className="space-y-3" data-testid="choose-method">
       <h3 className="text-lg font-bold text-tide-900">
-        How do you take the readings of bank {bankPosition}?
+        How do you take the readings of {bankPosition}?
       </h3>
       <MethodButton
         title="Guided capture now"
@@ -744,7 +744,7 @@ function SavedRun({
             ? `The server refused this run: ${draft.refusal ?? 'no reason given'} The readings stay on this phone.`
             : '✓ Saved on this phone. It is sent by itself as soon as there is a connection.'}
       </p>
-      <h3 className="text-lg font-bold text-tide-900">Verdict for bank {bank.position}</h3>
+      <h3 className="text-lg font-bold text-tide-900">Verdict for {bank.position}</h3>
       {verdict ? (
         <RunVerdict
           verdict={verdict}
@@ -794,8 +794,7 @@ export function UnsentRunsWarning({ visit }: { visit: Visit }) {
       <p className="font-bold">Are you sure?</p>
       {none.length ? (
         <p>
-          No decay run has been sent for {none.length === 1 ? 'bank' : 'banks'} {names(none)}. A
-          logged visit goes to review without
+          No decay run has been sent for {names(none)}. A logged visit goes to review without
           {none.length === 1 ? ' it' : ' them'}.
         </p>
       ) : null}
