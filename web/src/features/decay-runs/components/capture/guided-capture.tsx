@@ -84,7 +84,10 @@ function BeforeStart({
     <div className="space-y-4" data-testid="guided-before-start">
       <ol className="list-decimal space-y-1 pl-5 text-base text-tide-900">
         <li>Keep the meter on the DC-bus test points, reading DC volts.</li>
-        <li>Press Start at the very moment you isolate the drive.</li>
+        <li>
+          Press Start at the very moment the drive’s supply is switched off: the readings count from
+          then.
+        </li>
         <li>
           When the card turns yellow and the phone beeps, read the meter and type the voltage.
         </li>
@@ -242,7 +245,7 @@ function Running(
             setSoundOn(true);
           }}
         >
-          🔔 Turn the beep on
+          Turn the beep on
         </Button>
       ) : null}
       {!ended ? (
@@ -400,9 +403,8 @@ function verdictLine(fit: LiveFit): string {
   if (!verdict)
     return `τ is about ${Math.round(fit.fit!.tauSeconds)} s. The verdict comes when the bank’s figures have loaded (a connection is needed once).`;
   const text = explainVerdict(verdict, { asOfOn: todayOn() });
-  return [text.safety, text.health, verdict.status === 'ok' ? text.capacitance : null]
-    .filter(Boolean)
-    .join(' ');
+  // the safety finding first, then the health; the full verdict comes after the save
+  return [text.safety, text.health].filter(Boolean).join(' ');
 }
 
 /** The readings so far, each correctable (a dropped digit) or removable. */
