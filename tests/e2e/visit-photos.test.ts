@@ -8,19 +8,31 @@ import { signIn } from '../support/sign-in';
 
 const browser = browsersClosedAfterEach();
 
-/** One of Dario's planned demo visits, put under way as if he had started it at the cabinet. */
+/**
+ * A visit of Dario's own, under way since an hour ago at the cabinet of his first planned demo
+ * visit with its banks: stored beside the demo's visits, so the other browser tests find theirs as seeded.
+ */
 async function visitUnderWayOf(email: string): Promise<{ id: string; tag: string }> {
   const client = new pg.Client({ connectionString: inject('databaseUrl') });
   await client.connect();
   try {
-    const { rows } = await client.query<{ id: string; tag: string }>(
-      `UPDATE visits SET state = 'under-way', started_at = now(), version = version + 1
-        WHERE id = (SELECT v.id FROM visits v JOIN visit_technicians vt ON vt.visit_id = v.id JOIN users u ON u.id = vt.user_id
-                     WHERE u.email = $1 AND v.state = 'planned' ORDER BY v.planned_start_at LIMIT 1)
-        RETURNING id, (SELECT tag FROM cabinets c WHERE c.id = cabinet_id) AS tag`,
+    await client.query('BEGIN');
+    const { rows } = await client.query<{ id: string; tag: string; plannedId: string; userId: string }>(
+      `WITH first AS (
+         SELECT v.id AS planned_id, v.cabinet_id, u.id AS user_id FROM visits v
+           JOIN visit_technicians vt ON vt.visit_id = v.id JOIN users u ON u.id = vt.user_id
+          WHERE u.email = $1 AND v.state = 'planned' ORDER BY v.planned_start_at LIMIT 1)
+       INSERT INTO visits (cabinet_id, planned_start_at, planned_end_at, state, started_at, created_at, updated_at)
+       SELECT cabinet_id, now() - interval '1 hour', now() + interval '3 hours', 'under-way', now() - interval '1 hour', now(), now() FROM first
+       RETURNING id, (SELECT tag FROM cabinets c WHERE c.id = cabinet_id) AS tag,
+                 (SELECT planned_id FROM first) AS "plannedId", (SELECT user_id FROM first) AS "userId"`,
       [email],
     );
-    return rows[0]!;
+    const visit = rows[0]!;
+    await client.query('INSERT INTO visit_banks (visit_id, bank_id) SELECT $1, bank_id FROM visit_banks WHERE visit_id = $2', [visit.id, visit.plannedId]);
+    await client.query('INSERT INTO visit_technicians (visit_id, user_id) VALUES ($1, $2)', [visit.id, visit.userId]);
+    await client.query('COMMIT');
+    return { id: visit.id, tag: visit.tag };
   } finally {
     await client.end();
   }
