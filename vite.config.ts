@@ -39,6 +39,9 @@ export default defineConfig({
       },
       workbox: {
         globPatterns: ['**/*.{js,css,html,svg,png,woff2}'],
+        // the Latin letters the screens are written in; other scripts (a name in Greek or
+        // Cyrillic) load when a page needs them, and offline fall back to the phone's font
+        globIgnores: ['**/noto-sans-{cyrillic,cyrillic-ext,devanagari,greek,greek-ext,vietnamese}-*.woff2'],
         navigateFallback: '/index.html',
         navigateFallbackDenylist: [/^\/api\//, /^\/auth\//, /^\/feeds\//],
         runtimeCaching: [],

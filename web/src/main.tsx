@@ -13,7 +13,18 @@ if (!root) throw new Error('index.html has no #root element');
 
 // the service worker keeps the app shell for offline use at the cabinet; a new version takes
 // over by itself (the readings in progress are drafts in IndexedDB and survive the reload)
-if ('serviceWorker' in navigator) registerSW({ immediate: true });
+if ('serviceWorker' in navigator) {
+  const controlledAtLoad = Boolean(navigator.serviceWorker.controller);
+  registerSW({
+    // registered on the window's load event: the first screen's requests go before the precache
+    immediate: false,
+    // reload only when a new version replaced the one this page runs (its files must match);
+    // the first install, begun on the page before sign-in, changes nothing on this screen
+    onNeedReload: () => {
+      if (controlledAtLoad) window.location.reload();
+    },
+  });
+}
 
 createRoot(root).render(
   <StrictMode>

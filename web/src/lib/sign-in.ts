@@ -12,3 +12,11 @@ export function goToSignIn(returnTo?: string): void {
   leaving = true;
   window.location.assign(signInUrl(returnTo));
 }
+
+/**
+ * The person is signing out (the form is on its way): answers that now find the session gone
+ * must not send the browser to sign in again, which would cut the sign-out short.
+ */
+export function leavingToSignOut(): void {
+  leaving = true;
+}
