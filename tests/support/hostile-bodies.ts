@@ -177,7 +177,7 @@ export function toJsonText(value: unknown): string {
 export async function storedState(): Promise<Record<string, string>> {
   const { sequelize } = await import('../../api/src/db/sequelize');
   const versioned = ['sites', 'areas', 'cabinets', 'banks', 'bank_designs', 'spares', 'visits'];
-  const counted = ['bank_design_versions', 'audit_entries', 'users', 'api_tokens', 'access_events', 'visit_banks', 'visit_technicians', 'decay_runs', 'outbox_messages'];
+  const counted = ['bank_design_versions', 'audit_entries', 'users', 'api_tokens', 'access_events', 'visit_banks', 'visit_technicians', 'decay_runs', 'photos', 'outbox_messages'];
   const columns = [
     ...versioned.map(
       (t) =>
