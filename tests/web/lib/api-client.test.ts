@@ -66,3 +66,15 @@ describe('retryDelayWhileUnavailable', () => {
     expect(retryDelayWhileUnavailable(null)).toBe(false);
   });
 });
+
+describe('apiFetch: a refusal with more than its message', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('when the error carries other fields (a column question’s candidates), then they are kept as details', async () => {
+    answer(422, { error: { code: 'columns-ambiguous', message: 'Choose the voltage column.', issues: [], candidates: { columns: ['t', 'a', 'b'] } } });
+    const error = await failureOf('/api/logger-files/preview');
+    expect(error.details).toEqual({ candidates: { columns: ['t', 'a', 'b'] } });
+    answer(404, { error: { code: 'not-found', message: 'Bank was not found.' } });
+    expect((await failureOf('/api/banks/x')).details).toEqual({});
+  });
+});

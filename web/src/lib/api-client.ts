@@ -77,9 +77,17 @@ export async function apiFetch<T>(path: string, init: RequestInit = {}): Promise
         : (error?.message ?? `The server answered ${response.status}.`),
       error?.issues,
       Number.isFinite(retryAfter) && retryAfter > 0 ? retryAfter : undefined,
+      errorDetails(error),
     );
   }
   return body as T;
+}
+
+/** The fields of an API error other than its code, message and issues (e.g. `candidates`). */
+export function errorDetails(error: object | undefined): Record<string, unknown> {
+  if (!error) return {};
+  const { code: _code, message: _message, issues: _issues, ...rest } = error as Record<string, unknown>;
+  return rest;
 }
 
 function safeJson(text: string): unknown {

@@ -1,4 +1,4 @@
-import { ApiError } from './api-client';
+import { ApiError, errorDetails } from './api-client';
 
 export interface ImportUploadOptions {
   file: File;
@@ -114,11 +114,4 @@ export function uploadForm<T>(path: string, form: FormData, { csrfToken, onProgr
     };
     xhr.send(form);
   });
-}
-
-/** The fields of an API error other than its code, message and issues (e.g. `candidates`). */
-function errorDetails(error: object | undefined): Record<string, unknown> {
-  if (!error) return {};
-  const { code: _code, message: _message, issues: _issues, ...rest } = error as Record<string, unknown>;
-  return rest;
 }
