@@ -270,7 +270,7 @@ describe('At the cabinet, from sign-in to a run sent after the connection came b
     expect(console.problems).toEqual([]);
   }, 240_000);
 
-  it('when the tab is closed in the middle of a run, then a new tab opens the run where it was, readings kept', async () => {
+  it('when the tab is closed in the middle of a run, then a new tab opens the run where it was, readings kept; another tab follows it live', async () => {
     const visits = await plannedVisitsOfKofi();
     const visit = visits.at(-1)!;
     const { page, context } = await browser(PHONE_VIEWPORT);
@@ -279,7 +279,13 @@ describe('At the cabinet, from sign-in to a run sent after the connection came b
     await page.getByRole('button', { name: 'Start visit' }).click();
     await page.getByRole('heading', { name: 'At the cabinet' }).waitFor();
     const facts = await bankFacts(page, visit.id);
+    // a second tab on the same visit hears of the run as soon as it starts (no reload)
+    const other = await context.newPage();
+    await other.goto(`${inject('baseUrl')}/my-visits/${visit.id}`);
+    await other.getByTestId(`capture-bank-${facts.position}`).waitFor();
     await passSafetyGate(page, facts.position, false);
+    await other.getByTestId('bank-capture').waitFor();
+    await other.close();
     await page.getByRole('button', { name: /^Type readings from a paper sheet/ }).click();
     await page.getByTestId('paper-sheet').waitFor();
     const rows = [
