@@ -6,7 +6,8 @@
  *   a steady loss per year scaled by the cabinet's temperature (Arrhenius, the "10 K rule":
  *   ageing doubles per 10 K warmer, common practice), and for some banks a knee after which the
  *   loss speeds up (quadratic in the years past it). A few banks age fast enough to be in watch
- *   or at end of life by now. Film banks lose a few tenths of a percent a year.
+ *   or at end of life by now, never far past it (a plant replaces such a bank: the loss over its
+ *   years is capped at a fifth to a little over a quarter). Film banks lose a few tenths of a percent a year.
  * - **Bleeder faults.** Now and then a bleeder resistor drifts high or a string opens: R rises by
  *   a fifth to four fifths for a year or so, so τ = R·C rises (a safety finding) until it is fixed.
  * - **A run.** The bus starts at about its nominal voltage and discharges through the bleeder in
@@ -82,11 +83,22 @@ export function ageingPathOf(facts: BankHistoryFacts, lifeYears: number, random:
   const kneeYears = knee ? uniform(random, Math.max(3, lifeYears * 0.45), Math.max(3.5, lifeYears * 0.8)) : null;
   const faulty = random() < 0.07 && lifeYears > 3;
   const from = faulty ? uniform(random, 1.5, lifeYears - 1) : 0;
+  let lossPerYear = base * arrhenius;
+  let kneeLossPerYearSquared = knee ? uniform(random, 0.008, 0.03) : 0;
+  // a plant replaces a bank soon after end of life: over its years a bank loses at most about a
+  // fifth to a little over a quarter (a film bank a few percent), however fast it aged
+  const maxLoss = film ? uniform(random, 0.02, 0.05) : uniform(random, 0.2, 0.28);
+  const past = kneeYears === null ? 0 : Math.max(0, lifeYears - kneeYears);
+  const loss = lossPerYear * lifeYears + kneeLossPerYearSquared * past * past;
+  if (loss > maxLoss) {
+    lossPerYear *= maxLoss / loss;
+    kneeLossPerYearSquared *= maxLoss / loss;
+  }
   return {
     initialRatio,
-    lossPerYear: base * arrhenius,
+    lossPerYear,
     kneeYears,
-    kneeLossPerYearSquared: knee ? uniform(random, 0.008, 0.03) : 0,
+    kneeLossPerYearSquared,
     bleederFault: faulty ? { fromYears: from, toYears: from + uniform(random, 0.7, 1.6), rise: uniform(random, 0.2, 0.8) } : null,
   };
 }

@@ -528,7 +528,9 @@ export async function seedDecayHistory(uow: UnitOfWork<Acting>, demoAreaNames: r
         if (row.replacedOn) {
           // the original bank was replaced after its cans bulged: it aged fast towards its end
           const life = Math.max(1, yearsBetween(installMs, endMs));
-          path.lossPerYear = Math.max(path.lossPerYear, (0.17 + 0.06 * random()) / life);
+          path.lossPerYear = (0.17 + 0.06 * random()) / life;
+          path.kneeYears = null;
+          path.kneeLossPerYearSquared = 0;
         }
         return {
           row,

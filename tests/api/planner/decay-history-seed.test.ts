@@ -27,7 +27,7 @@ async function rows<T>(sql: string, bind: unknown[] = []): Promise<T[]> {
 }
 
 describe('the demo’s decay-run history', () => {
-  it('when seeded, then every demo bank in service installed over four years ago has at least 3 years of runs, 6–12 months apart, in reviewed visits', async () => {
+  it('when seeded, then every demo bank in service installed over five years ago has years of runs (at least 3), 6–12 months apart, in reviewed visits', async () => {
     console.log(`seed: ${seedSeconds.toFixed(1)} s, ${JSON.stringify(first)}`);
     expect(first.decayRuns).toBeGreaterThan(1000);
     const banks = await rows<{ id: string; installedOn: string; runs: number; firstAt: Date | null; lastAt: Date | null; maxGapDays: number | null }>(
@@ -44,7 +44,7 @@ describe('the demo’s decay-run history', () => {
     expect(old.length).toBeGreaterThan(100);
     for (const bank of old) {
       expect(bank.runs, bank.id).toBeGreaterThanOrEqual(3);
-      expect(bank.lastAt!.getTime() - bank.firstAt!.getTime(), bank.id).toBeGreaterThan(1.5 * 365 * DAY_MS);
+      expect(bank.lastAt!.getTime() - bank.firstAt!.getTime(), bank.id).toBeGreaterThan(365 * DAY_MS);
       expect(bank.maxGapDays ?? 0, bank.id).toBeLessThan(400);
     }
     const perBank = banks.map((b) => b.runs).sort((a, b) => a - b);
@@ -75,6 +75,12 @@ describe('the demo’s decay-run history', () => {
     expect(of('control-supply-phase')).toBeGreaterThan(0);
     expect(of('readings-left-out')).toBeGreaterThan(0);
     expect(of('visual-finding')).toBeGreaterThan(0);
+    // judged against a baseline they can be compared with: few runs outside what ageing explains
+    // (a bleeder fault raising τ by over a third is one)
+    const [judged] = await rows<{ implausible: number; all: number }>(
+      `SELECT count(*) FILTER (WHERE verdict->>'notJudgedBecause' = 'implausible-ratio')::int AS implausible, count(*)::int AS "all" FROM decay_runs`,
+    );
+    expect(judged!.implausible).toBeLessThan(judged!.all * 0.03);
     const latest = await rows<{ health: string; n: number }>(
       `SELECT health, count(*)::int AS n FROM (
          SELECT DISTINCT ON (r.bank_id) r.health FROM decay_runs r JOIN banks b ON b.id = r.bank_id
