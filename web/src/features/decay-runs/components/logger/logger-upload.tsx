@@ -80,12 +80,12 @@ export function LoggerUpload({ engine, onUse }: LoggerUploadProps) {
   const [chosen, setChosen] = useState<{ time: string; volts: string } | undefined>(undefined);
   const [usedFile, setUsedFile] = useState<string | null>(null);
 
-  function send(chosen: File, columns: Pick<LoggerFileUpload, 'timeColumn' | 'voltsColumn'> = {}) {
+  function send(toSend: File, columns: Pick<LoggerFileUpload, 'timeColumn' | 'voltsColumn'> = {}) {
     setProgress(0);
     setPreview(null);
     setUsedFile(null);
     upload.mutate(
-      { file: chosen, ...columns, onProgress: setProgress },
+      { file: toSend, ...columns, onProgress: setProgress },
       {
         onSuccess: (result) => {
           setCandidates(null);
