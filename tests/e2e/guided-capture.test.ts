@@ -14,8 +14,11 @@ interface PlannedVisit {
   tag: string;
 }
 
-/** The technician's latest planned visit in the coming weeks (the demo plans several), read from the database. */
-async function lastPlannedVisitOf(email: string): Promise<PlannedVisit> {
+/**
+ * One of the technician's planned visits, latest first (`skip` 0 is the latest), read from the
+ * database: the latest are furthest out, away from the visits other tests look at.
+ */
+async function lastPlannedVisitOf(email: string, skip = 0): Promise<PlannedVisit> {
   const client = new pg.Client({ connectionString: inject('databaseUrl') });
   await client.connect();
   try {
@@ -24,8 +27,8 @@ async function lastPlannedVisitOf(email: string): Promise<PlannedVisit> {
          FROM visits v JOIN visit_technicians vt ON vt.visit_id = v.id JOIN users u ON u.id = vt.user_id
          JOIN cabinets c ON c.id = v.cabinet_id
         WHERE u.email = $1 AND v.state = 'planned' AND v.planned_end_at > now()
-        ORDER BY v.planned_start_at DESC LIMIT 1`,
-      [email],
+        ORDER BY v.planned_start_at DESC LIMIT 1 OFFSET $2`,
+      [email, skip],
     );
     expect(rows).toHaveLength(1);
     return rows[0]!;
@@ -68,13 +71,20 @@ describe('Guided capture at the cabinet (technician, phone)', () => {
       };
       return {
         position: bank.position,
-        tauSeconds: bank.lastTauSeconds ?? bank.baselineTauSeconds,
+        expectedTauSeconds: bank.lastTauSeconds ?? bank.baselineTauSeconds,
+        baselineTauSeconds: bank.baselineTauSeconds,
         busVolts: record.cabinetDcBusVolts,
         bankCount: v.banks.length,
       };
     }, visit.id);
     const v0 = facts.busVolts ?? 560;
-    const tau = facts.tauSeconds;
+    // the prompts come from the bank's expected τ (its last accepted run); the bank on the day
+    // discharges with its baseline τ, as a bank that has not aged since its baseline does
+    const tau = facts.baselineTauSeconds;
+    const schedule = captureScheduleSeconds(facts.expectedTauSeconds);
+    // past the schedule's end the prompts go on at its last spacing, as on the phone
+    const lastGap = schedule.at(-1)! - schedule.at(-2)!;
+    while (schedule.at(-1)! < 6 * tau) schedule.push(schedule.at(-1)! + lastGap);
 
     await page.getByRole('button', { name: `Measure bank ${facts.position}` }).click();
     // the gate: the marked wait, the estimate, the caution, and Continue only when all four are ticked
@@ -107,7 +117,7 @@ describe('Guided capture at the cabinet (technician, phone)', () => {
     let elapsedMs = 0;
     let typed = 0;
     let sawTrustworthy = false;
-    for (const t of captureScheduleSeconds(tau)) {
+    for (const t of schedule) {
       // a prompt that passed while the page reloaded is left out, as a technician would miss it
       if (t * 1000 <= elapsedMs) continue;
       await page.clock.fastForward(t * 1000 - elapsedMs);
@@ -205,6 +215,77 @@ describe('Guided capture at the cabinet (technician, phone)', () => {
     await screenshot(page, 'capture-mark-logged-phone');
     expect(console.problems).toEqual([]);
   }, 240_000);
+
+  it('when readings are typed from a paper sheet and a bulged can is noted, then the verdict is end of life with a safety finding', async () => {
+    const visit = await lastPlannedVisitOf('lucia@brackenmoor.example', 1);
+    const { page } = await browser(PHONE_VIEWPORT);
+    const console = watchConsole(page);
+    await signIn(page, 'lucia', 'tidewater-tech', { returnTo: `/my-visits/${visit.id}` });
+    await page.getByRole('heading', { name: visit.tag }).waitFor();
+    await page.getByRole('button', { name: 'Start visit' }).click();
+    await page.getByRole('heading', { name: 'At the cabinet' }).waitFor();
+    await page
+      .getByRole('button', { name: /^Measure bank / })
+      .first()
+      .click();
+    for (const check of GATE) await page.getByRole('checkbox', { name: check.sentence }).check();
+    await page.getByRole('button', { name: 'Continue to the readings' }).click();
+    await page.getByTestId('choose-method').waitFor();
+    await screenshot(page, 'capture-method-phone');
+    await page.getByRole('button', { name: /^Type readings from a paper sheet/ }).click();
+
+    // a sheet kept at the cabinet: m:ss and comma decimals, as people write them
+    const sheet = [
+      ['0:10', '505'],
+      ['0:30', '441'],
+      ['1:00', '360,5'],
+      ['1:30', '294'],
+      ['2:00', '240'],
+      ['3:00', '160'],
+      ['4:00', '107'],
+    ];
+    for (const [i, [time, volts]] of sheet.entries()) {
+      await page
+        .getByRole('textbox', { name: `Row ${i + 1}: time since isolation, seconds` })
+        .fill(time!);
+      await page.getByRole('textbox', { name: `Row ${i + 1}: DC-bus voltage, volts` }).fill(volts!);
+    }
+    await page.getByTestId('paper-sheet').getByTestId('decay-plot').waitFor();
+    await screenshot(page, 'capture-paper-sheet-phone');
+    await page.getByRole('button', { name: 'Use these readings' }).click();
+
+    const finish = page.getByTestId('capture-finish');
+    await finish.waitFor();
+    await page.getByRole('button', { name: 'Bulged can' }).click();
+    await eventually(() =>
+      page.getByRole('button', { name: 'Bulged can' }).getAttribute('aria-pressed'),
+    ).toBe('true');
+    await eventually(() => page.getByTestId('visual-finding-note').textContent()).toContain(
+      'end of life',
+    );
+    const save = page.getByRole('button', { name: 'Save the run' });
+    // absence of voltage is confirmed before the run can be saved
+    expect(await save.isDisabled()).toBe(true);
+    await page.getByRole('checkbox', { name: ABSENCE.sentence }).check();
+    await screenshot(page, 'capture-visual-finding-phone');
+    await save.click();
+
+    await page.getByTestId('run-verdict').waitFor();
+    await eventually(() => page.getByTestId('run-verdict').textContent()).toMatch(
+      /End of life.*A bulged can was seen/,
+    );
+    await eventually(() => page.getByTestId('saved-run-status').getAttribute('data-status')).toBe(
+      'sent',
+    );
+    await page.getByRole('button', { name: 'Back to the banks' }).click();
+    await eventually(() => page.getByTestId('capture-banks').textContent()).toContain(
+      'sent: end of life',
+    );
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      390,
+    );
+    expect(console.problems).toEqual([]);
+  }, 180_000);
 });
 
 /** m:ss, as the capture's clock shows it. */
