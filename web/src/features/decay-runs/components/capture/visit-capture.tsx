@@ -642,7 +642,13 @@ function Finish({
   return (
     <div className="space-y-5" data-testid="capture-finish">
       {askAbsence ? (
-        <BigCheck label={ABSENCE_CHECK.sentence} checked={absence} onChange={onAbsence} />
+        <div className="space-y-2">
+          <p className="text-base text-tide-900">
+            Before you touch anything, verify absence of voltage with the meter: test it on a known
+            source, measure, test it again.
+          </p>
+          <BigCheck label={ABSENCE_CHECK.sentence} checked={absence} onChange={onAbsence} />
+        </div>
       ) : null}
       <ObservationsForm
         initial={observations}
