@@ -3,7 +3,7 @@
  * shows in its bank's history, opens its page with the verdict in plain sentences, and a
  * correction with a reason makes version 2 with both versions visible. At 390 px and on a desktop.
  */
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import type { AuthUser } from '../../api/src/types/express';
 import type { Role } from '../../shared/constants/roles';
@@ -98,6 +98,11 @@ async function postFromPage(
   );
 }
 
+/** A locator's text with non-breaking spaces (kept between a figure and its unit) read as spaces. */
+function textOf(locator: Locator): () => Promise<string> {
+  return async () => ((await locator.textContent()) ?? '').replace(/\u00a0/g, ' ');
+}
+
 async function noSidewaysScroll(page: Page, width: number) {
   expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
     width,
@@ -139,20 +144,20 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     await row.getByRole('link').first().click();
     await page.waitForURL((url) => url.pathname === `/runs/${run.id}`);
     const detail = page.getByTestId('run-detail');
-    await eventually(() => detail.getByTestId('verdict-health-word').textContent()).toBe('Healthy');
+    await eventually(textOf(detail.getByTestId('verdict-health-word'))).toBe('Healthy');
     // DOMAIN.md: after 1 τ 36.8 % remains ("about a third"); 329.8 s / 60 = 5.5 minutes
-    await eventually(() => detail.getByTestId('verdict-tau-sentence').textContent()).toMatch(
+    await eventually(textOf(detail.getByTestId('verdict-tau-sentence'))).toMatch(
       /^The voltage fell to about a third every 5\.5 minutes \(τ = 330 s, /,
     );
     // C = 329.8 s / (47 kΩ ∥ 10 MΩ) = 7050 µF at 28 °C; at 20 °C with +0.25 %/K: 7050 / 1.02 = 6,910 µF, 98 % of 7,050 µF
-    await eventually(() =>
-      detail.getByTestId('verdict-capacitance-sentence').textContent(),
-    ).toMatch(/^The bank holds 6,910 µF \(corrected to 20 °C\), 98 % of the nameplate's 7,050 µF/);
+    await eventually(textOf(detail.getByTestId('verdict-capacitance-sentence'))).toMatch(
+      /^The bank holds 6,910 µF \(corrected to 20 °C\), 98 % of the nameplate's 7,050 µF/,
+    );
     // bus τ = 7050 µF × 47 kΩ = 331 s; 540 V → 50 V: 331 × ln(10.8) = 788 s → 14 minutes (rounded up), under the marked 15
-    await eventually(() => detail.getByTestId('verdict-safe-after').textContent()).toContain(
+    await eventually(textOf(detail.getByTestId('verdict-safe-after'))).toContain(
       "Approach the DC bus no sooner than 15 minutes after isolation, the cabinet's marked wait (this run says it falls below 50 V within 14 minutes)",
     );
-    await eventually(() => detail.getByTestId('verdict-next-step').textContent()).toMatch(
+    await eventually(textOf(detail.getByTestId('verdict-next-step'))).toMatch(
       /No action now: check this bank again by /,
     );
     await detail.getByTestId('discharge-caution').waitFor();
@@ -177,13 +182,21 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     await form.getByLabel('Why is this run corrected?').fill(reason);
     await form.getByLabel('Row 3: DC-bus voltage, volts').fill('300');
     await screenshot(page, 'run-correction-phone');
+    const seen: string[] = [];
+    page.on('framenavigated', (frame) => seen.push(`navigated ${frame.url()}`));
+    page.on('request', (request) => seen.push(`${request.method()} ${request.url()}`));
+    page.on('response', (response) => seen.push(`${response.status()} ${response.url()}`));
     await form.getByRole('button', { name: 'Store as version 2' }).click();
 
     // version 2 opens, says what it corrects, and lists both versions
     await page
       .locator('[data-testid="run-correction-reason"], [data-testid="correction-error"]')
       .first()
-      .waitFor();
+      .waitFor()
+      .catch(async (error: unknown) => {
+        await screenshot(page, 'run-correction-stuck-phone');
+        throw new Error(`${String(error)}\n${seen.join('\n')}\n${console.problems.join('\n')}`);
+      });
     expect(
       await form.getByTestId('correction-error').count(),
       (await form.getByTestId('correction-error').allTextContents()).join(),
@@ -247,8 +260,8 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     await history.getByRole('link').first().click();
     await page.waitForURL((url) => url.pathname === `/runs/${run.id}`);
     const detail = page.getByTestId('run-detail');
-    await eventually(() => detail.getByTestId('verdict-health-word').textContent()).toBe('Healthy');
-    await eventually(() => detail.getByTestId('verdict-tau-sentence').textContent()).toMatch(
+    await eventually(textOf(detail.getByTestId('verdict-health-word'))).toBe('Healthy');
+    await eventually(textOf(detail.getByTestId('verdict-tau-sentence'))).toMatch(
       /^The voltage fell to about a third every 5\.5 minutes/,
     );
     // a reliability engineer may correct a run too

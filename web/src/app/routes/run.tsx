@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { useNavigate, useParams } from 'react-router';
 import { ErrorPanel } from '../../components/ui/error-panel';
 import { Spinner } from '../../components/ui/spinner';
@@ -11,6 +12,10 @@ export function Component() {
   const navigate = useNavigate();
   const me = useMe();
   const run = useDecayRun(runId);
+  // another version opens at its top (the correction was stored from the bottom of the page)
+  useEffect(() => {
+    window.scrollTo(0, 0);
+  }, [runId]);
   return (
     <div className="mx-auto max-w-3xl">
       {run.isPending ? (

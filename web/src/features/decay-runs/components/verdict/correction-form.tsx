@@ -104,10 +104,14 @@ export function CorrectionForm({
       observations,
       reason: reason.trim(),
     };
-    correct.mutate(
-      { runId: run.id, correction: { clientId: clientIdFor(body), ...body } },
-      { onSuccess: (next) => onCorrected?.(next) },
-    );
+    // the promise, not mutate's callbacks: the old version's refetch (now corrected) may unmount
+    // this form before they would run, and the new version must still open
+    correct
+      .mutateAsync({ runId: run.id, correction: { clientId: clientIdFor(body), ...body } })
+      .then(
+        (next) => onCorrected?.(next),
+        () => undefined, // shown from correct.error
+      );
   }
 
   const error = correct.error;

@@ -273,7 +273,7 @@ export function RunDetail({
         </p>
       ) : null}
 
-      {mayCorrectRun(run, viewer) && !stored ? (
+      {(mayCorrectRun(run, viewer) || correcting) && !stored ? (
         correcting ? (
           <Card title={`Correct version ${run.version}`}>
             <CorrectionForm

@@ -111,10 +111,18 @@ export function HealthMark({ look, size = 20 }: { look: VerdictLook; size?: numb
   }
 }
 
+/** A sentence whose figures stay on one line with their units ("50 V", "15 minutes"). */
+function keepUnits(sentence: string): string {
+  return sentence.replace(
+    /(\d) (?=(?:V|s|µF|%|°C|kΩ|MΩ|minutes?|seconds?|hours?)(?![A-Za-z]))/g,
+    '$1\u00a0',
+  );
+}
+
 /** A sentence without its lead word ("Healthy: ", "Safety: ") where a heading above already says it. */
 function withoutLead(sentence: string): string {
   const body = sentence.replace(/^(Healthy|Watch|End of life|Not judged|Safety): /, '');
-  return body.charAt(0).toUpperCase() + body.slice(1);
+  return keepUnits(body.charAt(0).toUpperCase() + body.slice(1));
 }
 
 function Part({
@@ -192,7 +200,7 @@ export function RunVerdict({
       ) : null}
 
       <Part title="What to do next" testId="verdict-next-step" tone="next">
-        <p className="font-medium">{text.nextStep}</p>
+        <p className="font-medium">{keepUnits(text.nextStep)}</p>
       </Part>
 
       <Part title="When the DC bus may be approached" testId="verdict-safe-after">
@@ -204,13 +212,13 @@ export function RunVerdict({
             </span>
           </p>
         ) : null}
-        <p>{text.safeAfter}</p>
+        <p>{keepUnits(text.safeAfter)}</p>
       </Part>
 
       <Part title="What the readings say" testId="verdict-readings">
-        <p data-testid="verdict-tau-sentence">{text.tau}</p>
+        <p data-testid="verdict-tau-sentence">{keepUnits(text.tau)}</p>
         {text.capacitance ? (
-          <p data-testid="verdict-capacitance-sentence">{text.capacitance}</p>
+          <p data-testid="verdict-capacitance-sentence">{keepUnits(text.capacitance)}</p>
         ) : null}
         {ok ? (
           <div className="pt-1">
