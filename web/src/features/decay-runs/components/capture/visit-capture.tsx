@@ -68,6 +68,14 @@ function loadStep(draft: RunDraft): StepState {
   return { step: 'method', ended: false };
 }
 
+function forgetStep(clientId: string): void {
+  try {
+    localStorage.removeItem(STEP_KEY(clientId));
+  } catch {
+    // nothing kept
+  }
+}
+
 function saveStep(clientId: string, state: StepState): void {
   try {
     localStorage.setItem(STEP_KEY(clientId), JSON.stringify(state));
@@ -734,6 +742,10 @@ function SavedRun({
     [engine, samples, body.observations],
   );
   const verdict = draft.run?.verdict ?? local;
+  // once the server has the run, where its capture stood is of no more use on this phone
+  useEffect(() => {
+    if (draft.status === 'sent') forgetStep(draft.clientId);
+  }, [draft.status, draft.clientId]);
   const fit = verdict?.status === 'ok' ? verdict.fit : null;
   const plotted = useMemo(() => liveFit(samples, null).plotted, [samples]);
   return (
