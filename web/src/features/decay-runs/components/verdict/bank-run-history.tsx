@@ -48,13 +48,13 @@ function HistoryRow({ run }: { run: DecayRun }) {
           </span>
         ) : null}
       </td>
-      <td className="py-2 pr-2 tabular-nums">
+      <td className="whitespace-nowrap py-2 pr-2 tabular-nums">
         {run.tauSeconds !== null ? `${formatFigure(run.tauSeconds)} s` : '—'}
       </td>
-      <td className="py-2 pr-2 tabular-nums">
+      <td className="whitespace-nowrap py-2 pr-2 tabular-nums">
         {run.capacitanceRatio !== null ? formatPercentFigure(run.capacitanceRatio) : '—'}
       </td>
-      <td className="py-2 pr-2">
+      <td className="whitespace-nowrap py-2 pr-2">
         <span className="inline-flex items-center gap-1">
           <HealthMark look={look} size={16} />
           <span>{verdictWord(look).toLowerCase()}</span>
@@ -62,9 +62,13 @@ function HistoryRow({ run }: { run: DecayRun }) {
         {run.safetyFinding ? (
           <span className="block text-xs font-bold text-eol-600">⚠ safety</span>
         ) : null}
+        {/* on a phone the review sits under the health, so the table fits the width */}
+        <span className="mt-1 block sm:hidden">
+          <ReviewBadge state={run.review.state} short />
+        </span>
       </td>
-      <td className="py-2">
-        <ReviewBadge state={run.review.state} short />
+      <td className="hidden py-2 sm:table-cell">
+        <ReviewBadge state={run.review.state} />
       </td>
     </tr>
   );
@@ -109,9 +113,9 @@ export function BankRunHistory({ bankId }: { bankId: string }) {
                     Of baseline
                   </th>
                   <th scope="col" className="pb-1 pr-2">
-                    Health
+                    Health<span className="sm:hidden"> · review</span>
                   </th>
-                  <th scope="col" className="pb-1">
+                  <th scope="col" className="hidden pb-1 sm:table-cell">
                     Review
                   </th>
                 </tr>
