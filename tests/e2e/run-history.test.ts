@@ -238,6 +238,69 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     expect(console.problems).toEqual([]);
   });
 
+  it('when Ines queries a run of a logged visit, then Dario sees her comment on his visit at 390 px and corrects the run there', async () => {
+    const { visitId, bankId } = await visitUnderWay();
+    const phone = await browser(PHONE_VIEWPORT);
+    const console = watchConsole(phone.page);
+    await signIn(phone.page, 'dario', 'tidewater-tech', { returnTo: '/my-visits' });
+    const sent = await postFromPage(
+      phone.page,
+      `/api/visits/${visitId}/decay-runs`,
+      validRunInput(bankId),
+    );
+    expect(sent.status).toBe(201);
+    const run = sent.body as DecayRun;
+    const visit = (await phone.page.evaluate(
+      async (id) =>
+        (await fetch(`/api/visits/${id}`, { headers: { Accept: 'application/json' } })).json(),
+      visitId,
+    )) as { version: number };
+    const logged = await postFromPage(phone.page, `/api/visits/${visitId}/transitions`, {
+      action: 'log',
+      version: visit.version,
+    });
+    expect(logged.status).toBe(200);
+
+    const reviewer = await browser(DESKTOP_VIEWPORT);
+    await signIn(reviewer.page, 'ines', 'tidewater-rel', { returnTo: '/review' });
+    const comment = 'The readings stop at 200 V: the last rows are missing from the sheet.';
+    const queried = await postFromPage(reviewer.page, `/api/decay-runs/${run.id}/review`, {
+      outcome: 'queried',
+      comment,
+    });
+    expect(queried.status).toBe(200);
+
+    await phone.page.goto(`${inject('baseUrl')}/my-visits/${visitId}`);
+    const runs = phone.page.getByTestId('visit-runs');
+    const item = runs
+      .getByTestId('visit-run')
+      .filter({ has: phone.page.getByTestId('run-review-comment') });
+    await eventually(() => item.getByTestId('run-review-comment').textContent()).toBe(comment);
+    await eventually(() => runs.getByTestId('visit-runs-queried').textContent()).toContain(
+      'One run is queried',
+    );
+    await noSidewaysScroll(phone.page, 390);
+    await screenshot(phone.page, 'visit-runs-queried-phone');
+
+    await item.getByRole('button', { name: 'Correct this run' }).click();
+    const form = item.getByTestId('correction-form');
+    await form
+      .getByLabel('Why is this run corrected?')
+      .fill('Added the last rows from the back of the sheet.');
+    await form.getByLabel(/^Row 21: time since isolation/).fill('1700');
+    await form.getByLabel('Row 21: DC-bus voltage, volts').fill('3.1');
+    await form.getByRole('button', { name: 'Store as version 2' }).click();
+    // the list shows the current version: version 2, waiting for review again
+    const current = runs.getByTestId('visit-run').filter({ hasText: 'version 2' });
+    await eventually(() => current.getAttribute('data-review')).toBe('pending');
+    await eventually(() => runs.getByTestId('visit-run').count()).toBe(1);
+    await eventually(() => current.getByTestId('visit-run-correction').textContent()).toBe(
+      'Corrects version 1: Added the last rows from the back of the sheet.',
+    );
+    await screenshot(phone.page, 'visit-runs-corrected-phone');
+    expect(console.problems).toEqual([]);
+  });
+
   it('when Ines opens a stored run on a desktop, then the same plain sentences read and a reliability engineer may correct it', async () => {
     const { visitId, bankId } = await visitUnderWay();
     // the technician's phone sent the run

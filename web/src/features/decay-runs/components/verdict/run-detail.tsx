@@ -45,7 +45,9 @@ export function ReviewBadge({
   const sign = state === 'accepted' ? '✓ ' : state === 'queried' ? '? ' : '○ ';
   return (
     <Badge tone={REVIEW_TONE[state]}>
-      <span aria-hidden="true">{sign}</span>
+      <span aria-hidden="true" className="mr-1">
+        {sign.trim()}
+      </span>
       <span className="whitespace-nowrap">
         {short && state === 'pending' ? 'waiting' : REVIEW_STATE_LABELS[state]}
       </span>

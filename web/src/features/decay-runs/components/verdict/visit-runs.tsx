@@ -59,6 +59,11 @@ function VisitRun({
           <span className="text-sm font-bold text-eol-600">⚠ safety finding</span>
         ) : null}
       </p>
+      {run.supersedesId && run.correctionReason ? (
+        <p className="mt-2 text-sm text-tide-800" data-testid="visit-run-correction">
+          Corrects version {run.version - 1}: {run.correctionReason}
+        </p>
+      ) : null}
       {run.review.state !== 'pending' ? (
         <div className="mt-3">
           <ReviewNote run={run} />
