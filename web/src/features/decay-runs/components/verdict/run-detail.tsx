@@ -363,14 +363,7 @@ export function RunDetail({
       <Card title="Safety checklist">
         <ul className="space-y-1.5 text-sm text-tide-950" data-testid="run-safety-record">
           {SAFETY_CHECKS.map((check) =>
-            safety[check.key] ? (
-              <Yes key={check.key}>
-                {check.sentence}
-                {check.when === 'end' ? (
-                  <span className="text-tide-600"> (after the last reading)</span>
-                ) : null}
-              </Yes>
-            ) : null,
+            safety[check.key] ? <Yes key={check.key}>{check.sentence}</Yes> : null,
           )}
         </ul>
         <p className="mt-2 text-sm text-tide-800">
