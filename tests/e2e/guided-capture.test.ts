@@ -182,7 +182,7 @@ describe('Guided capture at the cabinet (technician, phone)', () => {
 
     await page.getByTestId('observations-form').waitFor();
     await page.getByRole('textbox', { name: 'Bank temperature' }).fill('31');
-    await page.getByRole('textbox', { name: 'Meter used' }).fill('Fluke 87V');
+    await page.getByRole('textbox', { name: 'Meter used' }).fill('Corrand DM-40');
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
       390,
     );

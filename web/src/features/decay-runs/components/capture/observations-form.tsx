@@ -186,7 +186,7 @@ export function ObservationsForm({
             onChange={(e) => set({ measuredBleederKilohms: e.target.value })}
           />
         </Field>
-        <Field id={`${id}-meter`} label="Meter used" hint="Make and model, e.g. Fluke 87V.">
+        <Field id={`${id}-meter`} label="Meter used" hint="Make and model, e.g. Corrand DM-40.">
           <TextInput
             id={`${id}-meter`}
             className="min-h-12"

@@ -191,7 +191,7 @@ export function VisitCapture({ visit, viewer }: { visit: Visit; viewer: CaptureV
           </ul>
         </Card>
       )}
-      {!openState ? <VisitRuns visitId={visit.id} /> : null}
+      {!openState ? <VisitRuns visitId={visit.id} viewer={viewer} /> : null}
     </section>
   );
 }
