@@ -86,7 +86,8 @@ function RegisterRoutes() {
   const can = useRegisterPermissions();
   // a technician who opened a cabinet by its label can start a visit there (and open it in My
   // visits, which is the technicians' screen; the API lets an admin start one too)
-  const startsVisits = hasAnyRole(useMe().data?.roles ?? [], ['technician']);
+  const me = useMe().data;
+  const startsVisits = hasAnyRole(me?.roles ?? [], ['technician']);
   const readNote = 'You can read the register. Planners and admins keep it.';
   return (
     <Routes>
@@ -94,7 +95,7 @@ function RegisterRoutes() {
       <Route path="cabinets" element={<ListScreen note={readNote}><CabinetList /></ListScreen>} />
       <Route path="cabinets/new" element={<EditorsOnly allowed={can.editRegister}><WithQuery name="areaId" render={(areaId) => <CabinetNewScreen areaId={areaId} />} /></EditorsOnly>} />
       <Route path="cabinets/import" element={<CabinetImportScreen />} />
-      <Route path="cabinets/:cabinetId" element={<WithParam name="cabinetId" render={(id) => <CabinetPage cabinetId={id} atTheCabinet={startsVisits ? (c) => <StartAtCabinet key={c.id} cabinetId={c.id} cabinetTag={c.tag} /> : undefined} />} />} />
+      <Route path="cabinets/:cabinetId" element={<WithParam name="cabinetId" render={(id) => <CabinetPage cabinetId={id} viewerId={me?.id} atTheCabinet={startsVisits ? (c) => <StartAtCabinet key={c.id} cabinetId={c.id} cabinetTag={c.tag} /> : undefined} />} />} />
       <Route path="cabinets/:cabinetId/edit" element={<EditorsOnly allowed={can.editRegister}><WithParam name="cabinetId" render={(id) => <CabinetEditScreen cabinetId={id} />} /></EditorsOnly>} />
       <Route path="cabinets/:cabinetId/label" element={<WithParam name="cabinetId" render={(id) => <CabinetLabelScreen cabinetId={id} />} />} />
 

@@ -17,7 +17,7 @@ import { ACTION_BUTTON_TEXT, isAssigned, nextActionFor, type MyVisitAction, type
 import { visitTimeText, durationText } from '../utils/visit-times';
 import { windowOfVisit } from '../utils/visit-window';
 import { WindowLine } from './visit-card';
-import { VisitStateBadge } from './visit-state-badge';
+import { VisitStateBadge } from '../../../components/ui/visit-state-badge';
 
 const DAY_MS = 86_400_000;
 

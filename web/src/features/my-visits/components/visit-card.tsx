@@ -3,7 +3,7 @@ import { Badge } from '../../../components/ui/badge';
 import type { Visit } from '../../../../../shared/schemas/visit';
 import type { VisitWindow } from '../utils/visit-window';
 import { clockSpanText, dayText, durationText, spanText } from '../utils/visit-times';
-import { VisitStateBadge } from './visit-state-badge';
+import { VisitStateBadge } from '../../../components/ui/visit-state-badge';
 
 /** The banks of a visit in a few words: "DC1, DC2, DC3" or "DC1, DC2 and 4 more". */
 export function banksText(banks: Visit['banks']): string {

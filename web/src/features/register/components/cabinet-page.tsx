@@ -1,6 +1,5 @@
 import type { ReactNode } from 'react';
 import { useNavigate } from 'react-router';
-import { DischargeCaution } from '../../../components/ui/discharge-caution';
 import type { Cabinet } from '../../../../../shared/schemas/cabinet';
 import { Badge } from '../../../components/ui/badge';
 import { ButtonLink } from '../../../components/ui/button';
@@ -9,6 +8,7 @@ import { DetailList } from '../../../components/ui/detail-list';
 import { formatCalendarDate, formatKilowatts, formatVolts } from '../../../lib/units';
 import { cabinetsApi } from '../api/cabinets';
 import { AuditTrail } from './audit-trail';
+import { CabinetVisits } from './cabinet-visits';
 import { BankTable } from './bank-table';
 import { CabinetForm } from './cabinet-form';
 import { useRegisterPermissions } from './permissions';
@@ -26,7 +26,16 @@ function MarkedWait({ minutes }: { minutes: number | null }) {
  * `atTheCabinet` is shown first, under the tag (what a technician who scanned the label can do
  * there), composed by the app.
  */
-export function CabinetPage({ cabinetId, atTheCabinet }: { cabinetId: string; atTheCabinet?: (cabinet: Cabinet) => ReactNode }) {
+export function CabinetPage({
+  cabinetId,
+  atTheCabinet,
+  viewerId,
+}: {
+  cabinetId: string;
+  atTheCabinet?: (cabinet: Cabinet) => ReactNode;
+  /** The person looking: their own visits open on My visits. */
+  viewerId?: string;
+}) {
   const can = useRegisterPermissions();
   const cabinet = cabinetsApi.useDetail(cabinetId);
   const audit = cabinetsApi.useAudit(cabinetId);
@@ -84,13 +93,8 @@ export function CabinetPage({ cabinetId, atTheCabinet }: { cabinetId: string; at
             ]}
           />
         </Card>
-        <Card title="Visits and photos">
-          <p className="text-sm text-tide-800">
-            No visits recorded yet. Once the Planner schedules visits to this cabinet, their decay runs, photos and notes show here.
-          </p>
-          <div className="mt-3">
-            <DischargeCaution compact />
-          </div>
+        <Card title="Visits">
+          <CabinetVisits cabinetId={c.id} viewerId={viewerId} />
         </Card>
       </div>
       <Card title="Shutdown windows">

@@ -1,5 +1,5 @@
-import { VISIT_STATE_LABELS, type VisitState } from '../../../../../shared/domain/visit-states';
-import { Badge } from '../../../components/ui/badge';
+import { VISIT_STATE_LABELS, type VisitState } from '../../../../shared/domain/visit-states';
+import { Badge } from './badge';
 
 const TONE: Record<VisitState, 'tide' | 'spark' | 'ok' | 'danger' | 'muted'> = {
   planned: 'tide',
