@@ -32,36 +32,10 @@ export function uploadImportFile<T>(
   paths: ImportUploadPaths,
   { file, mode, csrfToken, confirmed, onProgress }: ImportUploadOptions,
 ): Promise<T> {
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', mode === 'preview' ? paths.preview : paths.commit);
-    xhr.setRequestHeader('Accept', 'application/json');
-    if (csrfToken) xhr.setRequestHeader('X-CSRF-Token', csrfToken);
-    xhr.withCredentials = true;
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable) onProgress?.(e.loaded / e.total);
-    };
-    xhr.onerror = () => reject(new ApiError(0, 'network', 'Ebbline cannot reach its server. Check the connection and try again.'));
-    xhr.onload = () => {
-      let body: unknown;
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        body = undefined;
-      }
-      if (xhr.status >= 200 && xhr.status < 300) {
-        onProgress?.(1);
-        resolve(body as T);
-        return;
-      }
-      const error = (body as { error?: { code?: string; message?: string; issues?: Array<{ path: string; message: string }> } })?.error;
-      reject(new ApiError(xhr.status, error?.code ?? `http-${xhr.status}`, error?.message ?? `The server answered ${xhr.status}.`, error?.issues));
-    };
-    const form = new FormData();
-    if (confirmed) form.append('confirmed', 'true');
-    form.append('file', file);
-    xhr.send(form);
-  });
+  const form = new FormData();
+  if (confirmed) form.append('confirmed', 'true');
+  form.append('file', file);
+  return uploadForm<T>(mode === 'preview' ? paths.preview : paths.commit, form, { csrfToken, onProgress });
 }
 
 /** How a form upload is sent: the session's CSRF token and a progress callback. */
