@@ -37,7 +37,7 @@ import type { Actor as Acting, UnitOfWork } from '../../api/src/services/unit-of
 import type { AuthUser } from '../../api/src/types/express';
 import type { CapacitorTechnology } from '../../shared/constants/health';
 import type { BaselineSource } from '../../shared/constants/register';
-import { bankEngineInputs } from '../../shared/domain/bank-engine-inputs';
+import { bankEngineInputs, type DesignRevisionFigures } from '../../shared/domain/bank-engine-inputs';
 import type { RecordedRunVerdict } from '../../shared/domain/recorded-run';
 import {
   instantOfLocalWallTime,
@@ -105,7 +105,8 @@ interface AreaRow {
   timeZone: string;
 }
 
-interface BankRow {
+/** A bank as the seed reads it, with its design revision's figures. */
+interface BankRow extends DesignRevisionFigures {
   id: string;
   cabinetId: string;
   tag: string;
@@ -124,13 +125,6 @@ interface BankRow {
   baselineNote: string;
   designCode: string;
   technology: CapacitorTechnology;
-  unitCapacitanceMicrofarads: number;
-  seriesCount: number;
-  parallelCount: number;
-  bleederOhms: number;
-  tempCoefficientPercentPerKelvin: number;
-  watchRatio: number;
-  endOfLifeRatio: number;
   dcBusVolts: number | null;
   markedWaitMinutes: number | null;
 }
