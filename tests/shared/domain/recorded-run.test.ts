@@ -8,19 +8,11 @@ import {
 import { judgeDecayRun } from '../../../shared/domain/verdict';
 import type { BankEngineInputs } from '../../../shared/domain/bank-engine-inputs';
 import { VISUAL_FINDINGS } from '../../../shared/constants/decay-runs';
+import { WORKED_BANK, WORKED_BANK_HEALTHY_TAU_SECONDS } from '../../support/test-bank';
 import { evenTimes, exponentialDecay } from './support/synthetic-decay';
 
 /** The worked bank: 2 × 4700 µF in series (2350 µF), a 94 kΩ bleeder, a 560 V bus, a 15 min marked wait. */
-const engine: BankEngineInputs = {
-  design: {
-    technology: 'electrolytic',
-    bleederOhms: 94_000,
-    construction: { unitCapacitanceMicrofarads: 4700, seriesCount: 2, parallelCount: 1 },
-    limits: { watchRatio: 0.9, endOfLifeRatio: 0.8 },
-  },
-  baseline: { capacitanceMicrofarads: 2350, source: 'nameplate' },
-  cabinet: { nominalBusVolts: 560, markedWaitSeconds: 900 },
-};
+const engine = WORKED_BANK;
 
 /** A clean run of τ = `tauSeconds` from 560 V, 20 readings 30 s apart. */
 function samplesOf(tauSeconds: number) {
@@ -28,7 +20,7 @@ function samplesOf(tauSeconds: number) {
 }
 
 /** τ of the healthy bank read with the default 10 MΩ meter: 2350 µF × (94 kΩ ∥ 10 MΩ) ≈ 218.8 s. */
-const healthyTauSeconds = 2350e-6 * ((94_000 * 10e6) / (94_000 + 10e6));
+const healthyTauSeconds = WORKED_BANK_HEALTHY_TAU_SECONDS;
 
 function ok(verdict: RecordedRunVerdict): RecordedRunOkVerdict {
   if (verdict.status !== 'ok') throw new Error(`expected a verdict, got: ${verdict.reason}`);

@@ -11,28 +11,12 @@ import {
   plainDuration,
   safeAfterOf,
 } from '../../../shared/domain/verdict-explanation';
+import { WORKED_BANK, WORKED_BANK_HEALTHY_TAU_SECONDS } from '../../support/test-bank';
 import { evenTimes, exponentialDecay } from './support/synthetic-decay';
 
-/**
- * The worked bank (as in recorded-run.test.ts): 2 × 4700 µF in series = 2350 µF nameplate
- * (DOMAIN.md: C_bank = p × C / s), a 94 kΩ bleeder, a 560 V bus, a 15 min (900 s) marked wait.
- */
-const engine: BankEngineInputs = {
-  design: {
-    technology: 'electrolytic',
-    bleederOhms: 94_000,
-    construction: { unitCapacitanceMicrofarads: 4700, seriesCount: 2, parallelCount: 1 },
-    limits: { watchRatio: 0.9, endOfLifeRatio: 0.8 },
-  },
-  baseline: { capacitanceMicrofarads: 2350, source: 'nameplate' },
-  cabinet: { nominalBusVolts: 560, markedWaitSeconds: 900 },
-};
-
-/**
- * τ of the healthy bank read with the default 10 MΩ meter (DOMAIN.md: R_eff = bleeder ∥ meter):
- * 94 kΩ ∥ 10 MΩ = 93,125 Ω; 2350 µF × 93,125 Ω ≈ 218.8 s.
- */
-const healthyTauSeconds = 2350e-6 * ((94_000 * 10e6) / (94_000 + 10e6));
+/** The worked bank (2350 µF, 94 kΩ bleeder, 560 V bus, 900 s marked wait) and its healthy τ ≈ 218.8 s. */
+const engine: BankEngineInputs = WORKED_BANK;
+const healthyTauSeconds = WORKED_BANK_HEALTHY_TAU_SECONDS;
 
 /** The day of the run: the next check counts from it. */
 const asOfOn = '2027-01-09';
@@ -63,6 +47,22 @@ const withEngine = (changes: Partial<BankEngineInputs>): BankEngineInputs => ({
   ...engine,
   ...changes,
 });
+
+/** The healthy run on a cabinet marked with a 5 min (300 s) wait, shorter than the bus needs. */
+const withShortMarkedWait = (): RecordedRunVerdict =>
+  judged(healthyTauSeconds, {
+    engine: withEngine({ cabinet: { nominalBusVolts: 560, markedWaitSeconds: 300 } }),
+  });
+
+/** Two readings: too few to fit a decay. */
+const twoReadings = [
+  { tSeconds: 0, volts: 560 },
+  { tSeconds: 30, volts: 490 },
+];
+
+/** A run that cannot be judged (two readings), with what was seen on the bank. */
+const unusable = (observations: RecordedRunObservations = {}): RecordedRunVerdict =>
+  judgeRecordedRun({ samples: twoReadings, engine, observations });
 
 describe('explainVerdict: τ', () => {
   it('when τ is 326 s between 318 and 334 s, then it says the voltage fell to about a third every 5.4 minutes', () => {
@@ -123,14 +123,8 @@ describe('explainVerdict: capacitance', () => {
 
   it('when there is neither a baseline nor a nameplate construction, then it says there is nothing to compare with', () => {
     const { construction: _construction, ...design } = engine.design;
-    const verdict = judgeRecordedRun({
-      samples: exponentialDecay({
-        v0Volts: 560,
-        tauSeconds: healthyTauSeconds,
-        times: evenTimes(20, 30),
-      }),
+    const verdict = judged(healthyTauSeconds, {
       engine: { design, baseline: undefined as never, cabinet: engine.cabinet },
-      observations: {},
     });
     expect(explainVerdict(verdict, { asOfOn }).capacitance).toBe(
       'The bank holds 2,350 µF; there is no baseline and no nameplate value to compare it with yet.',
@@ -138,14 +132,7 @@ describe('explainVerdict: capacitance', () => {
   });
 
   it('when the run is unusable, then there is no capacitance sentence', () => {
-    const verdict = judgeRecordedRun({
-      samples: [
-        { tSeconds: 0, volts: 560 },
-        { tSeconds: 30, volts: 490 },
-      ],
-      engine,
-      observations: {},
-    });
+    const verdict = unusable();
     expect(explainVerdict(verdict, { asOfOn, markedWaitSeconds: 900 }).capacitance).toBeNull();
   });
 });
@@ -218,9 +205,7 @@ describe('explainVerdict: safety', () => {
 
   it('when the discharge takes longer than the marked wait, then the safety sentence gives both times', () => {
     // bus τ = 2350 µF × 94 kΩ = 220.9 s; 560 V → 50 V: 220.9 × ln(11.2) = 533.7 s → 9 min (DOMAIN.md: t = τ ln(V0/V))
-    const verdict = judged(healthyTauSeconds, {
-      engine: withEngine({ cabinet: { nominalBusVolts: 560, markedWaitSeconds: 300 } }),
-    });
+    const verdict = withShortMarkedWait();
     expect(explainVerdict(verdict, { asOfOn }).safety).toBe(
       'Safety: the bus may need up to 9 minutes to fall below 50 V, longer than the marked wait of 5 minutes.',
     );
@@ -236,9 +221,7 @@ describe('explainVerdict: safe after', () => {
   });
 
   it('when the estimate is longer than the marked wait, then the estimate is the time', () => {
-    const verdict = judged(healthyTauSeconds, {
-      engine: withEngine({ cabinet: { nominalBusVolts: 560, markedWaitSeconds: 300 } }),
-    });
+    const verdict = withShortMarkedWait();
     expect(explainVerdict(verdict, { asOfOn }).safeAfter).toBe(
       "Approach the DC bus no sooner than 9 minutes after isolation, longer than the cabinet's marked wait of 5 minutes, because this run says the bus needs that long to fall below 50 V, and only once the meter shows no voltage.",
     );
@@ -260,14 +243,7 @@ describe('explainVerdict: safe after', () => {
   });
 
   it('when the run is unusable, then the marked wait of the context is the time', () => {
-    const verdict = judgeRecordedRun({
-      samples: [
-        { tSeconds: 0, volts: 560 },
-        { tSeconds: 30, volts: 490 },
-      ],
-      engine,
-      observations: {},
-    });
+    const verdict = unusable();
     expect(explainVerdict(verdict, { asOfOn, markedWaitSeconds: 900 }).safeAfter).toBe(
       "This run gives no discharge estimate: wait at least the cabinet's marked wait of 15 minutes after isolation, and only once the meter shows no voltage.",
     );
@@ -297,31 +273,22 @@ describe('explainVerdict: next step', () => {
 });
 
 describe('explainVerdict: unusable runs', () => {
-  const twoReadings = [
-    { tSeconds: 0, volts: 560 },
-    { tSeconds: 30, volts: 490 },
-  ];
-
   it('when the readings cannot be fitted, then the τ sentence says what went wrong', () => {
-    const verdict = judgeRecordedRun({ samples: twoReadings, engine, observations: {} });
+    const verdict = unusable();
     expect(explainVerdict(verdict, { asOfOn }).tau).toBe(
       'These readings could not be judged: only 2 readings; at least 3 are needed to fit a decay (5 or more over two to three time constants is better).',
     );
   });
 
   it('when the readings cannot be fitted, then the next step is to correct or repeat the run', () => {
-    const verdict = judgeRecordedRun({ samples: twoReadings, engine, observations: {} });
+    const verdict = unusable();
     expect(explainVerdict(verdict, { asOfOn }).nextStep).toBe(
       'Correct the readings if one was mistyped (Correct this run), or repeat the run with at least five readings over two to three time constants.',
     );
   });
 
   it('when an unusable run has a visual finding, then the bank is still at end of life', () => {
-    const verdict = judgeRecordedRun({
-      samples: twoReadings,
-      engine,
-      observations: { visualFindings: ['leak'] },
-    });
+    const verdict = unusable({ visualFindings: ['leak'] });
     const text = explainVerdict(verdict, { asOfOn });
     expect(text.health).toMatch(/^End of life: leaking electrolyte was seen/);
     expect(text.safety).toMatch(/^Safety: leaking electrolyte was seen on the bank/);

@@ -1,18 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { readReadingRows } from '../../../../../web/src/features/decay-runs/utils/readings';
 import { runDecayCheck } from '../../../../../web/src/features/decay-runs/utils/run-check';
+import { electrolyticBank } from '../../../../support/test-bank';
 
 /** A 2S3P bank of 4700 µF cans (7050 µF) on a 31.2 kΩ bleeder: τ = 220 s on its own, 219.3 s with a 10 MΩ meter. */
-const facts = {
-  design: {
-    technology: 'electrolytic',
-    bleederOhms: 31_200,
-    construction: { unitCapacitanceMicrofarads: 4700, seriesCount: 2, parallelCount: 3 },
-    limits: { watchRatio: 0.9, endOfLifeRatio: 0.8 },
-  },
-  baseline: { capacitanceMicrofarads: 7050, source: 'nameplate' },
-  cabinet: { nominalBusVolts: 565, markedWaitSeconds: 900 },
-} as unknown as Parameters<typeof runDecayCheck>[0];
+const facts = electrolyticBank({
+  unitCapacitanceMicrofarads: 4700,
+  seriesCount: 2,
+  parallelCount: 3,
+  bleederOhms: 31_200,
+  busVolts: 565,
+});
 const TAU_WITH_METER = 7050e-6 / (1 / 31_200 + 1 / 10e6);
 
 describe('runDecayCheck on a run with a control-supply phase', () => {
