@@ -75,6 +75,25 @@ export async function storeVisit(
   return visit;
 }
 
+/**
+ * A visit under way to every bank of a place, for one technician: planned for four hours from
+ * an hour ago.
+ */
+export async function storeVisitUnderWay(
+  place: { cabinet: { id: string }; banks: Array<{ id: string }> },
+  technicianId: string,
+): Promise<{ id: string; version: number }> {
+  const start = new Date(Date.now() - 3_600_000);
+  return storeVisit({
+    cabinetId: place.cabinet.id,
+    bankIds: place.banks.map((b) => b.id),
+    technicianIds: [technicianId],
+    plannedStartAt: start,
+    plannedEndAt: new Date(start.getTime() + 4 * 3_600_000),
+    state: 'under-way',
+  });
+}
+
 /** A visit's state, missed_at and version as stored. */
 export async function storedVisit(id: string) {
   const [rows] = (await sequelize.query(

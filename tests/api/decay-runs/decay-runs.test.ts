@@ -107,42 +107,29 @@ describe('POST /api/visits/:visitId/decay-runs: one run per clientId', () => {
 });
 
 describe('POST /api/visits/:visitId/decay-runs: a bad submission stores nothing', () => {
-  const cases: Array<{ name: string; status: number; code: string; path?: string; body: (plant: Plant) => unknown; state?: string }> = [
-    {
-      name: 'absence of voltage not confirmed',
-      status: 400,
-      code: 'validation-failed',
-      path: 'safety.absenceOfVoltageVerified',
-      body: (p) => validRunInput(p.bankA.id, { safety: { absenceOfVoltageVerified: false as true } }),
-    },
-    {
-      name: 'lockout/tagout left out',
-      status: 400,
-      code: 'validation-failed',
-      path: 'safety.lockoutTagoutApplied',
-      body: (p) => {
-        const body = validRunInput(p.bankA.id);
-        const { lockoutTagoutApplied: _left, ...safety } = body.safety;
-        return { ...body, safety };
-      },
-    },
-    {
-      name: 'a voltage that is not a number',
-      status: 400,
-      code: 'validation-failed',
-      path: 'samples.3.volts',
-      body: (p) => {
-        const body = validRunInput(p.bankA.id);
-        return { ...body, samples: body.samples.map((s, i) => (i === 3 ? { ...s, volts: 'NaN' } : s)) };
-      },
-    },
-    {
-      name: 'no readings',
-      status: 400,
-      code: 'validation-failed',
-      path: 'samples',
-      body: (p) => validRunInput(p.bankA.id, { samples: [] }),
-    },
+  type Case = { name: string; status: number; code: string; path?: string; body: (plant: Plant) => unknown; state?: string };
+  /** A body the schema refuses: 400 validation-failed, naming `path`. */
+  const invalid = (name: string, path: string, body: (plant: Plant) => unknown): Case => ({
+    name,
+    status: 400,
+    code: 'validation-failed',
+    path,
+    body,
+  });
+  const cases: Case[] = [
+    invalid('absence of voltage not confirmed', 'safety.absenceOfVoltageVerified', (p) =>
+      validRunInput(p.bankA.id, { safety: { absenceOfVoltageVerified: false as true } }),
+    ),
+    invalid('lockout/tagout left out', 'safety.lockoutTagoutApplied', (p) => {
+      const body = validRunInput(p.bankA.id);
+      const { lockoutTagoutApplied: _left, ...safety } = body.safety;
+      return { ...body, safety };
+    }),
+    invalid('a voltage that is not a number', 'samples.3.volts', (p) => {
+      const body = validRunInput(p.bankA.id);
+      return { ...body, samples: body.samples.map((s, i) => (i === 3 ? { ...s, volts: 'NaN' } : s)) };
+    }),
+    invalid('no readings', 'samples', (p) => validRunInput(p.bankA.id, { samples: [] })),
     {
       name: 'an unknown bank',
       status: 422,

@@ -14,7 +14,7 @@ import type { Bank } from '../../../shared/schemas/bank';
 import type { DecayRun } from '../../../shared/schemas/decay-run';
 import { validCorrectionInput, validRunInput } from '../../support/decay-runs';
 import { assertCorpusHolds } from '../../support/hostile-bodies';
-import { makePlace, storeVisit } from '../../support/planner-visits';
+import { makePlace, storeVisitUnderWay } from '../../support/planner-visits';
 import { createActor } from '../../support/register';
 
 const app = createApp();
@@ -34,15 +34,7 @@ beforeAll(async () => {
 /** A cabinet of two fresh banks and a visit of the technician's to it, under way. */
 async function visitUnderWay() {
   const place = await makePlace(planner.actor);
-  const start = new Date(Date.now() - 3_600_000);
-  const visit = await storeVisit({
-    cabinetId: place.cabinet.id,
-    bankIds: place.banks.map((b) => b.id),
-    technicianIds: [technician.user.id],
-    plannedStartAt: start,
-    plannedEndAt: new Date(start.getTime() + 4 * 3_600_000),
-    state: 'under-way',
-  });
+  const visit = await storeVisitUnderWay(place, technician.user.id);
   return { ...place, visitId: visit.id };
 }
 

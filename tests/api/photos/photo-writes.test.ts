@@ -5,7 +5,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createApp } from '../../../api/src/app';
 import { hostileValue } from '../../support/hostile-bodies';
-import { makePlace, storeVisit } from '../../support/planner-visits';
+import { makePlace, storeVisitUnderWay } from '../../support/planner-visits';
 import { countRows, createActor } from '../../support/register';
 
 const photoDir = vi.hoisted(() => {
@@ -25,15 +25,7 @@ beforeAll(async () => {
   const planner = await createActor(['planner']);
   const place = await makePlace(planner.actor);
   bankId = place.banks[0]!.id;
-  const start = new Date(Date.now() - 3_600_000);
-  ({ id: visitId } = await storeVisit({
-    cabinetId: place.cabinet.id,
-    bankIds: place.banks.map((b) => b.id),
-    technicianIds: [technician.user.id],
-    plannedStartAt: start,
-    plannedEndAt: new Date(start.getTime() + 4 * 3_600_000),
-    state: 'under-way',
-  }));
+  ({ id: visitId } = await storeVisitUnderWay(place, technician.user.id));
   jpeg = await sharp({ create: { width: 16, height: 12, channels: 3, background: '#2f7f86' } }).jpeg().toBuffer();
 }, 30_000);
 

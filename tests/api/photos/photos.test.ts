@@ -6,7 +6,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createApp } from '../../../api/src/app';
 import { PHOTO_MAX_BYTES, PHOTO_MAX_MEGAPIXELS, PHOTO_THUMBNAIL_EDGE_PX } from '../../../shared/constants/photos';
-import { makePlace, storeVisit } from '../../support/planner-visits';
+import { makePlace, storeVisitUnderWay } from '../../support/planner-visits';
 import { countRows, createActor } from '../../support/register';
 
 // this file's own photo folder, known before the app reads its configuration
@@ -31,15 +31,7 @@ beforeAll(async () => {
   reliability = await createActor(['reliability']);
   const place = await makePlace(planner.actor);
   bankIds = place.banks.map((b) => b.id);
-  const start = new Date(Date.now() - 3_600_000);
-  ({ id: visitId } = await storeVisit({
-    cabinetId: place.cabinet.id,
-    bankIds,
-    technicianIds: [technician.user.id],
-    plannedStartAt: start,
-    plannedEndAt: new Date(start.getTime() + 4 * 3_600_000),
-    state: 'under-way',
-  }));
+  ({ id: visitId } = await storeVisitUnderWay(place, technician.user.id));
 }, 30_000);
 
 afterAll(() => {
