@@ -5,6 +5,8 @@ import {
   readPastedReadings,
   readReadingRows,
   readSeconds,
+  withCell,
+  withoutRow,
 } from '../../../../../web/src/features/decay-runs/utils/readings';
 
 const rows = (...pairs: [string, string][]) => pairs.map(([time, volts]) => ({ time, volts }));
@@ -113,5 +115,21 @@ describe('readPastedReadings', () => {
   it('when the header names no time or voltage column, then a message says so', () => {
     const read = readPastedReadings('when,what\n0,560');
     expect(read).toEqual({ problem: expect.stringMatching(/time column/) });
+  });
+});
+
+describe('withCell and withoutRow: editing the readings table', () => {
+  it('when a cell of the last row is typed into, then an empty row opens below it', () => {
+    expect(withCell(rows(['0', '560']), 0, 'volts', '561')).toEqual(rows(['0', '561'], ['', '']));
+  });
+
+  it('when a cell of an earlier row changes, or the last is only blanked, then no row is added', () => {
+    expect(withCell(rows(['0', '560'], ['', '']), 0, 'time', '1')).toEqual(rows(['1', '560'], ['', '']));
+    expect(withCell(rows(['0', '560']), 0, 'time', ' ')).toEqual(rows([' ', '560']));
+  });
+
+  it('when a row is removed, then the others stay; removing the only row leaves one empty row', () => {
+    expect(withoutRow(rows(['0', '560'], ['30', '490']), 0)).toEqual(rows(['30', '490']));
+    expect(withoutRow(rows(['0', '560']), 0)).toEqual(rows(['', '']));
   });
 });

@@ -1,10 +1,17 @@
 import { useDeferredValue, useMemo, useState } from 'react';
 import { bankEngineInputs } from '../../../../../shared/domain';
 import type { Bank } from '../../../../../shared/schemas/bank';
-import { readConditions, readReadingRows, type ConditionInputs, type ReadingRow } from '../utils/readings';
+import {
+  EMPTY_READING_ROW,
+  readConditions,
+  readReadingRows,
+  withCell,
+  withoutRow,
+  type ConditionInputs,
+  type ReadingRow,
+} from '../utils/readings';
 import { runDecayCheck } from '../utils/run-check';
 
-const EMPTY_ROW: ReadingRow = { time: '', volts: '' };
 const FIRST_ROWS = 4;
 
 /**
@@ -12,7 +19,7 @@ const FIRST_ROWS = 4;
  * engine's answer for them, recomputed as they change. Nothing is stored.
  */
 export function useDecayCheck(bank: Bank) {
-  const [rows, setRows] = useState<ReadingRow[]>(() => Array.from({ length: FIRST_ROWS }, () => EMPTY_ROW));
+  const [rows, setRows] = useState<ReadingRow[]>(() => Array.from({ length: FIRST_ROWS }, () => EMPTY_READING_ROW));
   const [inputs, setInputs] = useState<ConditionInputs>({ bankTempC: '', meterInputMegohms: '', measuredBleederKilohms: '' });
   const facts = useMemo(() => bankEngineInputs(bank), [bank]);
   // a fast typist is never held up by the fit
@@ -27,24 +34,20 @@ export function useDecayCheck(bank: Bank) {
 
   /** Changes one cell; typing into the last row opens a new one below it. */
   function setCell(index: number, field: keyof ReadingRow, value: string) {
-    setRows((current) => {
-      const next = current.map((row, i) => (i === index ? { ...row, [field]: value } : row));
-      if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
-      return next;
-    });
+    setRows((current) => withCell(current, index, field, value));
   }
 
   function removeRow(index: number) {
-    setRows((current) => (current.length <= 1 ? [EMPTY_ROW] : current.filter((_, i) => i !== index)));
+    setRows((current) => withoutRow(current, index));
   }
 
   /** Puts pasted rows in place of the table, with an empty row to go on typing. */
   function replaceRows(next: ReadingRow[]) {
-    setRows([...next, EMPTY_ROW]);
+    setRows([...next, EMPTY_READING_ROW]);
   }
 
   function clearRows() {
-    setRows(Array.from({ length: FIRST_ROWS }, () => EMPTY_ROW));
+    setRows(Array.from({ length: FIRST_ROWS }, () => EMPTY_READING_ROW));
   }
 
   function setInput(field: keyof ConditionInputs, value: string) {

@@ -14,6 +14,21 @@ export interface ReadingRow {
   volts: string;
 }
 
+/** An empty row of the readings table. */
+export const EMPTY_READING_ROW: ReadingRow = { time: '', volts: '' };
+
+/** The rows with one cell changed; typing into the last row opens a new empty one below it. */
+export function withCell(rows: readonly ReadingRow[], index: number, field: keyof ReadingRow, value: string): ReadingRow[] {
+  const next = rows.map((row, i) => (i === index ? { ...row, [field]: value } : row));
+  if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_READING_ROW);
+  return next;
+}
+
+/** The rows without one of them; the table keeps one empty row when the last is removed. */
+export function withoutRow(rows: readonly ReadingRow[], index: number): ReadingRow[] {
+  return rows.length <= 1 ? [EMPTY_READING_ROW] : rows.filter((_, i) => i !== index);
+}
+
 /** A problem with one cell of the readings table. */
 export interface ReadingIssue {
   /** Row number on screen, from 1. */

@@ -13,6 +13,7 @@ import { DecayPlot } from '../decay-plot';
 import { clockText } from './capture-facts';
 import { liveFit, type LiveFit } from './live-fit';
 import { BigCheck } from './safety-gate';
+import { StepActions } from './step-actions';
 
 /** The sentence of the last safety check, confirmed when the capture has ended. */
 export const ABSENCE_CHECK = SAFETY_CHECKS.find(
@@ -362,19 +363,10 @@ function Ended(props: GuidedCaptureProps) {
         checked={props.absenceConfirmed}
         onChange={props.onAbsenceConfirmed}
       />
-      <div className="flex flex-col gap-2 sm:flex-row">
-        <Button
-          variant="primary"
-          className="min-h-12 w-full text-base sm:w-auto"
-          disabled={!props.absenceConfirmed}
-          onClick={props.onFinish}
-        >
-          Continue to the observations
-        </Button>
-        <Button className="min-h-12 w-full sm:w-auto" onClick={() => props.onEnded(false)}>
-          Take more readings
-        </Button>
-      </div>
+      <StepActions
+        next={{ label: 'Continue to the observations', disabled: !props.absenceConfirmed, onClick: props.onFinish }}
+        back={{ label: 'Take more readings', onClick: () => props.onEnded(false) }}
+      />
     </div>
   );
 }

@@ -3,12 +3,17 @@ import type { BankEngineInputs, DecaySample } from '../../../../../../shared/dom
 import { Button } from '../../../../components/ui/button';
 import { Field, TextInput } from '../../../../components/ui/field';
 import { leftOutRows, type LeftOutMark } from '../../utils/left-out-rows';
-import { readReadingRows, type ReadingRow } from '../../utils/readings';
+import {
+  EMPTY_READING_ROW,
+  readReadingRows,
+  withCell,
+  withoutRow,
+  type ReadingRow,
+} from '../../utils/readings';
 import { DecayPlot } from '../decay-plot';
 import { ReadingsTable } from '../readings-table';
 import { liveFit } from './live-fit';
 
-const EMPTY_ROW: ReadingRow = { time: '', volts: '' };
 
 /**
  * Readings typed afterwards from a paper sheet: time since isolation and voltage per row (the
@@ -34,7 +39,7 @@ export function PaperSheet({
 }) {
   const [rows, setRows] = useState<ReadingRow[]>(() => [
     ...samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })),
-    ...Array.from({ length: Math.max(1, 4 - samples.length) }, () => EMPTY_ROW),
+    ...Array.from({ length: Math.max(1, 4 - samples.length) }, () => EMPTY_READING_ROW),
   ]);
   const readings = useMemo(() => readReadingRows(rows), [rows]);
   const fit = useMemo(() => liveFit(readings.samples, engine), [readings.samples, engine]);
@@ -83,14 +88,8 @@ export function PaperSheet({
         rows={rows}
         issues={readings.issues}
         leftOut={leftOut}
-        onCell={(index, field, value) => {
-          const next = rows.map((row, i) => (i === index ? { ...row, [field]: value } : row));
-          if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
-          change(next);
-        }}
-        onRemove={(index) =>
-          change(rows.length <= 1 ? [EMPTY_ROW] : rows.filter((_, i) => i !== index))
-        }
+        onCell={(index, field, value) => change(withCell(rows, index, field, value))}
+        onRemove={(index) => change(withoutRow(rows, index))}
       />
       {fit.plotted.length > 0 ? (
         <DecayPlot samples={fit.plotted} verdict={fit.fit ? { fit: fit.fit } : null} />

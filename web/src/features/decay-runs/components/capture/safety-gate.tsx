@@ -2,9 +2,9 @@ import { useId, useState } from 'react';
 import { SAFETY_CHECKS, type SafetyCheckKey } from '../../../../../../shared/constants/decay-runs';
 import { estimateDischargeSafety } from '../../../../../../shared/domain/discharge-safety';
 import type { Visit, VisitBankRef } from '../../../../../../shared/schemas/visit';
-import { Button } from '../../../../components/ui/button';
 import { DischargeCaution } from '../../../../components/ui/discharge-caution';
 import { expectedTauOf, waitText } from './capture-facts';
+import { StepActions } from './step-actions';
 
 /** The checks of the gate: every safety check confirmed before the capture (absence of voltage comes at the end). */
 export const GATE_CHECKS = SAFETY_CHECKS.filter((check) => check.when === 'before');
@@ -78,29 +78,21 @@ export function SafetyGate({
           one is not true, stop here and put it right first.
         </p>
       ) : null}
-      <div className="flex flex-col gap-2 sm:flex-row">
-        <Button
-          variant="primary"
-          className="min-h-12 w-full text-base sm:w-auto"
-          disabled={!all}
-          onClick={() =>
+      <StepActions
+        next={{
+          label: 'Continue to the readings',
+          disabled: !all,
+          onClick: () =>
             onConfirm({
               qualifiedPerson: true,
               lockoutTagoutApplied: true,
               meterRatedAndProved: true,
               meterOnTestPoints: true,
               confirmedAt: new Date(Date.now()).toISOString(),
-            })
-          }
-        >
-          Continue to the readings
-        </Button>
-        {onCancel ? (
-          <Button className="min-h-12 w-full sm:w-auto" onClick={onCancel}>
-            Not now
-          </Button>
-        ) : null}
-      </div>
+            }),
+        }}
+        back={onCancel ? { label: 'Not now', onClick: onCancel } : undefined}
+      />
     </section>
   );
 }

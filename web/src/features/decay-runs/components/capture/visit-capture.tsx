@@ -35,6 +35,7 @@ import { liveFit } from './live-fit';
 import { ObservationsForm, type RunObservations } from './observations-form';
 import { PaperSheet } from './paper-sheet';
 import { BigCheck, SafetyGate, type GateConfirmation } from './safety-gate';
+import { StepActions } from './step-actions';
 
 /** Who is looking at the visit. */
 export interface CaptureViewer {
@@ -690,22 +691,17 @@ function Finish({
           {problems.join(' ')}
         </p>
       ) : null}
-      <div className="flex flex-col gap-2 sm:flex-row">
-        <Button
-          variant="primary"
-          className="min-h-12 w-full text-base sm:w-auto"
-          disabled={!absence || saving || problems.length > 0}
-          onClick={() => {
+      <StepActions
+        next={{
+          label: saving ? 'Saving…' : 'Save the run',
+          disabled: !absence || saving || problems.length > 0,
+          onClick: () => {
             setSaving(true);
             onSave().finally(() => setSaving(false));
-          }}
-        >
-          {saving ? 'Saving…' : 'Save the run'}
-        </Button>
-        <Button className="min-h-12 w-full sm:w-auto" onClick={onBack}>
-          Back to the readings
-        </Button>
-      </div>
+          },
+        }}
+        back={{ label: 'Back to the readings', onClick: onBack }}
+      />
       {!absence ? <p className="text-sm text-tide-800">Confirm absence of voltage first.</p> : null}
     </div>
   );

@@ -5,12 +5,17 @@ import { Button } from '../../../../components/ui/button';
 import { Field, TextArea } from '../../../../components/ui/field';
 import { ApiError } from '../../../../lib/api-client';
 import { useCorrectDecayRun } from '../../api/correct-decay-run';
-import { readReadingRows, type ReadingRow } from '../../utils/readings';
+import {
+  EMPTY_READING_ROW,
+  readReadingRows,
+  withCell,
+  withoutRow,
+  type ReadingRow,
+} from '../../utils/readings';
 import { ObservationsForm, type RunObservations } from '../capture/observations-form';
 import { DecayPlot } from '../decay-plot';
 import { ReadingsTable } from '../readings-table';
 
-const EMPTY_ROW: ReadingRow = { time: '', volts: '' };
 const NO_MARKS = new Map();
 
 type CorrectionBody = Omit<DecayRunCorrectionInput, 'clientId'>;
@@ -31,7 +36,7 @@ function useClientIdFor() {
 function rowsOf(run: DecayRun): ReadingRow[] {
   return [
     ...run.samples.map((s) => ({ time: String(s.tSeconds), volts: String(s.volts) })),
-    EMPTY_ROW,
+    EMPTY_READING_ROW,
   ];
 }
 
@@ -77,17 +82,11 @@ export function CorrectionForm({
   const blocked = reasonProblem ?? readingsProblem ?? observationProblems[0];
 
   function setCell(index: number, field: keyof ReadingRow, value: string) {
-    setRows((current) => {
-      const next = current.map((row, i) => (i === index ? { ...row, [field]: value } : row));
-      if (index === next.length - 1 && value.trim() !== '') next.push(EMPTY_ROW);
-      return next;
-    });
+    setRows((current) => withCell(current, index, field, value));
   }
 
   function removeRow(index: number) {
-    setRows((current) =>
-      current.length <= 1 ? [EMPTY_ROW] : current.filter((_, i) => i !== index),
-    );
+    setRows((current) => withoutRow(current, index));
   }
 
   function submit(event: FormEvent) {
