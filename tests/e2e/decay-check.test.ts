@@ -1,25 +1,17 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterEach, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import type { Bank } from '../../shared/schemas/bank';
-import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { banksInService } from '../support/banks-in-service';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { signIn } from '../support/sign-in';
 import { eventually } from '../support/eventually';
 
 const baseUrl = inject('baseUrl');
 
-let open: BrowserSession[] = [];
-async function browser(viewport?: { width: number; height: number }): Promise<BrowserSession> {
-  const session = await openBrowser(viewport);
-  open.push(session);
-  return session;
-}
-afterEach(async () => {
-  await Promise.all(open.map((s) => s.close()));
-  open = [];
-});
+const browser = browsersClosedAfterEach();
 
 /**
  * A seeded electrolytic bank in service with a cabinet bus voltage, through the API as the
@@ -27,11 +19,7 @@ afterEach(async () => {
  * baseline came from its first trusted decay run (the demo history gives most banks one).
  */
 async function seededBank(page: Page): Promise<Bank> {
-  const list = await page.evaluate(async () => {
-    const res = await fetch('/api/banks?pageSize=100&status=in-service', { headers: { Accept: 'application/json' } });
-    return (await res.json()) as { items: Bank[] };
-  });
-  const candidates = list.items.filter(
+  const candidates = (await banksInService(page)).filter(
     (b) => b.technology === 'electrolytic' && b.cabinetDcBusVolts !== null && b.designFigures?.endOfLifeRatio === 0.8,
   );
   const bank = candidates.find((b) => b.baseline.source === 'nameplate') ?? candidates.find((b) => b.baseline.source === 'decay-run');

@@ -8,9 +8,10 @@ import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { afterEach, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import type { Bank } from '../../shared/schemas/bank';
-import { openBrowser, PHONE_VIEWPORT, screenshot, type BrowserSession } from '../support/browser';
+import { banksInService } from '../support/banks-in-service';
+import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { eventually } from '../support/eventually';
 import { signIn } from '../support/sign-in';
@@ -18,19 +19,11 @@ import { signIn } from '../support/sign-in';
 const baseUrl = inject('baseUrl');
 const fixtures = join(dirname(fileURLToPath(import.meta.url)), '../fixtures/logger-files');
 
-let open: BrowserSession[] = [];
-afterEach(async () => {
-  await Promise.all(open.map((s) => s.close()));
-  open = [];
-});
+const browser = browsersClosedAfterEach();
 
 /** A seeded bank in service whose design can judge a run, through the API as the signed-in person. */
 async function seededBank(page: Page): Promise<Bank> {
-  const list = await page.evaluate(async () => {
-    const res = await fetch('/api/banks?pageSize=100&status=in-service', { headers: { Accept: 'application/json' } });
-    return (await res.json()) as { items: Bank[] };
-  });
-  const bank = list.items.find((b) => b.technology === 'electrolytic' && b.designFigures !== null);
+  const bank = (await banksInService(page)).find((b) => b.technology === 'electrolytic' && b.designFigures !== null);
   if (!bank) throw new Error('the seed has no electrolytic bank in service');
   return bank;
 }
@@ -42,8 +35,7 @@ describe('a logger file on the bank page, at phone width', () => {
   it(
     'when a technician uploads a scope file whose columns must be chosen, then the chart shows the fit and the readings can be used',
     async () => {
-      const session = await openBrowser(PHONE_VIEWPORT);
-      open.push(session);
+      const session = await browser(PHONE_VIEWPORT);
       const { page } = session;
       // the 415 and the 422 are part of the story
       const console = watchConsole(page, [/ 401 .*\/api\/me$/, / 415 POST .*\/api\/logger-files\/preview$/, / 422 POST .*\/api\/logger-files\/preview$/]);
@@ -116,8 +108,7 @@ describe('a logger file on the bank page, at phone width', () => {
   it(
     'when a logger file reads without a question, then the preview comes at once, with what was left out said',
     async () => {
-      const session = await openBrowser(PHONE_VIEWPORT);
-      open.push(session);
+      const session = await browser(PHONE_VIEWPORT);
       const { page } = session;
       await signIn(page, 'dario', 'tidewater-tech', { returnTo: '/register/banks' });
       const bank = await seededBank(page);

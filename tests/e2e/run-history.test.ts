@@ -103,6 +103,19 @@ function textOf(locator: Locator): () => Promise<string> {
   return async () => ((await locator.textContent()) ?? '').replace(/\u00a0/g, ' ');
 }
 
+/** Follows a run's link to its page and waits for its verdict: healthy, τ about a third every 5.5 minutes. */
+async function openHealthyRun(page: Page, link: Locator, runId: string): Promise<Locator> {
+  await link.click();
+  await page.waitForURL((url) => url.pathname === `/runs/${runId}`);
+  const detail = page.getByTestId('run-detail');
+  await eventually(textOf(detail.getByTestId('verdict-health-word'))).toBe('Healthy');
+  // DOMAIN.md: after 1 τ 36.8 % remains ("about a third"); 329.8 s / 60 = 5.5 minutes
+  await eventually(textOf(detail.getByTestId('verdict-tau-sentence'))).toMatch(
+    /^The voltage fell to about a third every 5\.5 minutes/,
+  );
+  return detail;
+}
+
 async function noSidewaysScroll(page: Page, width: number) {
   expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
     width,
@@ -141,14 +154,8 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     await screenshot(page, 'run-history-bank-phone');
 
     // its page: the verdict in plain sentences
-    await row.getByRole('link').first().click();
-    await page.waitForURL((url) => url.pathname === `/runs/${run.id}`);
-    const detail = page.getByTestId('run-detail');
-    await eventually(textOf(detail.getByTestId('verdict-health-word'))).toBe('Healthy');
-    // DOMAIN.md: after 1 τ 36.8 % remains ("about a third"); 329.8 s / 60 = 5.5 minutes
-    await eventually(textOf(detail.getByTestId('verdict-tau-sentence'))).toMatch(
-      /^The voltage fell to about a third every 5\.5 minutes \(τ = 330 s, /,
-    );
+    const detail = await openHealthyRun(page, row.getByRole('link').first(), run.id);
+    expect(await textOf(detail.getByTestId('verdict-tau-sentence'))()).toMatch(/ \(τ = 330 s, /);
     // C = 329.8 s / (47 kΩ ∥ 10 MΩ) = 7050 µF at 28 °C; at 20 °C with +0.25 %/K: 7050 / 1.02 = 6,910 µF, 98 % of 7,050 µF
     await eventually(textOf(detail.getByTestId('verdict-capacitance-sentence'))).toMatch(
       /^The bank holds 6,910 µF \(corrected to 20 °C\), 98 % of the nameplate's 7,050 µF/,
@@ -320,13 +327,7 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     const history = page.getByTestId('bank-run-history');
     await eventually(() => history.getByTestId('bank-run-row').count()).toBe(1);
     await screenshot(page, 'run-history-bank-desktop');
-    await history.getByRole('link').first().click();
-    await page.waitForURL((url) => url.pathname === `/runs/${run.id}`);
-    const detail = page.getByTestId('run-detail');
-    await eventually(textOf(detail.getByTestId('verdict-health-word'))).toBe('Healthy');
-    await eventually(textOf(detail.getByTestId('verdict-tau-sentence'))).toMatch(
-      /^The voltage fell to about a third every 5\.5 minutes/,
-    );
+    const detail = await openHealthyRun(page, history.getByRole('link').first(), run.id);
     // a reliability engineer may correct a run too
     await detail.getByRole('button', { name: 'Correct this run' }).waitFor();
     await noSidewaysScroll(page, DESKTOP_VIEWPORT.width);
