@@ -3,8 +3,12 @@ import { createApp } from '../../../api/src/app';
 import type { DeclaredRoute } from '../../../api/src/middleware/route-access';
 
 const app = createApp();
-const routes = (app.locals.apiRoutes as DeclaredRoute[]).filter((r) =>
-  /^\/api\/(sites|areas|cabinets|banks|bank-designs|spares)(\/|$)/.test(r.path),
+// a cabinet's unplanned visits and a bank's decay runs hang off register paths but follow the
+// rules of visits and runs (tests/api/planner, tests/api/decay-runs), not the register's
+const routes = (app.locals.apiRoutes as DeclaredRoute[]).filter(
+  (r) =>
+    /^\/api\/(sites|areas|cabinets|banks|bank-designs|spares)(\/|$)/.test(r.path) &&
+    !/\/(unplanned-visits|decay-runs)$/.test(r.path),
 );
 
 const READERS = ['admin', 'planner', 'technician', 'reliability'];
