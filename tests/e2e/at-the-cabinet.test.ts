@@ -7,7 +7,6 @@
  * And a run in progress survives a closed tab.
  */
 import path from 'node:path';
-import pg from 'pg';
 import sharp from 'sharp';
 import type { Page } from 'playwright-core';
 import { describe, expect, inject, it } from 'vitest';
@@ -16,10 +15,10 @@ import { captureScheduleSeconds } from '../../shared/domain/capture-schedule';
 import { browsersClosedAfterEach, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { eventually } from '../support/eventually';
+import { query } from '../support/product-database';
 import { signIn } from '../support/sign-in';
 
 const browser = browsersClosedAfterEach();
-const databaseUrl = inject('databaseUrl');
 
 const GATE = SAFETY_CHECKS.filter((c) => c.when === 'before');
 const ABSENCE = SAFETY_CHECKS.find((c) => c.key === 'absenceOfVoltageVerified')!;
@@ -29,16 +28,6 @@ const RUN_POST = /\/api\/visits\/[0-9a-f-]+\/decay-runs$/;
 interface PlannedVisit {
   id: string;
   tag: string;
-}
-
-async function query<T extends pg.QueryResultRow>(sql: string, params: unknown[]): Promise<T[]> {
-  const client = new pg.Client({ connectionString: databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query<T>(sql, params)).rows;
-  } finally {
-    await client.end();
-  }
 }
 
 /** Kofi's planned visits in the coming weeks, earliest first (the demo plans several; no other browser test uses them). */

@@ -1,28 +1,14 @@
 import { format } from 'date-fns';
-import pg from 'pg';
 import type { Page } from 'playwright-core';
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { instantOfLocalWallTime, localWallTimeOf } from '../../shared/domain/shutdown-windows';
 import { browsersClosedAfterEach, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { eventually } from '../support/eventually';
+import { query } from '../support/product-database';
 import { signIn } from '../support/sign-in';
 
 const browser = browsersClosedAfterEach();
-
-/** One query against the product's database (the demo the e2e run seeded). */
-async function query<T extends pg.QueryResultRow>(
-  sql: string,
-  params: unknown[] = [],
-): Promise<T[]> {
-  const client = new pg.Client({ connectionString: inject('databaseUrl') });
-  await client.connect();
-  try {
-    return (await client.query<T>(sql, params)).rows;
-  } finally {
-    await client.end();
-  }
-}
 
 /** The local calendar day of an instant in a zone, as a Date at local midnight (for date-fns labels). */
 function localDay(instant: Date, timeZone: string): Date {

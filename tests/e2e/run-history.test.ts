@@ -98,6 +98,14 @@ async function postFromPage(
   );
 }
 
+/** Dario signs in on the page and sends a run of his visit under way; the run as stored. */
+async function runSentByDario(page: Page, visitId: string, bankId: string): Promise<DecayRun> {
+  await signIn(page, 'dario', 'tidewater-tech', { returnTo: '/my-visits' });
+  const sent = await postFromPage(page, `/api/visits/${visitId}/decay-runs`, validRunInput(bankId));
+  expect(sent.status).toBe(201);
+  return sent.body as DecayRun;
+}
+
 /** A locator's text with non-breaking spaces (kept between a figure and its unit) read as spaces. */
 function textOf(locator: Locator): () => Promise<string> {
   return async () => ((await locator.textContent()) ?? '').replace(/\u00a0/g, ' ');
@@ -249,14 +257,7 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     const { visitId, bankId } = await visitUnderWay();
     const phone = await browser(PHONE_VIEWPORT);
     const console = watchConsole(phone.page);
-    await signIn(phone.page, 'dario', 'tidewater-tech', { returnTo: '/my-visits' });
-    const sent = await postFromPage(
-      phone.page,
-      `/api/visits/${visitId}/decay-runs`,
-      validRunInput(bankId),
-    );
-    expect(sent.status).toBe(201);
-    const run = sent.body as DecayRun;
+    const run = await runSentByDario(phone.page, visitId, bankId);
     const visit = (await phone.page.evaluate(
       async (id) =>
         (await fetch(`/api/visits/${id}`, { headers: { Accept: 'application/json' } })).json(),
@@ -312,14 +313,7 @@ describe('Stored decay runs: bank history, run page, correction', () => {
     const { visitId, bankId } = await visitUnderWay();
     // the technician's phone sent the run
     const phone = await browser(PHONE_VIEWPORT);
-    await signIn(phone.page, 'dario', 'tidewater-tech', { returnTo: '/my-visits' });
-    const sent = await postFromPage(
-      phone.page,
-      `/api/visits/${visitId}/decay-runs`,
-      validRunInput(bankId),
-    );
-    expect(sent.status).toBe(201);
-    const run = sent.body as DecayRun;
+    const run = await runSentByDario(phone.page, visitId, bankId);
 
     const { page } = await browser(DESKTOP_VIEWPORT);
     const console = watchConsole(page);

@@ -3,24 +3,14 @@
  * opens the cabinet's page), starts an unplanned visit there and lands on the visit; back on the
  * cabinet's page the visit is offered again ("Open your visit") rather than a second one.
  */
-import pg from 'pg';
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { browsersClosedAfterEach, PAGE_WAIT_MS, PHONE_VIEWPORT, screenshot } from '../support/browser';
 import { watchConsole } from '../support/console';
 import { eventually } from '../support/eventually';
+import { query } from '../support/product-database';
 import { signIn } from '../support/sign-in';
 
 const browser = browsersClosedAfterEach();
-
-async function query<T extends pg.QueryResultRow>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: inject('databaseUrl') });
-  await client.connect();
-  try {
-    return (await client.query<T>(sql, params)).rows;
-  } finally {
-    await client.end();
-  }
-}
 
 describe('an unplanned visit from the cabinet’s label (technician, phone)', () => {
   it('when Dario opens a cabinet by its label and starts an unplanned visit, then he lands on the visit, under way and unplanned, and the cabinet then offers to open it', async () => {
