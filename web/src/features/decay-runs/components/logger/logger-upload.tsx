@@ -226,6 +226,11 @@ function ColumnPicker({
   const [volts, setVolts] = useState(initial?.volts ?? (columns.length > 1 ? '2' : '1'));
   const same = time === volts;
   const label = (name: string, i: number) => `${i + 1} · ${name || '(no name)'}`;
+  const columnOptions = columns.map((name, i) => (
+    <option key={i} value={String(i + 1)}>
+      {label(name, i)}
+    </option>
+  ));
   return (
     <section className="space-y-3 rounded-xl border border-watch-600/40 bg-watch-600/5 p-4" data-testid="logger-columns" aria-labelledby={`${id}-title`}>
       <h3 id={`${id}-title`} className="font-bold text-tide-950">
@@ -263,20 +268,12 @@ function ColumnPicker({
       <div className="grid gap-3 sm:grid-cols-2">
         <Field id={`${id}-time`} label="Time column" hint="Seconds, milliseconds or clock times since the isolation">
           <Select id={`${id}-time`} data-testid="logger-time-column" className="min-h-12" value={time} onChange={(e) => setTime(e.target.value)}>
-            {columns.map((name, i) => (
-              <option key={i} value={String(i + 1)}>
-                {label(name, i)}
-              </option>
-            ))}
+            {columnOptions}
           </Select>
         </Field>
         <Field id={`${id}-volts`} label="Voltage column" hint="The DC bus, in V (or mV, kV as its header says)" error={same ? 'Choose two different columns.' : undefined}>
           <Select id={`${id}-volts`} data-testid="logger-volts-column" className="min-h-12" invalid={same} value={volts} onChange={(e) => setVolts(e.target.value)}>
-            {columns.map((name, i) => (
-              <option key={i} value={String(i + 1)}>
-                {label(name, i)}
-              </option>
-            ))}
+            {columnOptions}
           </Select>
         </Field>
       </div>
