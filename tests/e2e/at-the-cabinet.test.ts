@@ -4,7 +4,8 @@
  * (the test drives the page's clock), sees the verdict, adds a photo and a run from a logger
  * file, then loses the connection, saves another run, reloads without a connection (the service
  * worker serves the app; the run is still on the phone) and, back online, the run is sent once.
- * And a run in progress survives a closed tab.
+ * And a run in progress survives a closed tab, and one started online goes on after a reload
+ * without a connection, from the facts kept with it.
  */
 import path from 'node:path';
 import sharp from 'sharp';
@@ -52,6 +53,7 @@ interface StoredDraft {
   visitId: string;
   status: string;
   body: { samples?: { tSeconds: number; volts: number }[]; source?: string };
+  snapshot?: { cabinetTag: string; bankPosition: string; expectedTauSeconds: number; engine: unknown };
 }
 
 /** The drafts in this browser's IndexedDB, read with the plain API (what a reload would find). */
@@ -302,5 +304,97 @@ describe('At the cabinet, from sign-in to a run sent after the connection came b
     const [kept] = (await draftsInBrowser(again)).filter((d) => d.visitId === visit.id);
     expect(kept?.status).toBe('capturing');
     await screenshot(again, 'at-the-cabinet-reopened-phone');
+  }, 240_000);
+
+  it('when a paper sheet started online is reloaded without a connection, then it goes on from the phone, is saved there and, back online, is sent exactly once', async () => {
+    const visits = await plannedVisitsOfKofi();
+    expect(visits.length).toBeGreaterThanOrEqual(3);
+    const visit = visits[1]!;
+    const { page, context } = await browser(PHONE_VIEWPORT);
+    const console = watchConsole(page, [
+      / 401 .*\/api\/me$/,
+      // while the connection is cut, the page's own requests fail; that is the story
+      /request failed: .* net::ERR_INTERNET_DISCONNECTED/,
+    ]);
+    const runPosts: string[] = [];
+    page.on('request', (request) => {
+      if (request.method() === 'POST' && RUN_POST.test(new URL(request.url()).pathname)) {
+        runPosts.push((JSON.parse(request.postData() ?? '{}') as { clientId?: string }).clientId ?? '');
+      }
+    });
+    await signIn(page, 'kofi', 'tidewater-tech', { returnTo: `/my-visits/${visit.id}` });
+    await page.getByRole('heading', { name: visit.tag }).waitFor();
+    expect(await page.evaluate(async () => Boolean((await navigator.serviceWorker.ready).active))).toBe(true);
+    await page.getByRole('button', { name: 'Start visit' }).click();
+    await page.getByRole('heading', { name: 'At the cabinet' }).waitFor();
+    const facts = await bankFacts(page, visit.id);
+    const v0 = facts.busVolts ?? 560;
+    const tau = facts.tauSeconds;
+    const sheet = [0, 30, 60, 120, 180, 240].map((t) => ({ t, volts: Math.round(v0 * Math.exp(-t / tau) * 10) / 10 }));
+
+    // online: the safety gate, then the first three rows of the paper sheet
+    await passSafetyGate(page, facts.position, false);
+    await page.getByRole('button', { name: /^Type readings from a paper sheet/ }).click();
+    await page.getByTestId('paper-sheet').waitFor();
+    for (const [i, row] of sheet.slice(0, 3).entries()) {
+      await page.getByRole('textbox', { name: `Row ${i + 1}: time since isolation, seconds` }).fill(String(row.t));
+      await page.getByRole('textbox', { name: `Row ${i + 1}: DC-bus voltage, volts` }).fill(String(row.volts));
+    }
+    await eventually(async () => (await draftsInBrowser(page)).find((d) => d.visitId === visit.id)?.body.samples?.length).toBe(3);
+    const started = (await draftsInBrowser(page)).find((d) => d.visitId === visit.id)!;
+    // the facts the capture needs are kept with the run
+    expect(started.snapshot).toMatchObject({ cabinetTag: visit.tag, bankPosition: facts.position, expectedTauSeconds: tau });
+    expect(started.snapshot?.engine).toBeTruthy();
+
+    // the connection is cut and the page reloaded: the service worker serves the app
+    await context.setOffline(true);
+    await page.reload();
+    expect(await page.evaluate(() => Boolean(navigator.serviceWorker.controller))).toBe(true);
+    await page.getByTestId('connection-note').getByText('Readings are kept on this phone and sent by themselves').waitFor();
+    const kept = page.locator(`[data-testid="offline-draft"][data-client-id="${started.clientId}"]`);
+    await eventually(() => kept.getAttribute('data-status')).toBe('capturing');
+    await eventually(() => kept.textContent()).toContain(`${visit.tag} · ${facts.position}`);
+    await screenshot(page, 'at-the-cabinet-offline-capturing-phone');
+
+    // the same run goes on: the paper sheet with its three rows, three more typed
+    await kept.getByRole('button', { name: 'Go on with this run' }).click();
+    await page.getByTestId('paper-sheet').waitFor();
+    await eventually(() => page.getByTestId('bank-capture').textContent()).toContain(`${visit.tag} · ${facts.position}`);
+    for (const [i, row] of sheet.slice(0, 3).entries()) {
+      await eventually(() => page.getByRole('textbox', { name: `Row ${i + 1}: DC-bus voltage, volts` }).inputValue()).toBe(String(row.volts));
+    }
+    for (const [i, row] of sheet.entries()) {
+      if (i < 3) continue;
+      await page.getByRole('textbox', { name: `Row ${i + 1}: time since isolation, seconds` }).fill(String(row.t));
+      await page.getByRole('textbox', { name: `Row ${i + 1}: DC-bus voltage, volts` }).fill(String(row.volts));
+    }
+    await page.getByRole('button', { name: 'Use these readings' }).click();
+    await page.getByTestId('observations-form').waitFor();
+    await page.getByRole('textbox', { name: 'Bank temperature' }).fill('31');
+    await page.getByRole('checkbox', { name: ABSENCE.sentence }).check();
+    await page.getByRole('button', { name: 'Save the run' }).click();
+    const status = page.getByTestId('saved-run-status');
+    await eventually(() => status.getAttribute('data-status')).toBe('ready');
+    await eventually(() => status.textContent()).toContain('Saved on this phone');
+    // judged on the phone with the bank's figures kept with the run
+    await page.getByTestId('run-verdict').waitFor();
+    await screenshot(page, 'at-the-cabinet-offline-continued-phone');
+    const saved = (await draftsInBrowser(page)).find((d) => d.clientId === started.clientId)!;
+    expect(saved.status).toBe('ready');
+    expect(saved.body.samples).toEqual(sheet.map((r) => ({ tSeconds: r.t, volts: r.volts })));
+    await page.getByRole('button', { name: 'Back to the banks' }).click();
+    await eventually(() => kept.textContent()).toContain('6 readings · saved, waiting to be sent');
+    expect(runPosts).toEqual([]);
+    expect(await runsWithClientId(started.clientId)).toEqual([]);
+
+    // back online: the run is sent by itself, once
+    await context.setOffline(false);
+    await page.getByTestId('app-shell').waitFor();
+    await eventually(async () => (await draftsInBrowser(page)).find((d) => d.clientId === started.clientId)?.status).toBe('sent');
+    const stored = await runsWithClientId(started.clientId);
+    expect(stored).toHaveLength(1);
+    expect(stored[0]!.samples).toEqual(saved.body.samples);
+    expect(runPosts).toEqual([started.clientId]);
+    expect(console.problems).toEqual([]);
   }, 240_000);
 });

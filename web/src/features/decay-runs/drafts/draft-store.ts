@@ -1,5 +1,6 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import { useMemo, useSyncExternalStore } from 'react';
+import type { BankEngineInputs } from '../../../../../shared/domain';
 import type { DecayRun, DecayRunInput } from '../../../../../shared/schemas/decay-run';
 
 /**
@@ -31,6 +32,23 @@ export interface RunDraft {
   failedAttempts?: number;
   /** When the last passing failure happened. */
   lastFailedAtMs?: number;
+  /**
+   * What the capture shows and judges with, kept when the run starts online, so the run can be
+   * continued when Ebbline is opened again without a connection. Older drafts have none.
+   */
+  snapshot?: CaptureSnapshot;
+}
+
+/** The visit's and bank's facts a capture needs, as they were when the run started. */
+export interface CaptureSnapshot {
+  cabinetTag: string;
+  bankPosition: string;
+  /** The wait marked on the cabinet, minutes; null when not on record. */
+  markedWaitMinutes: number | null;
+  /** The τ the guided capture times its prompts from, seconds. */
+  expectedTauSeconds: number;
+  /** The bank's engine inputs for the live verdict; null when they were not at hand. */
+  engine: BankEngineInputs | null;
 }
 
 export type DraftStatus = 'capturing' | 'ready' | 'sending' | 'sent' | 'refused';
@@ -121,10 +139,12 @@ export async function createDraft({
   visitId,
   bankId,
   source,
+  snapshot,
 }: {
   visitId: string;
   bankId: string;
   source: DecayRunInput['source'];
+  snapshot?: CaptureSnapshot;
 }): Promise<RunDraft> {
   const nowMs = Date.now();
   const clientId = newClientId();
@@ -137,6 +157,7 @@ export async function createDraft({
     status: 'capturing',
     body: { clientId, bankId, source },
     ...(currentOwnerId ? { ownerId: currentOwnerId } : {}),
+    ...(snapshot ? { snapshot } : {}),
   };
   const db = await database();
   await db.add(STORE, draft);

@@ -1,3 +1,6 @@
+import { useState } from 'react';
+import { Button } from '../../../components/ui/button';
+import { RunCapture } from '../components/capture/visit-capture';
 import { useDrafts, type RunDraft } from './draft-store';
 
 const STATUS_WORDS: Record<RunDraft['status'], string> = {
@@ -11,10 +14,27 @@ const STATUS_WORDS: Record<RunDraft['status'], string> = {
 /**
  * The decay runs kept on this phone, for the page shown when Ebbline opens without a
  * connection (nobody can be signed in then): each with its readings count and state, so the
- * technician sees nothing was lost.
+ * technician sees nothing was lost. A run being captured that kept its visit's and bank's facts
+ * goes on here: the same capture, from those facts, saved on the phone and sent once the
+ * connection returns.
  */
 export function OfflineDrafts() {
-  const drafts = useDrafts().filter((draft) => draft.status !== 'sent');
+  const all = useDrafts();
+  const drafts = all.filter((draft) => draft.status !== 'sent');
+  const [openId, setOpenId] = useState<string | null>(null);
+  const open = openId ? all.find((draft) => draft.clientId === openId) : undefined;
+  if (open?.snapshot) {
+    return (
+      <RunCapture
+        key={open.clientId}
+        facts={open.snapshot}
+        initialDraft={open}
+        drafts={all}
+        onClose={() => setOpenId(null)}
+        closeLabel="← Kept on this phone"
+      />
+    );
+  }
   if (drafts.length === 0) {
     return <p className="text-base text-tide-900">No decay runs are waiting on this phone.</p>;
   }
@@ -30,11 +50,29 @@ export function OfflineDrafts() {
             data-status={draft.status}
             className="rounded-lg border border-tide-200 px-3 py-2 text-base text-tide-950"
           >
-            <span className="font-medium">Decay run of {new Date(draft.createdAtMs).toLocaleString()}</span>
+            <span className="font-medium">
+              Decay run of {new Date(draft.createdAtMs).toLocaleString()}
+            </span>
+            {draft.snapshot ? (
+              <span className="block text-sm text-tide-800">
+                {draft.snapshot.cabinetTag} · {draft.snapshot.bankPosition}
+              </span>
+            ) : null}
             <span className="block text-sm text-tide-800">
               {readingsCount(draft)} · {STATUS_WORDS[draft.status]}
             </span>
-            {draft.refusal ? <span className="block text-sm text-tide-800">{draft.refusal}</span> : null}
+            {draft.refusal ? (
+              <span className="block text-sm text-tide-800">{draft.refusal}</span>
+            ) : null}
+            {draft.status === 'capturing' && draft.snapshot ? (
+              <Button
+                variant="primary"
+                className="mt-2 min-h-12 w-full text-base"
+                onClick={() => setOpenId(draft.clientId)}
+              >
+                Go on with this run
+              </Button>
+            ) : null}
           </li>
         ))}
       </ul>

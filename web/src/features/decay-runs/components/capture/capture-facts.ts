@@ -1,4 +1,6 @@
-import type { VisitBankRef } from '../../../../../../shared/schemas/visit';
+import type { BankEngineInputs } from '../../../../../../shared/domain';
+import type { Visit, VisitBankRef } from '../../../../../../shared/schemas/visit';
+import type { CaptureSnapshot } from '../../drafts/draft-store';
 
 /** τ assumed when a bank has neither a measured τ nor a baseline τ, seconds (a mid-size drive). */
 export const FALLBACK_TAU_SECONDS = 120;
@@ -35,4 +37,22 @@ export function waitText(seconds: number): string {
   const minutes = Math.ceil(seconds / 60);
   if (minutes < 120) return `${minutes} min`;
   return `${Math.floor(minutes / 60)} h ${minutes % 60} min`;
+}
+
+/**
+ * What a run's capture needs of its visit and bank, kept with the draft when the run starts, so
+ * the run can be continued from the phone alone (Ebbline opened again without a connection).
+ */
+export function captureSnapshotOf(
+  visit: Pick<Visit, 'cabinetTag' | 'cabinetMarkedWaitMinutes'>,
+  bank: VisitBankRef,
+  engine: BankEngineInputs | null,
+): CaptureSnapshot {
+  return {
+    cabinetTag: visit.cabinetTag,
+    bankPosition: bank.position,
+    markedWaitMinutes: visit.cabinetMarkedWaitMinutes,
+    expectedTauSeconds: expectedTauOf(bank).tauSeconds,
+    engine,
+  };
 }

@@ -1,9 +1,9 @@
 import { useQueries } from '@tanstack/react-query';
-import { useEffect, useId, useMemo, useRef, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import { HEALTH_LABELS } from '../../../../../../shared/constants/health';
 import { REVIEW_STATE_LABELS } from '../../../../../../shared/constants/decay-runs';
 import type { Role } from '../../../../../../shared/constants/roles';
-import type { DecaySample } from '../../../../../../shared/domain';
+import type { BankEngineInputs, DecaySample } from '../../../../../../shared/domain';
 import { judgeRecordedRun } from '../../../../../../shared/domain/recorded-run';
 import {
   decayRunInputSchema,
@@ -22,6 +22,7 @@ import {
   markReady,
   updateDraft,
   useVisitDrafts,
+  type CaptureSnapshot,
   type RunDraft,
 } from '../../drafts/draft-store';
 import { DecayPlot } from '../decay-plot';
@@ -29,7 +30,7 @@ import { LoggerUpload } from '../logger/logger-upload';
 import { VisitPhotos } from '../photos/visit-photos';
 import { RunVerdict } from '../verdict/run-verdict';
 import { VisitRuns } from '../verdict/visit-runs';
-import { expectedTauOf } from './capture-facts';
+import { captureSnapshotOf } from './capture-facts';
 import { ABSENCE_CHECK, GuidedCapture } from './guided-capture';
 import { liveFit } from './live-fit';
 import { ObservationsForm, type RunObservations } from './observations-form';
@@ -282,7 +283,7 @@ function BankStateBadge({ state }: { state: BankState }) {
 
 type Body = RunDraft['body'];
 
-/** One bank's run: gate, method, readings, observations, save, verdict. */
+/** One bank's run: the safety gate for a new run, then the run's capture ({@link RunCapture}). */
 function BankCapture({
   visit,
   viewer,
@@ -302,52 +303,28 @@ function BankCapture({
 }) {
   const { engine, bank: bankRecord } = useCaptureEngine(bank.id);
   const busVolts = bankRecord?.cabinetDcBusVolts ?? undefined;
-  const [body, setBody] = useState<Body | undefined>(initialDraft?.body);
-  const [stepState, setStepState] = useState<StepState | undefined>(() =>
-    initialDraft ? loadStep(initialDraft) : undefined,
-  );
+  const [started, setStarted] = useState<RunDraft | undefined>(initialDraft);
   const [problem, setProblem] = useState<string | null>(null);
   const [creating, setCreating] = useState(false);
-  const [openedAt] = useState(() => new Date().toISOString());
-  const draft = body
-    ? (drafts.find((d) => d.clientId === body.clientId) ?? initialDraft)
-    : undefined;
-  const samples = useMemo(() => (body?.samples ?? []) as DecaySample[], [body?.samples]);
-  // each step starts at the top of the screen, below the visit's header and cautions
   const top = useRef<HTMLDivElement>(null);
-  const where = `${body ? 'run' : 'gate'}:${stepState?.step ?? ''}:${draft?.status ?? ''}`;
   useEffect(() => {
     top.current?.scrollIntoView({ block: 'start' });
-  }, [where]);
-
-  const clientId = body?.clientId;
-  function patch(change: Partial<Body>) {
-    if (!clientId) return;
-    setBody((current) => (current ? { ...current, ...change } : current));
-    updateDraft(clientId, change).catch((error: unknown) =>
-      setProblem(error instanceof Error ? error.message : String(error)),
-    );
-  }
-  function go(next: Partial<StepState>) {
-    if (!clientId) return;
-    setStepState((current) => {
-      const state = { step: 'method' as Step, ended: false, ...current, ...next };
-      saveStep(clientId, state);
-      return state;
-    });
-  }
+  }, []);
 
   async function confirmGate(confirmation: GateConfirmation) {
     setCreating(true);
     try {
-      const created = await createDraft({ visitId: visit.id, bankId: bank.id, source: 'guided' });
+      const created = await createDraft({
+        visitId: visit.id,
+        bankId: bank.id,
+        source: 'guided',
+        snapshot: captureSnapshotOf(visit, bank, engine),
+      });
       // absence of voltage is confirmed at the end; until then the draft keeps the gate's four
       const safety = confirmation as unknown as DecayRunInput['safety'];
       const updated = await updateDraft(created.clientId, { safety });
-      setBody(updated.body);
-      const state: StepState = { step: 'method', ended: false };
-      saveStep(created.clientId, state);
-      setStepState(state);
+      saveStep(created.clientId, { step: 'method', ended: false });
+      setStarted(updated);
     } catch (error) {
       setProblem(error instanceof Error ? error.message : String(error));
     } finally {
@@ -355,26 +332,10 @@ function BankCapture({
     }
   }
 
-  const header = (
-    <div className="mb-3 flex items-center justify-between gap-2">
-      <p className="text-sm font-medium text-tide-600">
-        {visit.cabinetTag} · {bank.position}
-      </p>
-      <Button variant="ghost" size="sm" className="min-h-10" onClick={onClose}>
-        ← All banks
-      </Button>
-    </div>
-  );
-  const problemLine = problem ? (
-    <p role="alert" className="mt-3 text-sm font-medium text-eol-600">
-      {problem}
-    </p>
-  ) : null;
-
-  if (!body) {
+  if (!started) {
     return (
       <div data-testid="bank-capture" ref={top} className="scroll-mt-20">
-        {header}
+        <CaptureHeader title={`${visit.cabinetTag} · ${bank.position}`} onClose={onClose} />
         <SafetyGate
           visit={visit}
           bank={bank}
@@ -385,13 +346,113 @@ function BankCapture({
         {creating ? (
           <p className="mt-2 text-sm text-tide-800">Keeping the run on this phone…</p>
         ) : null}
-        {problemLine}
+        {problem ? <ProblemLine problem={problem} /> : null}
       </div>
     );
   }
-  if (!stepState) return null;
+  const technician = visit.technicians.some((t) => t.id === viewer.id);
+  return (
+    <RunCapture
+      // the bank's figures as loaded now; those kept with the run when they cannot be loaded
+      facts={captureSnapshotOf(visit, bank, engine ?? started.snapshot?.engine ?? null)}
+      initialDraft={started}
+      drafts={drafts}
+      onClose={onClose}
+      photos={{
+        finish: (
+          <VisitPhotos
+            visitId={visit.id}
+            bankId={bank.id}
+            canAdd={technician || viewer.roles.includes('admin')}
+          />
+        ),
+        saved: <VisitPhotos visitId={visit.id} bankId={bank.id} canAdd={technician} />,
+      }}
+    />
+  );
+}
 
-  const status = draft?.status ?? 'capturing';
+function CaptureHeader({
+  title,
+  onClose,
+  closeLabel = '← All banks',
+}: {
+  title: string;
+  onClose: () => void;
+  closeLabel?: string;
+}) {
+  return (
+    <div className="mb-3 flex items-center justify-between gap-2">
+      <p className="text-sm font-medium text-tide-600">{title}</p>
+      <Button variant="ghost" size="sm" className="min-h-10" onClick={onClose}>
+        {closeLabel}
+      </Button>
+    </div>
+  );
+}
+
+function ProblemLine({ problem }: { problem: string }) {
+  return (
+    <p role="alert" className="mt-3 text-sm font-medium text-eol-600">
+      {problem}
+    </p>
+  );
+}
+
+/**
+ * A run kept on this phone, from the choice of method on: the readings (guided capture, a paper
+ * sheet or a logger file), the observations, the save and the verdict. It needs only the draft
+ * and the facts of its visit and bank, so it opens from the visit's page or, without a
+ * connection, from the facts kept with the draft.
+ */
+export function RunCapture({
+  facts,
+  initialDraft,
+  drafts,
+  onClose,
+  closeLabel,
+  photos,
+}: {
+  /** The visit's and bank's facts, and the engine's inputs (null when not at hand). */
+  facts: CaptureSnapshot;
+  initialDraft: RunDraft;
+  /** The drafts on this phone, live (the run's status follows them). */
+  drafts: readonly RunDraft[];
+  onClose: () => void;
+  closeLabel?: string;
+  /** The visit's photos before and after the save; none without a connection. */
+  photos?: { finish: ReactNode; saved: ReactNode };
+}) {
+  const { engine } = facts;
+  const [body, setBody] = useState<Body>(initialDraft.body);
+  const [stepState, setStepState] = useState<StepState>(() => loadStep(initialDraft));
+  const [problem, setProblem] = useState<string | null>(null);
+  const [openedAt] = useState(() => new Date().toISOString());
+  const draft = drafts.find((d) => d.clientId === body.clientId) ?? initialDraft;
+  const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
+  // each step starts at the top of the screen, below the visit's header and cautions
+  const top = useRef<HTMLDivElement>(null);
+  const where = `run:${stepState.step}:${draft.status}`;
+  useEffect(() => {
+    top.current?.scrollIntoView({ block: 'start' });
+  }, [where]);
+
+  const clientId = body.clientId;
+  function patch(change: Partial<Body>) {
+    setBody((current) => ({ ...current, ...change }));
+    updateDraft(clientId, change).catch((error: unknown) =>
+      setProblem(error instanceof Error ? error.message : String(error)),
+    );
+  }
+  function go(next: Partial<StepState>) {
+    setStepState((current) => {
+      const state = { ...current, ...next };
+      saveStep(clientId, state);
+      return state;
+    });
+  }
+
+  const status = draft.status;
   const gateAt = (body.safety as { confirmedAt?: string } | undefined)?.confirmedAt ?? openedAt;
   const absence =
     (body.safety as { absenceOfVoltageVerified?: boolean } | undefined)
@@ -403,25 +464,23 @@ function BankCapture({
     } as unknown as DecayRunInput['safety'];
     patch({ safety });
   };
-  const expected = expectedTauOf(bank);
 
   let content;
   if (status !== 'capturing') {
     content = (
       <SavedRun
-        visit={visit}
-        viewer={viewer}
-        bank={bank}
-        draft={draft!}
+        facts={facts}
+        draft={draft}
         body={body}
         engine={engine}
+        photos={photos?.saved}
         onClose={onClose}
       />
     );
   } else if (stepState.step === 'method') {
     content = (
       <ChooseMethod
-        bankPosition={bank.position}
+        bankPosition={facts.bankPosition}
         onChoose={(step) => {
           if (step === 'typed') patch({ source: 'typed', isolatedAt: body.isolatedAt ?? gateAt });
           if (step === 'guided') patch({ source: 'guided' });
@@ -436,7 +495,7 @@ function BankCapture({
   } else if (stepState.step === 'guided') {
     content = (
       <GuidedCapture
-        expectedTauSeconds={expected.tauSeconds}
+        expectedTauSeconds={facts.expectedTauSeconds}
         engine={engine}
         isolatedAt={body.isolatedAt}
         samples={samples}
@@ -483,11 +542,9 @@ function BankCapture({
   } else {
     content = (
       <Finish
-        visit={visit}
-        viewer={viewer}
-        bank={bank}
         body={body}
         engine={engine}
+        photos={photos?.finish}
         absence={absence}
         askAbsence={body.source !== 'guided' || !absence}
         onAbsence={setAbsence}
@@ -521,7 +578,11 @@ function BankCapture({
 
   return (
     <div data-testid="bank-capture" ref={top} className="scroll-mt-20">
-      {header}
+      <CaptureHeader
+        title={`${facts.cabinetTag} · ${facts.bankPosition}`}
+        onClose={onClose}
+        closeLabel={closeLabel}
+      />
       {status === 'capturing' && stepState.step !== 'method' ? (
         <h3 className="mb-3 text-lg font-bold text-tide-900">
           {stepState.step === 'guided'
@@ -534,7 +595,7 @@ function BankCapture({
         </h3>
       ) : null}
       {content}
-      {problemLine}
+      {problem ? <ProblemLine problem={problem} /> : null}
     </div>
   );
 }
@@ -616,11 +677,9 @@ function MethodButton({
 }
 
 function Finish({
-  visit,
-  viewer,
-  bank,
   body,
   engine,
+  photos,
   absence,
   askAbsence,
   onAbsence,
@@ -628,11 +687,10 @@ function Finish({
   onBack,
   onSave,
 }: {
-  visit: Visit;
-  viewer: CaptureViewer;
-  bank: VisitBankRef;
   body: Body;
-  engine: ReturnType<typeof useCaptureEngine>['engine'];
+  engine: BankEngineInputs | null;
+  /** The visit's photos; none without a connection. */
+  photos: ReactNode | undefined;
   absence: boolean;
   askAbsence: boolean;
   onAbsence: (on: boolean) => void;
@@ -667,16 +725,12 @@ function Finish({
           onObservations(next);
         }}
       />
-      <div className="space-y-2">
-        <h4 className="text-base font-bold text-tide-900">Photos (optional)</h4>
-        <VisitPhotos
-          visitId={visit.id}
-          bankId={bank.id}
-          canAdd={
-            visit.technicians.some((t) => t.id === viewer.id) || viewer.roles.includes('admin')
-          }
-        />
-      </div>
+      {photos ? (
+        <div className="space-y-2">
+          <h4 className="text-base font-bold text-tide-900">Photos (optional)</h4>
+          {photos}
+        </div>
+      ) : null}
       {fit.verdict?.safetyFinding ? (
         <p className="text-sm font-medium text-eol-600">
           This run carries a safety finding: it is saved as such.
@@ -709,20 +763,19 @@ function Finish({
 
 /** After Save: where the run is (on this phone, sending, sent, refused) and its verdict. */
 function SavedRun({
-  visit,
-  viewer,
-  bank,
+  facts,
   draft,
   body,
   engine,
+  photos,
   onClose,
 }: {
-  visit: Visit;
-  viewer: CaptureViewer;
-  bank: VisitBankRef;
+  facts: CaptureSnapshot;
   draft: RunDraft;
   body: Body;
-  engine: ReturnType<typeof useCaptureEngine>['engine'];
+  engine: BankEngineInputs | null;
+  /** The visit's photos; none without a connection. */
+  photos: ReactNode | undefined;
   onClose: () => void;
 }) {
   const samples = useMemo(() => (body.samples ?? []) as DecaySample[], [body.samples]);
@@ -758,14 +811,12 @@ function SavedRun({
             ? `The server refused this run: ${draft.refusal ?? 'no reason given'} The readings stay on this phone.`
             : '✓ Saved on this phone. It is sent by itself as soon as there is a connection.'}
       </p>
-      <h3 className="text-lg font-bold text-tide-900">Verdict for {bank.position}</h3>
+      <h3 className="text-lg font-bold text-tide-900">Verdict for {facts.bankPosition}</h3>
       {verdict ? (
         <RunVerdict
           verdict={verdict}
           context={{
-            markedWaitSeconds: visit.cabinetMarkedWaitMinutes
-              ? visit.cabinetMarkedWaitMinutes * 60
-              : null,
+            markedWaitSeconds: facts.markedWaitMinutes ? facts.markedWaitMinutes * 60 : null,
           }}
         />
       ) : (
@@ -774,11 +825,7 @@ function SavedRun({
         </p>
       )}
       {plotted.length ? <DecayPlot samples={plotted} verdict={fit ? { fit } : null} /> : null}
-      <VisitPhotos
-        visitId={visit.id}
-        bankId={bank.id}
-        canAdd={visit.technicians.some((t) => t.id === viewer.id)}
-      />
+      {photos}
       <Button variant="primary" className="min-h-12 w-full text-base sm:w-auto" onClick={onClose}>
         Back to the banks
       </Button>
