@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
-import { RunCapture } from '../components/capture/visit-capture';
+import { RunCapture } from '../components/capture/run-capture';
 import { useDrafts, type RunDraft } from './draft-store';
 
 const STATUS_WORDS: Record<RunDraft['status'], string> = {
