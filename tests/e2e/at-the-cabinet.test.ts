@@ -114,22 +114,31 @@ async function cabinetPhoto(): Promise<Buffer> {
   return sharp({ create: { width: 320, height: 240, channels: 3, background: '#5fb3b3' } }).jpeg({ quality: 80 }).toBuffer();
 }
 
+/**
+ * Watches a page that will lose its connection: its problems (the requests that fail while the
+ * connection is cut are part of the story) and the clientId of every run it POSTs.
+ */
+function watchOfflineRuns(page: Page): { console: { problems: string[] }; runPosts: string[] } {
+  const console = watchConsole(page, [
+    / 401 .*\/api\/me$/,
+    // while the connection is cut, the page's own requests fail; that is the story
+    /request failed: .* net::ERR_INTERNET_DISCONNECTED/,
+  ]);
+  const runPosts: string[] = [];
+  page.on('request', (request) => {
+    if (request.method() === 'POST' && RUN_POST.test(new URL(request.url()).pathname)) {
+      runPosts.push((JSON.parse(request.postData() ?? '{}') as { clientId?: string }).clientId ?? '');
+    }
+  });
+  return { console, runPosts };
+}
+
 describe('At the cabinet, from sign-in to a run sent after the connection came back (technician, phone)', () => {
   it('when Kofi records a guided run, a photo and a logger file, then saves a run offline and reloads, then back online that run is sent exactly once', async () => {
     const [visit] = await plannedVisitsOfKofi();
     expect(visit).toBeDefined();
     const { page, context } = await browser(PHONE_VIEWPORT);
-    const console = watchConsole(page, [
-      / 401 .*\/api\/me$/,
-      // while the connection is cut, the page's own requests fail; that is the story
-      /request failed: .* net::ERR_INTERNET_DISCONNECTED/,
-    ]);
-    const runPosts: string[] = [];
-    page.on('request', (request) => {
-      if (request.method() === 'POST' && RUN_POST.test(new URL(request.url()).pathname)) {
-        runPosts.push((JSON.parse(request.postData() ?? '{}') as { clientId?: string }).clientId ?? '');
-      }
-    });
+    const { console, runPosts } = watchOfflineRuns(page);
 
     // signs in, opens the visit from My visits
     await signIn(page, 'kofi', 'tidewater-tech');
@@ -311,17 +320,7 @@ describe('At the cabinet, from sign-in to a run sent after the connection came b
     expect(visits.length).toBeGreaterThanOrEqual(3);
     const visit = visits[1]!;
     const { page, context } = await browser(PHONE_VIEWPORT);
-    const console = watchConsole(page, [
-      / 401 .*\/api\/me$/,
-      // while the connection is cut, the page's own requests fail; that is the story
-      /request failed: .* net::ERR_INTERNET_DISCONNECTED/,
-    ]);
-    const runPosts: string[] = [];
-    page.on('request', (request) => {
-      if (request.method() === 'POST' && RUN_POST.test(new URL(request.url()).pathname)) {
-        runPosts.push((JSON.parse(request.postData() ?? '{}') as { clientId?: string }).clientId ?? '');
-      }
-    });
+    const { console, runPosts } = watchOfflineRuns(page);
     await signIn(page, 'kofi', 'tidewater-tech', { returnTo: `/my-visits/${visit.id}` });
     await page.getByRole('heading', { name: visit.tag }).waitFor();
     expect(await page.evaluate(async () => Boolean((await navigator.serviceWorker.ready).active))).toBe(true);
